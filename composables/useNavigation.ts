@@ -1,0 +1,22 @@
+import type { Role } from '~~/shared/roles'
+
+export interface NavItem {
+  to: string
+  label: string
+  roles: readonly Role[]
+}
+
+// One list drives both the header and the page guard's idea of "home" per role.
+const NAV_ITEMS: NavItem[] = [
+  { to: '/', label: 'Shift overview', roles: [] },
+  { to: '/admin/users', label: 'People', roles: ['admin'] },
+  { to: '/admin/audit', label: 'Audit trail', roles: ['admin', 'qa'] },
+]
+
+/** Navigation entries the signed-in user's role may open. */
+export function useNavigation() {
+  const { data } = useAuth()
+  const role = computed(() => (data.value?.user as { role?: Role } | undefined)?.role)
+  const items = computed(() => NAV_ITEMS.filter((item) => item.roles.length === 0 || (role.value && item.roles.includes(role.value))))
+  return { items, role }
+}

@@ -1,0 +1,24 @@
+import { roleAllows, type Role } from '~~/shared/roles'
+
+declare module '#app' {
+  interface PageMeta {
+    /** Open without signing in (the sign-in page). */
+    public?: boolean
+    /** Roles that may open the page; absent means any signed-in role. */
+    roles?: Role[]
+  }
+}
+
+// Navigation only: the server enforces roles on every API call regardless.
+export default defineNuxtRouteMiddleware(async (to) => {
+  if (to.meta.public) return
+  const { data, getSession } = useAuth()
+  if (!data.value?.user) await getSession()
+  const user = data.value?.user as { role?: Role } | undefined
+  if (!user?.role) {
+    return navigateTo({ path: '/login', query: { next: to.fullPath } })
+  }
+  if (to.meta.roles && !roleAllows(user.role, to.meta.roles)) {
+    return navigateTo({ path: '/', query: { denied: to.path } })
+  }
+})

@@ -1,0 +1,42 @@
+import { readFileSync } from 'node:fs'
+
+const { version } = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string }
+
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  srcDir: '.',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
+  css: [
+    '@fontsource/ibm-plex-sans/latin-400.css',
+    '@fontsource/ibm-plex-sans/latin-500.css',
+    '@fontsource/ibm-plex-sans/latin-600.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      title: 'Slakewise',
+      htmlAttrs: { lang: 'en' },
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Soak, quench-to-handling and cooldown records for heat-treatment shops.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  auth: {
+    baseURL: '/api/auth',
+    originEnvKey: 'AUTH_ORIGIN',
+    provider: { type: 'authjs', trustHost: false, defaultProvider: 'credentials', addDefaultCallbackUrl: true },
+    // Pages are guarded by our own global middleware (middleware/auth.global.ts), which also checks roles.
+    globalAppMiddleware: false,
+    sessionRefresh: { enablePeriodically: false, enableOnWindowFocus: false },
+  },
+  runtimeConfig: {
+    authSecret: '', // NUXT_AUTH_SECRET
+    databaseUrl: '', // NUXT_DATABASE_URL (DATABASE_URL is read too)
+    public: { appVersion: version },
+  },
+  typescript: { strict: true },
+})

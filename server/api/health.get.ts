@@ -1,0 +1,13 @@
+import { sql } from 'drizzle-orm'
+
+// Open to everyone (no sign-in): monitoring and the start scripts poll it.
+export default defineEventHandler(async (event) => {
+  const version = useRuntimeConfig().public.appVersion
+  try {
+    await useDb().execute(sql`SELECT 1`)
+    return { status: 'ok', database: 'reachable', version }
+  } catch {
+    setResponseStatus(event, 503, 'Database unreachable')
+    return { status: 'degraded', database: 'unreachable', message: 'The database (MariaDB) is not answering. Check that it is running.', version }
+  }
+})

@@ -1,0 +1,8 @@
+import { userCreateSchema } from '../../../shared/schemas/user'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, ['admin'])
+  const input = await readValid(event, userCreateSchema)
+  setResponseStatus(event, 201)
+  return await createUser(input, admin.id)
+})

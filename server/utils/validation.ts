@@ -1,0 +1,43 @@
+import type { H3Event } from 'h3'
+import type { z } from 'zod'
+
+export interface FieldProblem {
+  field: string
+  message: string
+}
+
+/** zod issues as `{ field, message }` pairs, the field a dotted path ("stages.1.duration_s"). */
+export function fieldProblems(error: z.ZodError): FieldProblem[] {
+  return error.issues.map((issue) => ({
+    field: issue.path.length ? issue.path.map(String).join('.') : '(body)',
+    message: issue.message,
+  }))
+}
+
+function invalid(error: z.ZodError, where: string): never {
+  const problems = fieldProblems(error)
+  const first = problems[0]
+  throw createError({
+    statusCode: 400,
+    statusMessage: `Invalid ${where}`,
+    message: first ? `${first.field}: ${first.message}` : `Invalid ${where}`,
+    data: { problems },
+  })
+}
+
+/** Reads and validates a JSON body; malformed JSON is a 400 from h3 itself. */
+export async function readValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
+  const body = await readBody(event)
+  const parsed = schema.safeParse(body ?? {})
+  return parsed.success ? parsed.data : invalid(parsed.error, 'request body')
+}
+
+export async function paramsValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
+  const parsed = schema.safeParse(getRouterParams(event))
+  return parsed.success ? parsed.data : invalid(parsed.error, 'path parameter')
+}
+
+export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
+  const parsed = schema.safeParse(getQuery(event))
+  return parsed.success ? parsed.data : invalid(parsed.error, 'query')
+}
