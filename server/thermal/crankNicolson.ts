@@ -298,8 +298,16 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
       }
       let i = 0
       while (centreX[i + 1] < x) i++
-      const s = (x - centreX[i]) / (centreX[i + 1] - centreX[i])
-      return T[i] + s * (T[i + 1] - T[i])
+      // Through the face between the two centres, at the temperature flux
+      // continuity gives it, so a kink at a material jump is kept (in a uniform
+      // material this is plain linear interpolation).
+      const rl = halfResRight[i]
+      const rr = halfResLeft[i + 1]
+      const face_C = (T[i] * rr + T[i + 1] * rl) / (rl + rr)
+      const xf = facesX[i + 1]
+      return x <= xf
+        ? T[i] + ((x - centreX[i]) / (xf - centreX[i])) * (face_C - T[i])
+        : face_C + ((x - xf) / (centreX[i + 1] - xf)) * (T[i + 1] - face_C)
     })
     let stored = 0
     for (let i = 0; i < N; i++) stored += capacity[i] * T[i]
