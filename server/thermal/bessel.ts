@@ -1,0 +1,32 @@
+/**
+ * J0, J1 and their zeros.
+ *
+ * Values come from the `bessel` package (polynomial/asymptotic fits, absolute
+ * error ≈ 3e-9, checked against Abramowitz & Stegun Table 9.1). Zeros are
+ * bracketed around McMahon's asymptotic estimates j0,n ≈ (n − ¼)π,
+ * j1,n ≈ (n + ¼)π (A&S 9.5.12) — the estimate is within 0.1 of the zero and
+ * consecutive zeros are ≈ π apart, so a ±0.4 bracket holds exactly one — and
+ * polished with Brent. Accuracy is limited by the J values: ≈ 1e-8 absolute.
+ */
+import bessel from 'bessel'
+import { brent } from './roots'
+
+export function besselJ0(x: number): number {
+  return x === 0 ? 1 : bessel.besselj(x, 0)
+}
+
+export function besselJ1(x: number): number {
+  return x === 0 ? 0 : bessel.besselj(x, 1)
+}
+
+/** n-th positive zero of J0 (n ≥ 1). */
+export function besselJ0Zero(n: number): number {
+  const guess = (n - 0.25) * Math.PI
+  return brent(besselJ0, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+}
+
+/** n-th positive zero of J1 (n ≥ 1); j1,0 = 0 is excluded. */
+export function besselJ1Zero(n: number): number {
+  const guess = (n + 0.25) * Math.PI
+  return brent(besselJ1, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+}

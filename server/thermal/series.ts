@@ -1,0 +1,143 @@
+/**
+ * Eigenfunction series of one stage:
+ *     T(x, τ) = T_ss(x) + Σ a_n f_n(x) e^{−μ_n τ},
+ *     a_n = ∫ w (T_start − T_ss) f_n dx / ∫ w f_n² dx,   w = ρc x^m,
+ * the modes being orthogonal in that weight (Sturm–Liouville). Coefficients come
+ * from composite Gauss–Legendre quadrature, or the closed forms C_n (T₀ − T∞) for a
+ * uniform symmetric body from a uniform start (Incropera et al., §5.5–5.6).
+ *
+ * The number of modes is chosen for the earliest time the stage is evaluated at:
+ * terms |a_n| max|f_n| e^{−μ_n τ_min} are summed beyond a cut until at least three
+ * terms past it have been computed; the cut is the first whose tail is < 0.01 K,
+ * and that tail is reported (μ_n grows like n², so the computed next terms bound
+ * the rest).
+ */
+import type { ModeFamily } from './modeFamily'
+import type { ScaledDomain } from './properties'
+import { breakpointsOf, propertiesAt } from './properties'
+import { compositeRule } from './quadrature'
+import { uniformInitialCoefficient } from './eigenRoots'
+import type { Geometry } from './types'
+
+export const TRUNCATION_TOLERANCE_K = 0.01
+
+export interface StageSeries {
+  start_s: number
+  /** Infinity for an open-ended last stage. */
+  end_s: number
+  timeScale_s: number
+  steady: (x: number) => number
+  steadyMean_C: number
+  /** Dimensionless decay rates of the modes used. */
+  rates: number[]
+  amplitudes_K: number[]
+  shapes: ((x: number) => number)[]
+  /** ∫ w f_n / ∫ w: each mode's contribution to the heat-content mean. */
+  modeMeans: number[]
+  truncationError_K: number
+}
+
+export interface SeriesInput {
+  geometry: Geometry
+  domain: ScaledDomain
+  family: ModeFamily
+  steady: (x: number) => number
+  /** Temperature at the stage start: a function of x, or a uniform value. */
+  start: number | ((x: number) => number)
+  /** Extra quadrature breakpoints (kinks of an initial profile). */
+  breakpoints: number[]
+  /** True when T_ss is uniform and the centre symmetric (closed-form C_n apply). */
+  symmetricUniformSteady: boolean
+  earliest_s: number
+  minModes: number
+  maxModes: number
+  start_s: number
+  end_s: number
+}
+
+const LOOKAHEAD = 4
+
+export function buildStageSeries(input: SeriesInput): StageSeries {
+  const { domain, family } = input
+  const tauMin = Math.max(input.earliest_s, 0) / domain.timeScale_s
+  const useClosedForm = family.analytic && input.symmetricUniformSteady && typeof input.start === 'number'
+  const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
+  // Guess: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)².
+  let n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI) + 1
+  n = Math.min(Math.max(n, input.minModes, 4), input.maxModes)
+  const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
+  for (;;) {
+    const computed = Math.min(n + LOOKAHEAD, input.maxModes)
+    const modes = Array.from({ length: computed }, (_, i) => family.mode(i + 1))
+    const lamMax = Math.sqrt(modes[computed - 1].rate * maxRatio)
+    const rule = compositeRule(
+      [...breakpointsOf(domain.pieces), ...input.breakpoints],
+      Math.min(1 / 16, 1.5 / lamMax),
+      (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
+    )
+    const nodes = rule.x.length
+    const excess = new Float64Array(nodes)
+    let totalWeight = 0
+    for (let i = 0; i < nodes; i++) {
+      excess[i] = startAt(rule.x[i]) - input.steady(rule.x[i])
+      totalWeight += rule.w[i]
+    }
+    let steadyMean = 0
+    for (let i = 0; i < nodes; i++) steadyMean += rule.w[i] * input.steady(rule.x[i])
+    const amplitudes: number[] = []
+    const means: number[] = []
+    const terms: number[] = []
+    for (let j = 0; j < computed; j++) {
+      const shape = modes[j].shape
+      let norm = 0
+      let projection = 0
+      let mean = 0
+      let peak = Math.abs(shape(1))
+      for (let i = 0; i < nodes; i++) {
+        const f = shape(rule.x[i])
+        const wf = rule.w[i] * f
+        norm += wf * f
+        projection += wf * excess[i]
+        mean += wf
+        peak = Math.max(peak, Math.abs(f))
+      }
+      const a = useClosedForm
+        ? ((input.start as number) - input.steady(0)) * uniformInitialCoefficient(input.geometry, Math.sqrt(modes[j].rate))
+        : projection / norm
+      amplitudes.push(a)
+      means.push(mean / totalWeight)
+      terms.push(Math.abs(a) * peak * Math.exp(-modes[j].rate * tauMin))
+    }
+    let cut = computed
+    let tail = 0
+    while (cut > input.minModes && tail + terms[cut - 1] < TRUNCATION_TOLERANCE_K) {
+      tail += terms[cut - 1]
+      cut--
+    }
+    if (computed - cut >= 3 || computed >= input.maxModes) {
+      // At the mode cap with too few terms past the cut, the last computed term stands in for the tail.
+      const truncation = computed - cut >= 3 ? tail : tail + terms[computed - 1]
+      return {
+        start_s: input.start_s,
+        end_s: input.end_s,
+        timeScale_s: domain.timeScale_s,
+        steady: input.steady,
+        steadyMean_C: steadyMean / totalWeight,
+        rates: modes.slice(0, cut).map((m) => m.rate),
+        amplitudes_K: amplitudes.slice(0, cut),
+        shapes: modes.slice(0, cut).map((m) => m.shape),
+        modeMeans: means.slice(0, cut),
+        truncationError_K: truncation,
+      }
+    }
+    n = Math.min(2 * n, input.maxModes)
+  }
+}
+
+/** Temperature of a stage series at time τ after the stage start. */
+export function seriesValue(series: StageSeries, tau_s: number, x: number): number {
+  const tau = tau_s / series.timeScale_s
+  let T = series.steady(x)
+  for (let j = 0; j < series.rates.length; j++) T += series.amplitudes_K[j] * series.shapes[j](x) * Math.exp(-series.rates[j] * tau)
+  return T
+}

@@ -1,0 +1,177 @@
+/**
+ * Multi-stage cooldown (or heat-up) by eigenfunction series.
+ *
+ * Each stage has its own modes and steady state; the temperature at the end of a
+ * stage is projected onto the next stage's modes (series.ts), which is exact up to
+ * quadrature and truncation: a second stage identical to the first reproduces the
+ * single-stage answer (tests/unit/thermal/stages.test.ts).
+ */
+import { modeFamily } from './modeFamily'
+import type { PointStage } from './pointSeries'
+import { pointValue } from './pointSeries'
+import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
+import { compositeRule } from './quadrature'
+import { buildStageSeries, seriesValue, type StageSeries } from './series'
+import { steadyProfile, type ScaledEnd } from './steadyState'
+import { firstCrossing, type TargetSpec } from './targetTime'
+import type { Boundary, CooldownProblem, TemperaturePoint } from './types'
+
+/** Where a temperature is read: a named place, or x as a fraction of length_m. */
+export type PointRef = 'centre' | 'surface' | 'mean' | { x: number }
+
+export interface SolveOptions {
+  /** Earliest time after each stage's start the series must be accurate at (one value or one per stage). */
+  earliest_s?: number | number[]
+  /** Use at least this many modes in every stage. */
+  minModes?: number
+}
+
+export interface StageSummary {
+  start_s: number
+  /** Null for an open-ended stage. */
+  end_s: number | null
+  modes: number
+  decayRates_per_s: number[]
+  timeConstants_s: number[]
+  truncationError_K: number
+  /** h L / k_ref at the surface (null when fixed); innerBiot likewise for a slab face. */
+  biot: number | null
+  innerBiot?: number | null
+}
+
+export interface CooldownSolution {
+  domain: ScaledDomain
+  stages: StageSeries[]
+  summaries: StageSummary[]
+  /** x of the centre: 0, or 0.5 (mid-plane) when x = 0 is a face. */
+  centreX: number
+  initialAt: (x: number) => number
+  evaluate: (t_s: number, x: number) => number
+  /** Heat-content mean ∫ρc x^m T / ∫ρc x^m (the mass mean when c is uniform). */
+  mean: (t_s: number) => number
+  pointSeries: (at: PointRef) => PointStage[]
+  targetTime: (at: PointRef, target: TargetSpec) => number | null
+}
+
+const MAX_MODES_ANALYTIC = 400
+const MAX_MODES_SHOOTING = 60
+
+export function scaledEnd(boundary: Boundary, domain: ScaledDomain): ScaledEnd {
+  if (boundary.type === 'symmetry') return { biot: 0, temperature_C: Number.NaN }
+  if (boundary.type === 'fixed') return { biot: Infinity, temperature_C: boundary.T_C }
+  return { biot: (boundary.h_W_m2K * domain.length_m) / domain.kRef_W_mK, temperature_C: boundary.ambient_C }
+}
+
+/** Linear interpolation in a temperature table; at a repeated x the later point wins. */
+export function profileAt(points: TemperaturePoint[], x: number): number {
+  let j = 0
+  while (j + 2 < points.length && points[j + 1].x <= x) j++
+  const a = points[j]
+  const b = points[j + 1]
+  if (b.x === a.x) return b.T_C
+  return a.T_C + ((Math.min(Math.max(x, a.x), b.x) - a.x) / (b.x - a.x)) * (b.T_C - a.T_C)
+}
+
+export function solveCooldown(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
+  const domain = scaleDomain(problem.domain)
+  const geometry = problem.domain.geometry
+  const initial = problem.initial
+  const initialAt = typeof initial === 'number' ? () => initial : (x: number) => profileAt(initial, x)
+  const stages: StageSeries[] = []
+  const summaries: StageSummary[] = []
+  let start_s = 0
+  problem.stages.forEach((stage, i) => {
+    const last = i === problem.stages.length - 1
+    const end_s = last ? Infinity : start_s + (stage.duration_s as number)
+    const inner = scaledEnd(stage.inner, domain)
+    const outer = scaledEnd(stage.outer, domain)
+    const family = modeFamily(geometry, domain, inner.biot, outer.biot)
+    const previous = stages[i - 1]
+    const earliest = Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s
+    const series = buildStageSeries({
+      geometry,
+      domain,
+      family,
+      steady: steadyProfile(domain.pieces, inner, outer),
+      start: previous
+        ? (x: number) => seriesValue(previous, previous.end_s - previous.start_s, x)
+        : typeof initial === 'number'
+          ? initial
+          : initialAt,
+      breakpoints: i === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [],
+      symmetricUniformSteady: inner.biot === 0,
+      earliest_s: earliest ?? 0.01 * domain.timeScale_s,
+      minModes: options.minModes ?? 1,
+      maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,
+      start_s,
+      end_s,
+    })
+    stages.push(series)
+    const rates = series.rates.map((r) => r / domain.timeScale_s)
+    const finiteBiot = (b: number) => (b === Infinity ? null : b)
+    summaries.push({
+      start_s,
+      end_s: stage.duration_s === undefined ? null : start_s + stage.duration_s,
+      modes: rates.length,
+      decayRates_per_s: rates,
+      timeConstants_s: rates.map((r) => 1 / r),
+      truncationError_K: series.truncationError_K,
+      biot: finiteBiot(outer.biot),
+      ...(stage.inner.type === 'symmetry' ? {} : { innerBiot: finiteBiot(inner.biot) }),
+    })
+    start_s = end_s
+  })
+
+  const centreX = problem.stages[0].inner.type === 'symmetry' ? 0 : 0.5
+  const xOf = (at: Exclude<PointRef, 'mean'>) => (at === 'centre' ? centreX : at === 'surface' ? 1 : at.x)
+  const cache = new Map<string, PointStage[]>()
+  const pointSeries = (at: PointRef): PointStage[] => {
+    const key = JSON.stringify(at)
+    const hit = cache.get(key)
+    if (hit) return hit
+    const result = stages.map((s): PointStage => {
+      const x = at === 'mean' ? Number.NaN : xOf(at)
+      const terms = s.rates.map((r, j) => ({
+        amplitude_K: s.amplitudes_K[j] * (at === 'mean' ? s.modeMeans[j] : s.shapes[j](x)),
+        decayRate_per_s: r / s.timeScale_s,
+      }))
+      return {
+        start_s: s.start_s,
+        ...(Number.isFinite(s.end_s) ? { end_s: s.end_s } : {}),
+        steady_C: at === 'mean' ? s.steadyMean_C : s.steady(x),
+        terms,
+      }
+    })
+    cache.set(key, result)
+    return result
+  }
+  // The first stage's series at τ = 0 is not converged; average the start profile directly.
+  const initialMean = (() => {
+    if (typeof initial === 'number') return initial
+    const rule = compositeRule([...breakpointsOf(domain.pieces), ...initial.map((p) => p.x)], 1 / 32, (x) =>
+      propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
+    )
+    let num = 0
+    let den = 0
+    rule.x.forEach((x, i) => {
+      num += rule.w[i] * initialAt(x)
+      den += rule.w[i]
+    })
+    return num / den
+  })()
+  const stageAt = (t_s: number) => stages.find((s) => t_s <= s.end_s) ?? stages[stages.length - 1]
+  return {
+    domain,
+    stages,
+    summaries,
+    centreX,
+    initialAt,
+    evaluate: (t_s, x) => (t_s <= 0 ? initialAt(x) : seriesValue(stageAt(t_s), t_s - stageAt(t_s).start_s, x)),
+    mean: (t_s) => (t_s <= 0 ? initialMean : pointValue(pointSeries('mean'), t_s)),
+    pointSeries,
+    targetTime: (at, target) => {
+      const start = at === 'mean' ? initialMean : initialAt(xOf(at))
+      return firstCrossing(pointSeries(at), start, target)
+    },
+  }
+}
