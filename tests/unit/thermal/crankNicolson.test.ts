@@ -83,11 +83,11 @@ const POINTS = [0, 0.25, 0.5, 0.75, 0.9, 1]
 const TIMES = [2, 5, 10, 20, 40, 80, 160] // s; Fo = 0.05 … 4
 
 describe('solveCrankNicolson against closed forms', () => {
-  it.each([
+  it.each<[Geometry, string]>([
     ['slab', 'Carslaw & Jaeger §3.3, cosine series'],
     ['rod', 'Carslaw & Jaeger §7.4, J0 series'],
     ['sphere', 'Carslaw & Jaeger §9.3, sin(nπx)/x series'],
-  ] as const)('%s with a fixed surface matches %s to 0.05 K with default cells and steps', (geometry) => {
+  ])('%s with a fixed surface matches %s to 0.05 K with default cells and steps', (geometry) => {
     const r = solveCrankNicolson(problem(geometry, [fixedSurface(T_AMB)]), { times_s: TIMES, points: POINTS })
     expect(r.t_s).toEqual(TIMES)
     TIMES.forEach((t, i) =>
