@@ -19,7 +19,7 @@
  * modes that CN does not damp once μΔt > 2 (its amplification tends to −1, the
  * familiar ringing). Each stage therefore starts with a step at μ_max·Δt = 0.1 for
  * the stiffest grid mode and lets Δt grow linearly with the time since the stage
- * began, Δt = Δt₀ + r·t, up to Δt_max. A mode of rate μ has then decayed by
+ * began, Δt = Δt₀ + r·t (optionally capped by dt_s). A mode of rate μ has decayed by
  * exp(−2/r) before Δt passes 2/μ, so nothing rings, and the start-up transient is
  * resolved as finely as the later smooth decay. This replaces fully implicit
  * (Rannacher) start-up steps, which would cost first-order error in the first
@@ -72,6 +72,8 @@ const DEFAULT_CELLS = 400
  * grow with the elapsed time and a long run costs only ln(t/Δt₀)/r steps.
  */
 const RAMP_RATE = 0.01
+/** Weight of the new time level: ½ is Crank–Nicolson (trapezoidal in time, second order). */
+const THETA = 0.5
 /** First step of each stage: μ_max·Δt₀ for the stiffest grid mode. */
 const START_STEP_STIFFNESS = 0.1
 
@@ -318,8 +320,8 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
   }
 
   let t = 0
-  let next_out = 0
-  for (let k = 0; k < stages.length && next_out < times.length; k++) {
+  let nextOut = 0
+  for (let k = 0; k < stages.length && nextOut < times.length; k++) {
     const stage = stages[k]
     const inner = link(stage.inner, halfResLeft[0])
     const outer = link(stage.outer, halfResRight[N - 1])
@@ -333,11 +335,11 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
     }
     const dtStart = Math.min(dtMax, START_STEP_STIFFNESS / muMax)
     const tEnd = Math.min(stageStart[k + 1], tLast)
-    while (next_out < times.length && times[next_out] <= t) sample(stage, inner, outer, times[next_out++])
+    while (nextOut < times.length && times[nextOut] <= t) sample(stage, inner, outer, times[nextOut++])
 
     let sinceStart = 0
     while (t < tEnd) {
-      const target = Math.min(tEnd, times[next_out] ?? tEnd)
+      const target = Math.min(tEnd, times[nextOut] ?? tEnd)
       const remaining = target - t
       let dt = Math.min(dtMax, dtStart + RAMP_RATE * sinceStart)
       // Land exactly on the target; halve the last two steps rather than leave a sliver.
@@ -345,7 +347,6 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
       if (landing) dt = remaining
       else if (remaining < 2 * dt) dt = remaining / 2
 
-      const theta = 0.5
       for (let i = 0; i < N; i++) {
         const gl = G[i]
         const gr = G[i + 1]
@@ -354,20 +355,20 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
         const aii = gl + gr + gb
         const explicitFlux =
           (i > 0 ? gl * T[i - 1] : 0) + (i < N - 1 ? gr * T[i + 1] : 0) - aii * T[i]
-        lower[i] = -theta * gl
-        upper[i] = -theta * gr
-        diag[i] = capacity[i] / dt + theta * aii
-        rhs[i] = (capacity[i] / dt) * T[i] + (1 - theta) * explicitFlux + source
+        lower[i] = -THETA * gl
+        upper[i] = -THETA * gr
+        diag[i] = capacity[i] / dt + THETA * aii
+        rhs[i] = (capacity[i] / dt) * T[i] + (1 - THETA) * explicitFlux + source
       }
       solveTridiagonal(lower, diag, upper, rhs, next, scratch)
       lost +=
         dt *
-        (gIn * (theta * next[0] + (1 - theta) * T[0] - inner.far_C) +
-          gOut * (theta * next[N - 1] + (1 - theta) * T[N - 1] - outer.far_C))
+        (gIn * (THETA * next[0] + (1 - THETA) * T[0] - inner.far_C) +
+          gOut * (THETA * next[N - 1] + (1 - THETA) * T[N - 1] - outer.far_C))
       T.set(next)
       t = landing ? target : t + dt
       sinceStart += dt
-      while (next_out < times.length && times[next_out] <= t) sample(stage, inner, outer, times[next_out++])
+      while (nextOut < times.length && times[nextOut] <= t) sample(stage, inner, outer, times[nextOut++])
     }
   }
   return result
