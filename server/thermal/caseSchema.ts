@@ -1,0 +1,153 @@
+/**
+ * The cooldown case format (CLI and web planner) and its translation into a
+ * CooldownProblem. Every rejection names the offending field as a dotted path
+ * ("stages.0.surface.h") through CaseError.
+ */
+import { z } from 'zod'
+import type { Boundary, CooldownProblem, PropertyPoint, Stage } from './types'
+
+export class CaseError extends Error {
+  constructor(
+    readonly field: string,
+    message: string,
+  ) {
+    super(`${field}: ${message}`)
+    this.name = 'CaseError'
+  }
+}
+
+const finite = z.number().finite()
+const positive = finite.positive()
+
+/** { h, ambient_C } or { fixed_C }, checked field by field so errors name the field. */
+const surfaceSchema = z
+  .object({ h: positive.optional(), ambient_C: finite.optional(), fixed_C: finite.optional() })
+  .strict()
+  .superRefine((s, ctx) => {
+    if (s.fixed_C !== undefined) {
+      if (s.h !== undefined || s.ambient_C !== undefined)
+        ctx.addIssue({ code: 'custom', path: ['fixed_C'], message: 'give either fixed_C or h with ambient_C, not both' })
+      return
+    }
+    if (s.h === undefined) ctx.addIssue({ code: 'custom', path: ['h'], message: 'a convective surface needs h (W/m²K > 0)' })
+    if (s.ambient_C === undefined) ctx.addIssue({ code: 'custom', path: ['ambient_C'], message: 'a convective surface needs ambient_C' })
+  })
+
+const profilePoint = z.object({ x: finite, k: positive, rhoCp: positive }).strict()
+
+const materialSchema = z
+  .object({ k: positive.optional(), rho: positive.optional(), cp: positive.optional(), profile: z.array(profilePoint).min(2).optional() })
+  .strict()
+  .superRefine((mat, ctx) => {
+    if (mat.profile) {
+      if (mat.k !== undefined || mat.rho !== undefined || mat.cp !== undefined)
+        ctx.addIssue({ code: 'custom', path: ['profile'], message: 'give either a profile or k, rho, cp' })
+      tableIssues(mat.profile, ['profile'], ctx)
+      return
+    }
+    for (const key of ['k', 'rho', 'cp'] as const)
+      if (mat[key] === undefined) ctx.addIssue({ code: 'custom', path: [key], message: `a uniform material needs ${key} (> 0)` })
+  })
+
+const stageSchema = z.object({ surface: surfaceSchema, duration_s: positive.optional() }).strict()
+
+const pointRef = z.union([z.enum(['centre', 'surface', 'mean']), z.object({ x: finite.min(0).max(1) }).strict()])
+
+const targetSchema = z
+  .object({ at: pointRef.default('centre'), below_C: finite.optional(), above_C: finite.optional() })
+  .strict()
+  .superRefine((t, ctx) => {
+    if ((t.below_C === undefined) === (t.above_C === undefined))
+      ctx.addIssue({ code: 'custom', path: ['below_C'], message: 'give exactly one of below_C (cooling) or above_C (heating)' })
+  })
+
+export const caseSchema = z
+  .object({
+    geometry: z.enum(['slab', 'rod', 'sphere']),
+    size_m: positive,
+    material: materialSchema,
+    initial_C: finite.optional(),
+    initialProfile: z.array(z.object({ x: finite, T_C: finite }).strict()).min(2).optional(),
+    centre: z.union([z.literal('symmetry'), surfaceSchema]).default('symmetry'),
+    stages: z.array(stageSchema).min(1),
+    target: targetSchema.optional(),
+    points: z.array(finite.min(0).max(1)).optional(),
+    times_s: z.array(finite.nonnegative()).optional(),
+    modes: z.number().int().min(1).max(400).optional(),
+    check: z.literal('finite-difference').optional(),
+  })
+  .strict()
+  .superRefine((c, ctx) => {
+    if ((c.initial_C === undefined) === (c.initialProfile === undefined))
+      ctx.addIssue({ code: 'custom', path: ['initial_C'], message: 'give exactly one of initial_C or initialProfile' })
+    if (c.initialProfile) tableIssues(c.initialProfile, ['initialProfile'], ctx)
+    if (c.centre !== 'symmetry' && c.geometry !== 'slab')
+      ctx.addIssue({ code: 'custom', path: ['centre'], message: `a ${c.geometry} has a symmetric centre; only a slab can have a face at x = 0` })
+    c.stages.forEach((s, i) => {
+      if (s.duration_s === undefined && i < c.stages.length - 1)
+        ctx.addIssue({ code: 'custom', path: ['stages', i, 'duration_s'], message: 'every stage but the last needs a duration' })
+    })
+    if (c.target) reachabilityIssue(c, ctx)
+  })
+
+export type CaseInput = z.input<typeof caseSchema>
+export type Case = z.output<typeof caseSchema>
+
+/** x must run from 0 to 1, never decrease, and repeat at most once (a jump). */
+function tableIssues(points: { x: number }[], path: (string | number)[], ctx: z.RefinementCtx): void {
+  const xs = points.map((p) => p.x)
+  if (xs[0] !== 0 || xs[xs.length - 1] !== 1)
+    ctx.addIssue({ code: 'custom', path, message: `must cover x = 0 to 1 (got ${xs[0]} to ${xs[xs.length - 1]})` })
+  for (let i = 1; i < xs.length; i++) {
+    if (xs[i] < xs[i - 1]) ctx.addIssue({ code: 'custom', path: [...path, i, 'x'], message: 'x must not decrease' })
+    if (i >= 2 && xs[i] === xs[i - 1] && xs[i] === xs[i - 2])
+      ctx.addIssue({ code: 'custom', path: [...path, i, 'x'], message: 'an x may appear at most twice (a jump)' })
+  }
+}
+
+/**
+ * Maximum principle: temperatures stay between the lowest and highest of the
+ * start temperatures and the surroundings, so a target outside that range can
+ * never be met.
+ */
+function reachabilityIssue(c: Case, ctx: z.RefinementCtx): void {
+  const t = c.target as NonNullable<Case['target']>
+  const temps = [...(c.initialProfile?.map((p) => p.T_C) ?? [c.initial_C as number])]
+  const surfaceTemp = (s: z.output<typeof surfaceSchema>) => (s.fixed_C ?? s.ambient_C) as number
+  for (const s of c.stages) temps.push(surfaceTemp(s.surface))
+  if (c.centre !== 'symmetry') temps.push(surfaceTemp(c.centre))
+  if (t.below_C !== undefined && !(Math.min(...temps) < t.below_C))
+    ctx.addIssue({ code: 'custom', path: ['target', 'below_C'], message: `nothing in the case is colder than ${Math.min(...temps)} °C, so the part can never get below ${t.below_C} °C` })
+  if (t.above_C !== undefined && !(Math.max(...temps) > t.above_C))
+    ctx.addIssue({ code: 'custom', path: ['target', 'above_C'], message: `nothing in the case is hotter than ${Math.max(...temps)} °C, so the part can never get above ${t.above_C} °C` })
+}
+
+/** Validates a raw case; throws CaseError naming the first bad field. */
+export function parseCase(input: unknown): Case {
+  const parsed = caseSchema.safeParse(input)
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0]
+    throw new CaseError(issue.path.length ? issue.path.join('.') : '(case)', issue.message)
+  }
+  return parsed.data
+}
+
+function boundaryOf(s: z.output<typeof surfaceSchema>): Exclude<Boundary, { type: 'symmetry' }> {
+  return s.fixed_C !== undefined
+    ? { type: 'fixed', T_C: s.fixed_C }
+    : { type: 'convective', h_W_m2K: s.h as number, ambient_C: s.ambient_C as number }
+}
+
+/** The engine's problem for a validated case. */
+export function caseToProblem(c: Case): CooldownProblem {
+  const properties: PropertyPoint[] = c.material.profile
+    ? c.material.profile.map((p) => ({ x: p.x, k_W_mK: p.k, rhoCp_J_m3K: p.rhoCp }))
+    : [0, 1].map((x) => ({ x, k_W_mK: c.material.k as number, rhoCp_J_m3K: (c.material.rho as number) * (c.material.cp as number) }))
+  const inner: Boundary = c.centre === 'symmetry' ? { type: 'symmetry' } : boundaryOf(c.centre)
+  const stages: Stage[] = c.stages.map((s) => ({ outer: boundaryOf(s.surface), inner, ...(s.duration_s === undefined ? {} : { duration_s: s.duration_s }) }))
+  return {
+    domain: { geometry: c.geometry, length_m: c.size_m, properties },
+    initial: c.initialProfile ?? (c.initial_C as number),
+    stages,
+  }
+}

@@ -1,0 +1,151 @@
+/**
+ * One call from a case (CLI / web JSON) to the full result: stage modes, the
+ * table of requested points × times, profiles, a ~600-point curve, the target time
+ * and, per stage, the target point's serialisable series. Optionally re-solves
+ * with the Crank–Nicolson code as an independent check.
+ */
+import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
+import { solveCrankNicolson } from './crankNicolson'
+import { pointValue, type PointStage } from './pointSeries'
+import { solveCooldown, type CooldownSolution, type PointRef, type StageSummary } from './solveCooldown'
+import type { TargetSpec } from './targetTime'
+
+export interface RunOptions {
+  /** Also solve with Crank–Nicolson and report the largest difference. */
+  check?: 'finite-difference'
+}
+
+export interface CaseResult {
+  targetTime_s: number | null
+  target: { at: PointRef; below_C?: number; above_C?: number } | null
+  /** x (fraction of size_m) read as "centre". */
+  centreX: number
+  stages: (StageSummary & { pointSeries: PointStage })[]
+  table: { points: number[]; t_s: number[]; T_C: number[][] }
+  profiles: { x: number[]; t_s: number[]; T_C: number[][] }
+  curve: { t_s: number[]; centre_C: number[]; surface_C: number[]; mean_C: number[] }
+  check?: { maxDifference_K: number; times_s: number[]; points: number[] }
+}
+
+const CURVE_POINTS = 600
+const PROFILE_POINTS = 21
+
+export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResult {
+  const c = parseCase(caseInput)
+  const problem = caseToProblem(c)
+  const times = c.times_s ?? []
+  const points = c.points ?? [0, 0.5, 1]
+  const target = c.target ? targetSpec(c.target) : null
+  const at: PointRef = c.target?.at ?? 'centre'
+  const starts = stageStarts(c)
+  const solveWith = (earliestCurve_s: number) =>
+    solveCooldown(problem, {
+      minModes: c.modes,
+      earliest_s: starts.map((start, i) => {
+        const end = starts[i + 1] ?? Infinity
+        const taus = times.filter((t) => t > start && t <= end).map((t) => t - start)
+        return Math.min(earliestCurve_s, ...taus)
+      }),
+    })
+  // First pass: accurate from 1/1000 of the first stage's own time scale; the curve
+  // end it yields fixes the curve spacing, and a second pass covers that spacing.
+  let solution = solveWith(firstGuess(problem, c))
+  let targetTime = target ? solution.targetTime(at, target) : null
+  let end_s = curveEnd(solution, c, targetTime)
+  const spacing = end_s / CURVE_POINTS
+  if (spacing < firstGuess(problem, c)) {
+    solution = solveWith(spacing)
+    targetTime = target ? solution.targetTime(at, target) : null
+    end_s = curveEnd(solution, c, targetTime)
+  }
+  if (target && targetTime === null) unreachable(solution, at, c)
+
+  const centre = solution.pointSeries('centre')
+  const surface = solution.pointSeries('surface')
+  const curveTimes = [...Array.from({ length: CURVE_POINTS + 1 }, (_, i) => (end_s * i) / CURVE_POINTS), ...starts.slice(1).filter((s) => s < end_s)]
+  if (targetTime !== null) curveTimes.push(targetTime)
+  const tCurve = [...new Set(curveTimes)].sort((a, b) => a - b)
+  const readPoint = (series: PointStage[], x: number) => (t: number) => (t <= 0 ? solution.initialAt(x) : pointValue(series, t))
+  const profileX = Array.from({ length: PROFILE_POINTS }, (_, i) => i / (PROFILE_POINTS - 1))
+  const table = times.map((t) => points.map((x) => solution.evaluate(t, x)))
+  const result: CaseResult = {
+    targetTime_s: targetTime,
+    target: c.target ? { ...c.target, at } : null,
+    centreX: solution.centreX,
+    stages: solution.summaries.map((s, i) => ({ ...s, pointSeries: solution.pointSeries(at)[i] })),
+    table: { points, t_s: times, T_C: table },
+    profiles: { x: profileX, t_s: times, T_C: times.map((t) => profileX.map((x) => solution.evaluate(t, x))) },
+    curve: {
+      t_s: tCurve,
+      centre_C: tCurve.map(readPoint(centre, solution.centreX)),
+      surface_C: tCurve.map(readPoint(surface, 1)),
+      mean_C: tCurve.map((t) => solution.mean(t)),
+    },
+  }
+  if ((options.check ?? c.check) === 'finite-difference') result.check = finiteDifferenceCheck(solution, c, problem, tCurve, points)
+  return result
+}
+
+function targetSpec(t: NonNullable<Case['target']>): TargetSpec {
+  return t.below_C !== undefined ? { below_C: t.below_C } : { above_C: t.above_C as number }
+}
+
+function stageStarts(c: Case): number[] {
+  const starts = [0]
+  for (const s of c.stages.slice(0, -1)) starts.push(starts[starts.length - 1] + (s.duration_s as number))
+  return starts
+}
+
+/** Fo = 1e-3 of the whole body (a few dozen modes at most for a uniform part). */
+function firstGuess(problem: ReturnType<typeof caseToProblem>, c: Case): number {
+  const k = Math.max(...problem.domain.properties.map((p) => p.k_W_mK))
+  const rc = Math.min(...problem.domain.properties.map((p) => p.rhoCp_J_m3K))
+  return (1e-3 * c.size_m ** 2 * rc) / k
+}
+
+/**
+ * Past the target (×1.25), the requested times and every finite stage; without a
+ * target, until the centre is within 1 K of the last stage's steady value or five
+ * of its slowest time constants, whichever comes first.
+ */
+function curveEnd(solution: CooldownSolution, c: Case, targetTime: number | null): number {
+  const starts = stageStarts(c)
+  const lastStart = starts[starts.length - 1]
+  const lastDuration = c.stages[c.stages.length - 1].duration_s ?? 0
+  const candidates = [lastStart + lastDuration, ...(c.times_s ?? [])]
+  if (targetTime !== null) candidates.push(1.25 * targetTime)
+  else {
+    const last = solution.pointSeries('centre').at(-1) as PointStage
+    const slow = last.terms[0]
+    if (slow) {
+      const within1K = Math.log(Math.max(1, Math.abs(slow.amplitude_K))) / slow.decayRate_per_s
+      candidates.push(lastStart + Math.min(within1K, 5 / slow.decayRate_per_s))
+    }
+  }
+  const end = Math.max(...candidates)
+  return end > 0 ? end : 1
+}
+
+function unreachable(solution: CooldownSolution, at: PointRef, c: Case): never {
+  const final = (solution.pointSeries(at).at(-1) as PointStage).steady_C
+  const field = c.target?.below_C !== undefined ? 'target.below_C' : 'target.above_C'
+  const goal = c.target?.below_C ?? c.target?.above_C
+  throw new CaseError(field, `the last stage settles at ${final.toFixed(2)} °C there, so ${goal} °C is never reached`)
+}
+
+/** Compares the series with Crank–Nicolson at the table points and 12 curve times. */
+function finiteDifferenceCheck(
+  solution: CooldownSolution,
+  c: Case,
+  problem: ReturnType<typeof caseToProblem>,
+  tCurve: number[],
+  points: number[],
+): NonNullable<CaseResult['check']> {
+  const stride = Math.max(1, Math.floor(tCurve.length / 12))
+  const times = [...new Set([...(c.times_s ?? []), ...tCurve.filter((t, i) => t > 0 && i % stride === 0)])].sort((a, b) => a - b)
+  const xs = [...new Set([solution.centreX, 1, ...points])]
+  const fd = solveCrankNicolson(problem, { times_s: times, points: xs })
+  let max = 0
+  fd.t_s.forEach((t, i) => xs.forEach((x, j) => (max = Math.max(max, Math.abs(fd.T_C[i][j] - solution.evaluate(t, x))))))
+  return { maxDifference_K: max, times_s: times, points: xs }
+}
