@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
+import { runCase } from '../../../server/thermal/runCase'
 import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import type { Boundary, CooldownProblem, Geometry, PropertyPoint } from '../../../server/thermal/types'
 
@@ -82,6 +83,46 @@ describe('eigenmode series against Crank–Nicolson finite volumes', () => {
     times.forEach((t, i) =>
       POINTS.forEach((x, j) => {
         expect(Math.abs(series.evaluate(t, x) - cn.T_C[i][j]), `t=${t} x=${x}`).toBeLessThan(TOLERANCE_K)
+      }),
+    )
+  })
+
+  it('a CLI case through runCase: its table agrees with Crank–Nicolson on the hand-built problem within 0.05 K', () => {
+    const caseJson = {
+      geometry: 'rod',
+      size_m: 0.02,
+      material: { k: 40, rho: 7850, cp: 475 },
+      initial_C: 850,
+      centre: 'symmetry',
+      stages: [{ surface: { h: 800, ambient_C: 60 }, duration_s: 180 }, { surface: { h: 15, ambient_C: 25 } }],
+      target: { at: 'centre', below_C: 100 },
+      points: [0, 0.5, 1],
+      times_s: [10, 60, 180, 600],
+    }
+    const result = runCase(caseJson)
+    const rhoCp = 7850 * 475
+    const cn = solveCrankNicolson(
+      {
+        domain: {
+          geometry: 'rod',
+          length_m: 0.02,
+          properties: [
+            { x: 0, k_W_mK: 40, rhoCp_J_m3K: rhoCp },
+            { x: 1, k_W_mK: 40, rhoCp_J_m3K: rhoCp },
+          ],
+        },
+        initial: 850,
+        stages: [
+          { outer: { type: 'convective', h_W_m2K: 800, ambient_C: 60 }, inner: { type: 'symmetry' }, duration_s: 180 },
+          { outer: { type: 'convective', h_W_m2K: 15, ambient_C: 25 }, inner: { type: 'symmetry' } },
+        ],
+      },
+      { times_s: caseJson.times_s, points: caseJson.points },
+    )
+    expect(result.table.t_s).toEqual(caseJson.times_s)
+    caseJson.times_s.forEach((t, i) =>
+      caseJson.points.forEach((x, j) => {
+        expect(Math.abs(result.table.T_C[i][j] - cn.T_C[i][j]), `t=${t} x=${x}`).toBeLessThan(TOLERANCE_K)
       }),
     )
   })
