@@ -21,6 +21,8 @@ import { brent } from './roots'
 
 /** n-th root for a slab with Biot numbers Bi₀ at x = 0 (0 = symmetry) and Bi₁ at x = 1. */
 export function slabRoot(n: number, bi0: number, bi1: number): number {
+  // Both faces fixed: the root is the bracket end nπ itself, where rounding could hide the sign.
+  if (bi0 === Infinity && bi1 === Infinity) return n * Math.PI
   const offset = (n - 1) * Math.PI
   const g = (lam: number) => lam - Math.atan2(bi0, lam) - Math.atan2(bi1, lam) - offset
   return brent(g, offset, offset + Math.PI, { rtol: 1e-15 })
