@@ -1,0 +1,63 @@
+/**
+ * Shared vocabulary of the cooldown engine. Everything is SI; temperatures in °C.
+ *
+ * The domain is one-dimensional: x runs from 0 (centre, or the inner face of a
+ * full-thickness slab) to 1 (the outer surface), as a fraction of `length_m`.
+ * The conduction equation solved everywhere in this folder is
+ *
+ *   ρc(x) ∂T/∂t = x^-m ∂/∂x ( x^m k(x) ∂T/∂x ),   m = 0 slab, 1 rod, 2 sphere.
+ */
+
+export type Geometry = 'slab' | 'rod' | 'sphere'
+
+/** Exponent m of the radial weight x^m. */
+export const GEOMETRY_EXPONENT: Record<Geometry, 0 | 1 | 2> = { slab: 0, rod: 1, sphere: 2 }
+
+/** One end of the domain. */
+export type Boundary =
+  | { type: 'symmetry' }
+  | { type: 'convective'; h_W_m2K: number; ambient_C: number }
+  | { type: 'fixed'; T_C: number }
+
+/**
+ * A property table point. x is a fraction 0–1 of `length_m`; values are linear
+ * between points, and a repeated x is a jump (layered, clad, case-hardened parts).
+ * A uniform part is the two points x = 0 and x = 1 with equal values.
+ */
+export interface PropertyPoint {
+  x: number
+  k_W_mK: number
+  rhoCp_J_m3K: number
+}
+
+/** A temperature table point (initial profile), x as a fraction 0–1. */
+export interface TemperaturePoint {
+  x: number
+  T_C: number
+}
+
+/** The body being heated or cooled. */
+export interface ConductionDomain {
+  geometry: Geometry
+  /** Half-thickness / radius with a symmetric centre; full thickness when x = 0 is a face. */
+  length_m: number
+  properties: PropertyPoint[]
+}
+
+/** One stage of a cooldown (or heat-up): its surface conditions for a time. */
+export interface Stage {
+  /** Condition at x = 1. */
+  outer: Exclude<Boundary, { type: 'symmetry' }>
+  /** Condition at x = 0: symmetry, or for a slab a face of its own. */
+  inner: Boundary
+  /** Length of the stage; the last stage may be open-ended (undefined). */
+  duration_s?: number
+}
+
+/** A full problem: domain, initial state and the sequence of stages. */
+export interface CooldownProblem {
+  domain: ConductionDomain
+  /** A uniform start temperature, or a profile over 0–1. */
+  initial: number | TemperaturePoint[]
+  stages: Stage[]
+}
