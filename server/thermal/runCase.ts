@@ -47,13 +47,13 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
         return Math.min(earliestCurve_s, ...taus)
       }),
     })
-  // First pass: accurate from 1/1000 of the first stage's own time scale; the curve
-  // end it yields fixes the curve spacing, and a second pass covers that spacing.
+  // A cheap first pass (accurate from Fo = 0.05 on) finds the target and hence the
+  // curve's end and spacing; the second pass is accurate from the first curve sample.
   let solution = solveWith(firstGuess(problem, c))
   let targetTime = target ? solution.targetTime(at, target) : null
   let end_s = curveEnd(solution, c, targetTime)
   const spacing = end_s / CURVE_POINTS
-  if (spacing < firstGuess(problem, c)) {
+  if (spacing < firstGuess(problem, c) || times.some((t) => t > 0 && t < firstGuess(problem, c))) {
     solution = solveWith(spacing)
     targetTime = target ? solution.targetTime(at, target) : null
     end_s = curveEnd(solution, c, targetTime)
@@ -96,11 +96,11 @@ function stageStarts(c: Case): number[] {
   return starts
 }
 
-/** Fo = 1e-3 of the whole body (a few dozen modes at most for a uniform part). */
+/** Fo = 0.05 of the whole body: a handful of modes. */
 function firstGuess(problem: ReturnType<typeof caseToProblem>, c: Case): number {
   const k = Math.max(...problem.domain.properties.map((p) => p.k_W_mK))
   const rc = Math.min(...problem.domain.properties.map((p) => p.rhoCp_J_m3K))
-  return (1e-3 * c.size_m ** 2 * rc) / k
+  return (0.05 * c.size_m ** 2 * rc) / k
 }
 
 /**

@@ -38,9 +38,9 @@ export interface ShotMode {
 }
 
 /** Tolerances of the coarse search (bracketing, Brent) and of the final Newton polish. */
-const COARSE = { rtol: 1e-7, atol: 1e-12 }
+const COARSE = { rtol: 1e-6, atol: 1e-12 }
 const FINE = { rtol: 1e-10, atol: 1e-14 }
-const COARSE_RATE_RTOL = 1e-8
+const COARSE_RATE_RTOL = 1e-7
 
 interface Shot {
   theta: number
@@ -115,8 +115,8 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance = FINE, dense = 
 
 /**
  * Lazily computed modes 1, 2, … of a graded body. Each eigenvalue is bracketed by
- * the Sturm count and found by Brent on a coarse integration (1e-8), then one
- * Newton step on the fine integration (error ~ (1e-8)², below the 1e-10 target).
+ * the Sturm count and found by Brent on a coarse integration (1e-7), then one
+ * Newton step on the fine integration (error ~ (1e-7)², below the 1e-10 target).
  */
 export function shootingModes(spec: ShootingSpec): (n: number) => ShotMode {
   const modes: ShotMode[] = []
