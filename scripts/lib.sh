@@ -1,0 +1,35 @@
+# Shared helpers for scripts/start.sh and scripts/test.sh (sourced, not run).
+
+# npm dependencies: install from the lock file when missing or older than it.
+ensure_node_modules() {
+  if [ ! -x node_modules/.bin/nuxt ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+    echo "[setup] installing npm dependencies (npm ci)…"
+    npm ci --no-audit --no-fund --loglevel=error
+  fi
+}
+
+# A stable secret for signing sessions, kept in the ignored .data folder.
+ensure_auth_secret() {
+  mkdir -p .data
+  [ -s .data/auth-secret ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > .data/auth-secret
+  cat .data/auth-secret
+}
+
+# Rebuilds the app when any source is newer than the last build.
+build_if_stale() {
+  local stamp=.output/nitro.json
+  if [ ! -f "$stamp" ] || [ -n "$(find app.vue pages layouts components composables stores middleware server shared assets public \
+       nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -print -quit 2>/dev/null)" ]; then
+    echo "[setup] building the app (nuxt build, about 30 s)…"
+    npx nuxt build > .data/build.log 2>&1 || { tail -40 .data/build.log >&2; echo "[setup] build failed; full log in .data/build.log" >&2; return 1; }
+  fi
+}
+
+wait_for_url() {
+  local url=$1 tries=${2:-120}
+  for _ in $(seq 1 "$tries"); do
+    curl -fsS -o /dev/null "$url" 2>/dev/null && return 0
+    sleep 0.5
+  done
+  return 1
+}

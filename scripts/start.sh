@@ -1,0 +1,65 @@
+#!/usr/bin/env bash
+# npm start: everything a new machine needs, then the app on http://localhost:$PORT (3000).
+# Safe to run twice. Ctrl-C stops what this script started.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/lib.sh
+mkdir -p .data
+
+PORT=${PORT:-3000}
+MAIL_SMTP_PORT=${MAIL_SMTP_PORT:-1025}
+MAIL_WEB_PORT=${MAIL_WEB_PORT:-1080}
+children=()
+started_db=0
+
+stop_all() {
+  trap - INT TERM EXIT
+  echo; echo "[start] stopping…"
+  for pid in "${children[@]}"; do kill "$pid" 2>/dev/null || true; done
+  wait 2>/dev/null || true
+  [ "$started_db" = 1 ] && scripts/db.sh stop dev || true
+}
+trap stop_all INT TERM EXIT
+
+ensure_node_modules
+
+if [ -z "${DATABASE_URL:-}" ]; then
+  scripts/db.sh status dev >/dev/null 2>&1 || started_db=1
+  scripts/db.sh start dev
+  DATABASE_URL=$(scripts/db.sh url dev)
+fi
+export DATABASE_URL
+npx tsx scripts/migrate.ts
+npx tsx scripts/seed.ts
+
+if [ -z "${SMTP_URL:-}" ]; then
+  if curl -fsS -o /dev/null "http://127.0.0.1:$MAIL_WEB_PORT/api/healthz" 2>/dev/null; then
+    echo "[mail] a mail catcher already answers on port $MAIL_WEB_PORT"
+  else
+    node_modules/.bin/maildev --smtp "$MAIL_SMTP_PORT" --ip 127.0.0.1 --web "$MAIL_WEB_PORT" --web-ip 127.0.0.1 > .data/maildev.log 2>&1 &
+    children+=($!)
+  fi
+  SMTP_URL="smtp://127.0.0.1:$MAIL_SMTP_PORT"
+fi
+export SMTP_URL
+
+build_if_stale
+
+export PORT NITRO_HOST=${HOST:-127.0.0.1}
+export AUTH_ORIGIN=${AUTH_ORIGIN:-http://localhost:$PORT/api/auth}
+export NUXT_AUTH_SECRET=${NUXT_AUTH_SECRET:-$(ensure_auth_secret)}
+node .output/server/index.mjs &
+children+=($!)
+wait_for_url "http://127.0.0.1:$PORT/api/health" || { echo "[start] the app did not answer on port $PORT" >&2; exit 1; }
+
+cat <<MSG
+
+  Slakewise is running:   http://localhost:$PORT
+  Mail catcher (inbox):   http://localhost:$MAIL_WEB_PORT   (SMTP on 127.0.0.1:$MAIL_SMTP_PORT)
+
+  Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop):
+$(npx tsx scripts/demo-sign-ins.ts)
+
+  Press Ctrl-C to stop.
+MSG
+wait

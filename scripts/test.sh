@@ -1,0 +1,29 @@
+#!/usr/bin/env bash
+# npm test: installs what the suite needs (npm packages, MariaDB, Chromium), builds the
+# app, then runs all three tiers (unit, api, e2e). Extra arguments go to vitest,
+# e.g. `npm test -- --project unit` or `npm test -- tests/api/users.test.ts`.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/lib.sh
+mkdir -p .data test-results
+
+ensure_node_modules
+
+if ! command -v chromium >/dev/null 2>&1; then
+  if [ "$(id -u)" = 0 ] && command -v apt-get >/dev/null 2>&1; then
+    echo "[setup] installing Chromium from Debian's packages for the browser tests (first run only)…"
+    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+  else
+    echo "Chromium is missing: install Debian's 'chromium' package (the browser tests drive /usr/bin/chromium)." >&2
+    exit 1
+  fi
+fi
+
+build_if_stale
+status=0
+npx vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json "$@" || status=$?
+# One plain closing line that any CI can read, from vitest's own JSON report.
+if [ -f test-results/vitest.json ]; then
+  node -e "const r=require('./test-results/vitest.json'); console.log('Summary: ' + r.numPassedTests + ' passed, ' + r.numFailedTests + ' failed' + (r.numPendingTests ? ', ' + r.numPendingTests + ' skipped' : ''))"
+fi
+exit $status

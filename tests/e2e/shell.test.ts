@@ -1,0 +1,70 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Browser } from 'playwright-core'
+import { ROLE_LABELS, type Role } from '../../shared/roles'
+import { demoUser } from '../support/http'
+import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+
+let browser: Browser
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
+
+const expectedNavigation: Record<Role, string[]> = {
+  admin: ['Shift overview', 'People', 'Audit trail'],
+  metallurgist: ['Shift overview'],
+  operator: ['Shift overview'],
+  qa: ['Shift overview', 'Audit trail'],
+}
+
+describe('the signed-in shell', () => {
+  it.each(Object.keys(expectedNavigation) as Role[])('%s signs in through the page, sees their navigation, is kept out of People, signs out', async (role) => {
+    const page = await tabletPage(browser)
+    await signInThroughPage(page, role)
+    await expect(page.getByTestId('user-name').textContent()).resolves.toBe(demoUser(role).displayName)
+    await expect(page.getByTestId('user-role').textContent()).resolves.toBe(ROLE_LABELS[role])
+    const links = await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()
+    expect(links.map((text) => text.trim())).toEqual(expectedNavigation[role])
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/shell-${role}.png` })
+
+    await page.goto('/admin/users')
+    if (role === 'admin') {
+      await page.getByTestId('users-table').waitFor()
+      expect(await page.getByTestId('users-table').locator('tbody tr').count()).toBeGreaterThanOrEqual(4)
+    } else {
+      await page.waitForURL((url) => url.pathname === '/' && url.searchParams.get('denied') === '/admin/users')
+      await page.getByTestId('denied').waitFor()
+    }
+
+    await page.getByRole('button', { name: 'Sign out' }).click()
+    await page.waitForURL((url) => url.pathname === '/login')
+    await page.goto('/admin/audit')
+    await page.waitForURL((url) => url.pathname === '/login' && url.searchParams.get('next') === '/admin/audit')
+    await page.context().close()
+  })
+
+  it('a wrong password shows a clear message and stays on the sign-in page', async () => {
+    const page = await tabletPage(browser)
+    await page.goto('/login')
+    await page.getByLabel('E-mail').fill(demoUser('qa').email)
+    await page.getByLabel('Password').fill('definitely-wrong')
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await expect(page.getByTestId('signin-error').textContent()).resolves.toContain('do not match an active account')
+    expect(new URL(page.url()).pathname).toBe('/login')
+    await page.context().close()
+  })
+
+  it('a signed-out visitor is sent to sign in and then back where they were going', async () => {
+    const page = await tabletPage(browser)
+    await page.goto('/admin/audit')
+    await page.waitForURL((url) => url.pathname === '/login')
+    await page.getByLabel('E-mail').fill(demoUser('admin').email)
+    await page.getByLabel('Password').fill(demoUser('admin').password)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.waitForURL((url) => url.pathname === '/admin/audit')
+    await page.getByTestId('audit-table').waitFor()
+    await page.context().close()
+  })
+})

@@ -1,0 +1,80 @@
+/**
+ * Global setup for the api and e2e tiers: a fresh test database on its own MariaDB
+ * instance, the mail catcher and the built server, all on loopback and on ports of
+ * their own. Both tiers name this file; the reference count makes them share one stack.
+ */
+import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_API, MAIL_SMTP_PORT, MAIL_WEB_PORT } from '../support/stackConfig'
+
+const root = fileURLToPath(new URL('../..', import.meta.url))
+
+interface Stack {
+  users: number
+  children: ChildProcess[]
+}
+const registry = globalThis as typeof globalThis & { __slakewiseStack?: Promise<Stack> }
+
+function run(command: string, args: string[], env: NodeJS.ProcessEnv = process.env): string {
+  return execFileSync(command, args, { cwd: root, env, encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] })
+}
+
+async function waitFor(url: string, what: string, seconds = 60): Promise<void> {
+  const deadline = Date.now() + seconds * 1000
+  while (Date.now() < deadline) {
+    try {
+      if ((await fetch(url)).ok) return
+    } catch {
+      // not up yet
+    }
+    await new Promise((resolve) => setTimeout(resolve, 250))
+  }
+  throw new Error(`${what} did not answer at ${url} within ${seconds} s`)
+}
+
+async function startStack(): Promise<Stack> {
+  run('bash', ['scripts/db.sh', 'reset', 'test'])
+  const databaseUrl = run('bash', ['scripts/db.sh', 'url', 'test']).trim()
+  const env = { ...process.env, DATABASE_URL: databaseUrl }
+  run('npx', ['tsx', 'scripts/migrate.ts'], env)
+  run('npx', ['tsx', 'scripts/seed.ts'], env)
+  run('bash', ['-c', 'source scripts/lib.sh && mkdir -p .data && build_if_stale'])
+
+  const mail = spawn(
+    'node_modules/.bin/maildev',
+    ['--smtp', String(MAIL_SMTP_PORT), '--ip', '127.0.0.1', '--web', String(MAIL_WEB_PORT), '--web-ip', '127.0.0.1'],
+    { cwd: root, stdio: 'ignore' },
+  )
+  const server = spawn('node', ['.output/server/index.mjs'], {
+    cwd: root,
+    stdio: ['ignore', 'ignore', 'inherit'],
+    env: {
+      ...env,
+      PORT: String(APP_PORT),
+      NITRO_HOST: '127.0.0.1',
+      AUTH_ORIGIN: `${BASE_URL}/api/auth`,
+      NUXT_AUTH_SECRET: AUTH_SECRET,
+      SMTP_URL: `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
+      NODE_ENV: 'production',
+    },
+  })
+  await waitFor(`${MAIL_API}/api/healthz`, 'The mail catcher')
+  await waitFor(`${BASE_URL}/api/health`, 'The Slakewise server')
+  return { users: 0, children: [server, mail] }
+}
+
+export async function setup() {
+  registry.__slakewiseStack ??= startStack()
+  const stack = await registry.__slakewiseStack
+  stack.users += 1
+}
+
+export async function teardown() {
+  const stack = await registry.__slakewiseStack
+  if (!stack) return
+  stack.users -= 1
+  if (stack.users > 0) return
+  for (const child of stack.children) child.kill('SIGTERM')
+  run('bash', ['scripts/db.sh', 'stop', 'test'])
+  delete registry.__slakewiseStack
+}

@@ -1,0 +1,83 @@
+import { BASE_URL } from './stackConfig'
+import { DEMO_USERS } from '../../server/db/demo/shop'
+import type { Role } from '../../shared/roles'
+
+/** A signed-in client: a cookie jar over fetch, signing in through the real auth endpoints. */
+export interface Client {
+  cookie: string
+  request: (path: string, init?: { method?: string; body?: unknown; rawBody?: string }) => Promise<{ status: number; body: any }>
+}
+
+function mergeCookies(jar: Map<string, string>, response: Response) {
+  for (const line of response.headers.getSetCookie()) {
+    const [pair] = line.split(';')
+    const index = pair!.indexOf('=')
+    jar.set(pair!.slice(0, index), pair!.slice(index + 1))
+  }
+}
+
+function cookieHeader(jar: Map<string, string>) {
+  return [...jar].map(([name, value]) => `${name}=${value}`).join('; ')
+}
+
+function makeClient(jar: Map<string, string>): Client {
+  return {
+    get cookie() {
+      return cookieHeader(jar)
+    },
+    async request(path, init = {}) {
+      const headers: Record<string, string> = { cookie: cookieHeader(jar), accept: 'application/json' }
+      let body: string | undefined
+      if (init.rawBody !== undefined) {
+        headers['content-type'] = 'application/json'
+        body = init.rawBody
+      } else if (init.body !== undefined) {
+        headers['content-type'] = 'application/json'
+        body = JSON.stringify(init.body)
+      }
+      const response = await fetch(`${BASE_URL}${path}`, { method: init.method ?? 'GET', headers, body })
+      const text = await response.text()
+      let parsed: unknown = text
+      try {
+        parsed = JSON.parse(text)
+      } catch {
+        // not JSON; keep the text
+      }
+      return { status: response.status, body: parsed }
+    },
+  }
+}
+
+export function anonymous(): Client {
+  return makeClient(new Map())
+}
+
+/** Signs in through /api/auth/csrf and /api/auth/callback/credentials. Resolves to null on refusal. */
+export async function signInAs(email: string, password: string): Promise<Client | null> {
+  const jar = new Map<string, string>()
+  const csrfResponse = await fetch(`${BASE_URL}/api/auth/csrf`)
+  mergeCookies(jar, csrfResponse)
+  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string }
+  const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: '/' })
+  const response = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookieHeader(jar) },
+    body: form,
+    redirect: 'manual',
+  })
+  mergeCookies(jar, response)
+  return [...jar.keys()].some((name) => name.endsWith('next-auth.session-token')) ? makeClient(jar) : null
+}
+
+export function demoUser(role: Role) {
+  const user = DEMO_USERS.find((candidate) => candidate.role === role)
+  if (!user) throw new Error(`no demo user with role ${role}`)
+  return user
+}
+
+export async function signInDemo(role: Role): Promise<Client> {
+  const user = demoUser(role)
+  const client = await signInAs(user.email, user.password)
+  if (!client) throw new Error(`demo ${role} could not sign in`)
+  return client
+}
