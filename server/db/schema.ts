@@ -1,4 +1,4 @@
-import { boolean, datetime, index, int, json, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core'
+import { boolean, datetime, double, index, int, json, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { ROLES } from '../../shared/roles'
 
@@ -35,3 +35,73 @@ export const auditLog = mysqlTable(
 
 export type UserRow = typeof users.$inferSelect
 export type AuditRow = typeof auditLog.$inferSelect
+
+export const QUENCHANT_KINDS = ['oil', 'water', 'polymer', 'salt', 'forced-air', 'still-air', 'gas'] as const
+
+/** Thermal properties in SI. A graded profile, when present, replaces the uniform values in the engine. */
+export const materials = mysqlTable('materials', {
+  id: int('id').autoincrement().primaryKey(),
+  name: varchar('name', { length: 120 }).notNull().unique(),
+  k_W_mK: double('k_w_mk').notNull(),
+  density_kg_m3: double('density_kg_m3').notNull(),
+  specificHeat_J_kgK: double('specific_heat_j_kgk').notNull(),
+  /** Temperature (°C) the values refer to, or the middle of the range they average. */
+  propertiesAt_C: double('properties_at_c'),
+  /** [{ x (0–1 of the section), k, rhoCp }] with a repeated x for a jump; see shared/schemas/material.ts. */
+  gradedProfile: json('graded_profile').$type<{ x: number; k: number; rhoCp: number }[]>(),
+  notes: text('notes'),
+  source: text('source').notNull(),
+  createdBy: int('created_by').references(() => users.id),
+  ...timestamps,
+})
+
+/** A quench medium with the shop's calibrated heat-transfer coefficient and its spread. */
+export const quenchants = mysqlTable('quenchants', {
+  id: int('id').autoincrement().primaryKey(),
+  name: varchar('name', { length: 120 }).notNull().unique(),
+  kind: mysqlEnum('kind', QUENCHANT_KINDS).notNull(),
+  hTypical_W_m2K: double('h_typical_w_m2k').notNull(),
+  hLow_W_m2K: double('h_low_w_m2k').notNull(),
+  hHigh_W_m2K: double('h_high_w_m2k').notNull(),
+  bath_C: double('bath_c').notNull(),
+  notes: text('notes'),
+  source: text('source').notNull(),
+  createdBy: int('created_by').references(() => users.id),
+  ...timestamps,
+})
+
+/** A plan's identity; its content lives in immutable revisions. */
+export const plans = mysqlTable('plans', {
+  id: int('id').autoincrement().primaryKey(),
+  name: varchar('name', { length: 160 }).notNull(),
+  latestRevision: int('latest_revision').notNull().default(1),
+  archived: boolean('archived').notNull().default(false),
+  createdBy: int('created_by').references(() => users.id),
+  ...timestamps,
+})
+
+/**
+ * One saved version of a plan. Never updated: an edit inserts the next revision.
+ * `spec` is the validated planner input (shared/schemas/plan.ts) with the material
+ * and quenchant values copied in, so a revision still computes the same after the
+ * library changes; `summary` caches the headline results for lists.
+ */
+export const planRevisions = mysqlTable(
+  'plan_revisions',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    planId: int('plan_id').notNull().references(() => plans.id),
+    revision: int('revision').notNull(),
+    spec: json('spec').$type<Record<string, unknown>>().notNull(),
+    summary: json('summary').$type<Record<string, unknown>>(),
+    note: varchar('note', { length: 255 }),
+    createdBy: int('created_by').references(() => users.id),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (table) => [uniqueIndex('plan_revision_unique').on(table.planId, table.revision)],
+)
+
+export type MaterialRow = typeof materials.$inferSelect
+export type QuenchantRow = typeof quenchants.$inferSelect
+export type PlanRow = typeof plans.$inferSelect
+export type PlanRevisionRow = typeof planRevisions.$inferSelect

@@ -1,0 +1,63 @@
+import { defineStore } from 'pinia'
+import {
+  LENGTH_LABEL,
+  TEMPERATURE_LABEL,
+  lengthFromM,
+  lengthToM,
+  temperatureDifferenceFromK,
+  temperatureFromC,
+  temperatureToC,
+  type LengthUnit,
+  type TemperatureUnit,
+} from '~~/shared/units'
+
+interface UnitChoice {
+  temperature: TemperatureUnit
+  length: LengthUnit
+}
+
+const DEFAULT_CHOICE: UnitChoice = { temperature: 'C', length: 'mm' }
+
+/** The signed-in user's display units, remembered in this browser per user. */
+export const useUnitsStore = defineStore('units', () => {
+  const temperature = ref<TemperatureUnit>(DEFAULT_CHOICE.temperature)
+  const length = ref<LengthUnit>(DEFAULT_CHOICE.length)
+  const storageKey = ref<string | null>(null)
+
+  function load(userKey: string) {
+    storageKey.value = `slakewise.units.${userKey}`
+    if (!import.meta.client) return
+    try {
+      const saved = JSON.parse(localStorage.getItem(storageKey.value) ?? 'null') as Partial<UnitChoice> | null
+      temperature.value = saved?.temperature === 'F' ? 'F' : 'C'
+      length.value = saved?.length === 'in' ? 'in' : 'mm'
+    } catch {
+      temperature.value = DEFAULT_CHOICE.temperature
+      length.value = DEFAULT_CHOICE.length
+    }
+  }
+
+  function save() {
+    if (import.meta.client && storageKey.value) {
+      localStorage.setItem(storageKey.value, JSON.stringify({ temperature: temperature.value, length: length.value }))
+    }
+  }
+
+  watch([temperature, length], save)
+
+  const temperatureLabel = computed(() => TEMPERATURE_LABEL[temperature.value])
+  const lengthLabel = computed(() => LENGTH_LABEL[length.value])
+
+  return {
+    temperature,
+    length,
+    temperatureLabel,
+    lengthLabel,
+    load,
+    showTemperature: (value_C: number) => temperatureFromC(value_C, temperature.value),
+    readTemperature: (value: number) => temperatureToC(value, temperature.value),
+    showTemperatureDifference: (value_K: number) => temperatureDifferenceFromK(value_K, temperature.value),
+    showLength: (value_m: number) => lengthFromM(value_m, length.value),
+    readLength: (value: number) => lengthToM(value, length.value),
+  }
+})
