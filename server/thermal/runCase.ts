@@ -6,7 +6,7 @@
  */
 import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
 import { solveCrankNicolson } from './crankNicolson'
-import { pointValue, type PointStage } from './pointSeries'
+import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { solveCooldown, type CooldownSolution, type PointRef, type StageSummary } from './solveCooldown'
 import type { TargetSpec } from './targetTime'
 

@@ -7,8 +7,8 @@
  * single-stage answer (tests/unit/thermal/stages.test.ts).
  */
 import { modeFamily } from './modeFamily'
-import type { PointStage } from './pointSeries'
-import { pointValue } from './pointSeries'
+import type { PointStage } from '../../shared/pointSeries'
+import { pointValue } from '../../shared/pointSeries'
 import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
 import { compositeRule } from './quadrature'
 import { buildStageSeries, seriesValue, type StageSeries } from './series'

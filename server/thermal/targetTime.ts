@@ -10,7 +10,7 @@
  * remaining distance of its steady value (or ten time constants if the steady
  * value never reaches the target).
  */
-import { pointStageValue, type PointStage } from './pointSeries'
+import { pointStageValue, type PointStage } from '../../shared/pointSeries'
 import { brent } from './roots'
 
 export type TargetSpec = { below_C: number } | { above_C: number }

@@ -1,7 +1,8 @@
 /**
  * Serialisable temperature history of one point (or of the heat-content mean):
  * per stage T(t) = steady_C + Σ amplitude_K · e^{−decayRate_per_s (t − start_s)},
- * so a browser can evaluate a live prediction without the engine.
+ * so a browser can evaluate a live prediction without the engine. Lives in shared/
+ * because both the engine (server) and the floor countdown (client) read it.
  */
 export interface PointTerm {
   amplitude_K: number
