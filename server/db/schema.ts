@@ -36,7 +36,7 @@ export const auditLog = mysqlTable(
 export type UserRow = typeof users.$inferSelect
 export type AuditRow = typeof auditLog.$inferSelect
 
-export const QUENCHANT_KINDS = ['oil', 'water', 'polymer', 'salt', 'forced-air', 'still-air', 'gas'] as const
+import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
 
 /** Thermal properties in SI. A graded profile, when present, replaces the uniform values in the engine. */
 export const materials = mysqlTable('materials', {

@@ -1,0 +1,39 @@
+import { z } from 'zod'
+
+const positive = (field: string, unit: string) =>
+  z.number({ message: `${field} must be a number (${unit})` }).finite().positive(`${field} must be greater than zero (${unit})`)
+
+/** One point of a graded section: x is the fraction 0 (centre) – 1 (surface); a repeated x is a jump. */
+export const gradedPointSchema = z.strictObject({
+  x: z.number({ message: 'x must be a number from 0 to 1' }).min(0, 'x must be at least 0').max(1, 'x must be at most 1'),
+  k: positive('Conductivity', 'W/m·K'),
+  rhoCp: positive('Volumetric heat capacity', 'J/m³·K'),
+})
+
+export const gradedProfileSchema = z
+  .array(gradedPointSchema)
+  .min(2, 'A graded profile needs at least two points')
+  .superRefine((points, ctx) => {
+    if (points[0]?.x !== 0 || points.at(-1)?.x !== 1) {
+      ctx.addIssue({ code: 'custom', message: 'A graded profile must run from x = 0 (centre) to x = 1 (surface)' })
+    }
+    points.forEach((point, i) => {
+      if (i > 0 && point.x < points[i - 1]!.x) ctx.addIssue({ code: 'custom', path: [i, 'x'], message: 'x must not decrease' })
+      if (i > 1 && point.x === points[i - 1]!.x && point.x === points[i - 2]!.x)
+        ctx.addIssue({ code: 'custom', path: [i, 'x'], message: 'An x may appear at most twice (a jump)' })
+    })
+  })
+
+/** A material as the library stores it (SI). */
+export const materialInputSchema = z.strictObject({
+  name: z.string({ message: 'Name is required' }).trim().min(2, 'Name needs at least 2 characters').max(120, 'Name is too long'),
+  k_W_mK: positive('Thermal conductivity', 'W/m·K').max(500, 'Thermal conductivity above 500 W/m·K is not a steel or alloy'),
+  density_kg_m3: positive('Density', 'kg/m³').max(25000, 'Density above 25 000 kg/m³ is not plausible'),
+  specificHeat_J_kgK: positive('Specific heat', 'J/kg·K').max(5000, 'Specific heat above 5000 J/kg·K is not plausible for a metal'),
+  propertiesAt_C: z.number({ message: 'Reference temperature must be a number (°C)' }).finite().min(-273.15).max(1600).nullable().default(null),
+  gradedProfile: gradedProfileSchema.nullable().default(null),
+  notes: z.string().trim().max(2000, 'Notes are too long').nullable().default(null),
+  source: z.string({ message: 'Say where the values come from' }).trim().min(3, 'Say where the values come from').max(1000),
+})
+export type MaterialInput = z.input<typeof materialInputSchema>
+export type Material = z.output<typeof materialInputSchema> & { id: number; createdAt: string; updatedAt: string }
