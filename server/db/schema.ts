@@ -1,6 +1,7 @@
 import { boolean, datetime, double, index, int, json, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { ROLES } from '../../shared/roles'
+import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -36,7 +37,6 @@ export const auditLog = mysqlTable(
 export type UserRow = typeof users.$inferSelect
 export type AuditRow = typeof auditLog.$inferSelect
 
-import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
 
 /** Thermal properties in SI. A graded profile, when present, replaces the uniform values in the engine. */
 export const materials = mysqlTable('materials', {
