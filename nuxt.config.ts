@@ -38,5 +38,13 @@ export default defineNuxtConfig({
     databaseUrl: '', // NUXT_DATABASE_URL (DATABASE_URL is read too)
     public: { appVersion: version },
   },
-  typescript: { strict: true },
+  // Index checks stay off: the numerical core indexes typed arrays in tight loops,
+  // where `noUncheckedIndexedAccess` would add noise, not safety.
+  typescript: {
+    strict: true,
+    tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+    sharedTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+    nodeTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+  },
+  nitro: { typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } } },
 })

@@ -1,3 +1,4 @@
+/// <reference path="./besselPackage.d.ts" />
 /**
  * J0, J1 and their zeros.
  *
