@@ -4,23 +4,28 @@
  * Dimensionless eigenproblem on 0 ≤ x ≤ 1 (see properties.ts for the scaling):
  *     (x^m k f′)′ = −μ x^m c f,
  * as the first-order system f′ = p/(x^m k), p′ = −μ x^m c f with p = x^m k f′.
- * Inner end: symmetry f = 1, p = 0 (rod/sphere start at a small x from the series
- * f ≈ 1 − μ c x²/(2(m+1)k), which removes the x^-m singularity); slab face k f′ = Bi₀ f
- * (f = 1, p = Bi₀) or fixed (f = 0, p = 1). Outer end: p + Bi₁ f = 0 (f = 0 if fixed).
+ * Inner end: symmetry f = 1, p = 0 (a rod or sphere starts away from the centre on
+ * the power series of centreSeries below, which removes the x^-m singularity and
+ * the many tiny steps an adaptive integrator takes next to it); slab face
+ * k f′ = Bi₀ f (f = 1, p = Bi₀) or fixed (f = 0, p = 1). Outer end: p + Bi₁ f = 0
+ * (f = 0 if fixed).
  *
  * Sturm counting through the Prüfer angle θ = atan2(f, p): θ′ = (p²/(x^m k) +
  * μ x^m c f²)/(f² + p²) > 0, its zeros of f are θ = jπ, and θ(1; μ) increases
  * with μ, so the n-th eigenvalue (n − 1 interior zeros) is the unique root of
  *     θ(1; μ) = nπ − atan(1/Bi₁).
- * That bracket is found by stepping up from the previous eigenvalue, then Brent
- * polishes μ to 1e-10 relative. f and p are continuous across a property jump;
- * integration restarts there (each linear piece is integrated separately).
+ * Starting values come from a finite-volume discretisation (discreteModes.ts).
+ * Safeguarded Newton steps on that equation, with the exact dθ(1)/dμ, then polish
+ * μ to 1e-10 relative (the default); every shot narrows a bracket [lo, hi] known
+ * from the sign of θ(1; μ) − target, so a poor estimate costs bisection steps but
+ * can never converge on a neighbouring mode. f and p are continuous across a
+ * property jump; integration restarts there (each linear piece separately).
  * Checked on k = ρc = e^{2x}, whose modes are e^{−x} sin(nπx), μ = 1 + n²π²
  * (tests/unit/thermal/shooting.test.ts), and against the uniform closed forms.
  */
+import { discreteRates } from './discreteModes'
 import { denseValue, integrate, type DenseSegment } from './dormandPrince'
 import type { PropertyPiece } from './properties'
-import { brent } from './roots'
 
 export interface ShootingSpec {
   m: 0 | 1 | 2
@@ -37,10 +42,36 @@ export interface ShotMode {
   shape: (x: number) => number
 }
 
-/** Tolerances of the coarse search (bracketing, Brent) and of the final Newton polish. */
+export interface IntegrationTolerance {
+  rtol: number
+  atol: number
+}
+
+/** Integration tolerance of the final shots and the relative accuracy of μ. */
+export interface ShootingAccuracy {
+  fine: IntegrationTolerance
+  rateRtol: number
+}
+
+/** The product default: rates to 1e-10 relative, shapes to about the same. */
+export const FINE_SHOOTING: ShootingAccuracy = { fine: { rtol: 1e-10, atol: 1e-14 }, rateRtol: 1e-10 }
+
+/** Far from the root a rough θ is enough to steer Newton; it costs a fraction of the fine steps. */
 const COARSE = { rtol: 1e-6, atol: 1e-12 }
-const FINE = { rtol: 1e-10, atol: 1e-14 }
-const COARSE_RATE_RTOL = 1e-7
+/** Switch from COARSE to the fine tolerance once a Newton step is below this fraction of μ. */
+const COARSE_STEP = 1e-4
+const MAX_SHOTS = 80
+
+/**
+ * Shooting matched to a temperature accuracy of accuracy_K on drops of up to ~1000 K:
+ * relative errors ε in a rate or a shape move a term a e^{−μτ} by at most ~a·ε, so
+ * ε = 2e-6 per kelvin of accuracy keeps them two orders below it (1e-7 at 0.05 K).
+ * Never looser than the coarse search, never tighter than the default.
+ */
+export function shootingAccuracy(accuracy_K: number): ShootingAccuracy {
+  const rtol = Math.min(Math.max(2e-6 * accuracy_K, FINE_SHOOTING.rateRtol), COARSE.rtol)
+  return { fine: { rtol, atol: 1e-4 * rtol }, rateRtol: rtol }
+}
 
 interface Shot {
   theta: number
@@ -49,25 +80,67 @@ interface Shot {
   segments: DenseSegment[]
   /** Start of the integration (> 0 for rod/sphere with a symmetric centre). */
   xStart: number
+  /** Power-series coefficients of f on 0 ≤ x ≤ xStart (empty when xStart = 0). */
+  centre: Float64Array
+}
+
+/**
+ * Regular solution f = Σ a_j x^j (a₀ = 1) at a symmetric centre of a rod or sphere
+ * whose first piece has k = k₀ + k₁x, c = c₀ + c₁x. Multiplying the equation by
+ * x^{1−m} and collecting x^{j−1}:
+ *     k₀ j(j − 1 + m) a_j = −k₁ (j − 1)(j − 1 + m) a_{j−1} − μ (c₀ a_{j−2} + c₁ a_{j−3}),
+ * so a₁ = 0. It converges for |x| < k₀/|k₁|; the caller stays within a quarter of
+ * that and within 1.5/ω (ω² = μ max c/k), where f > 0 and no term is large enough
+ * to lose digits to cancellation. Returns f, p = x^m k f′ and ∫₀^x s^m c f² ds at xs.
+ */
+function centreSeries(m: 1 | 2, piece: PropertyPiece, mu: number, xs: number): { a: Float64Array; f: number; p: number; energy: number } {
+  const k0 = piece.k0
+  const k1 = (piece.k1 - piece.k0) / (piece.x1 - piece.x0)
+  const c0 = piece.c0
+  const c1 = (piece.c1 - piece.c0) / (piece.x1 - piece.x0)
+  const terms: number[] = [1, 0]
+  for (let j = 2; j < 120; j++) {
+    const aj = (-k1 * (j - 1) * (j - 1 + m) * terms[j - 1] - mu * (c0 * terms[j - 2] + (j >= 3 ? c1 * terms[j - 3] : 0))) / (k0 * j * (j - 1 + m))
+    terms.push(aj)
+    if (Math.abs(aj) * xs ** j < 1e-18 && Math.abs(terms[j - 1]) * xs ** (j - 1) < 1e-18 && j > 4) break
+  }
+  const a = Float64Array.from(terms)
+  let f = 0
+  let df = 0
+  for (let j = a.length - 1; j >= 0; j--) {
+    f = f * xs + a[j]
+    if (j > 0) df = df * xs + j * a[j]
+  }
+  // ∫ x^m (c₀ + c₁x) f² dx, termwise from f² = Σ b_j x^j.
+  let energy = 0
+  for (let j = 0; j < 2 * a.length - 1; j++) {
+    let b = 0
+    for (let i = Math.max(0, j - a.length + 1); i <= Math.min(j, a.length - 1); i++) b += a[i] * a[j - i]
+    energy += b * (c0 * xs ** (j + m + 1) / (j + m + 1) + c1 * xs ** (j + m + 2) / (j + m + 2))
+  }
+  return { a, f, p: xs ** m * (k0 + k1 * xs) * df, energy }
 }
 
 /** Integrates the shooting system for decay rate mu; θ(1), dθ(1)/dμ and optionally dense output. */
-export function shoot(spec: ShootingSpec, mu: number, tolerance = FINE, dense = false): Shot {
+export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, dense = false): Shot {
   const { m, pieces } = spec
   const first = pieces[0]
   let x = 0
   // (f, p, ∫ x^m c f² dx)
   const y = new Float64Array(3)
+  let centre = new Float64Array(0)
   if (spec.innerBiot === Infinity) {
     y[0] = 0
     y[1] = 1
   } else if (spec.innerBiot === 0 && m > 0) {
-    // Series start: small enough that the neglected O(x⁴μ²) and O(x³k′) terms are < 1e-12.
-    const w2 = (mu * first.c0) / first.k0
-    x = Math.min(1e-4, 1e-4 / Math.sqrt(1 + w2), 0.01 * (first.x1 - first.x0))
-    y[0] = 1 - (w2 * x * x) / (2 * (m + 1))
-    y[1] = (-mu * first.c0 * x ** (m + 1)) / (m + 1)
-    y[2] = (first.c0 * x ** (m + 1)) / (m + 1)
+    const omega = Math.sqrt(mu * Math.max(first.c0 / first.k0, first.c1 / first.k1))
+    const dk = Math.abs(first.k1 - first.k0) / (first.x1 - first.x0)
+    x = Math.min(0.5 * (first.x1 - first.x0), omega > 0 ? 1.5 / omega : Infinity, dk > 0 ? (0.25 * first.k0) / dk : Infinity)
+    const start = centreSeries(m, first, mu, x)
+    y[0] = start.f
+    y[1] = start.p
+    y[2] = start.energy
+    centre = start.a
   } else {
     y[0] = 1
     y[1] = spec.innerBiot
@@ -110,50 +183,80 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance = FINE, dense = 
     if (dense) segments.push(...result.segments)
   }
   const r2 = state[0] * state[0] + state[1] * state[1]
-  return { theta, dThetaDmu: state[2] / r2, segments, xStart }
+  return { theta, dThetaDmu: state[2] / r2, segments, xStart, centre }
 }
 
 /**
- * Lazily computed modes 1, 2, … of a graded body. Each eigenvalue is bracketed by
- * the Sturm count and found by Brent on a coarse integration (1e-7), then one
- * Newton step on the fine integration (error ~ (1e-7)², below the 1e-10 target).
+ * Lazily computed modes 1, 2, … of a graded body. Finite-volume estimates for a
+ * batch of modes (twice as many as asked so far) seed the Newton iteration of
+ * each; see the file comment for the safeguards.
  */
-export function shootingModes(spec: ShootingSpec): (n: number) => ShotMode {
+export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = FINE_SHOOTING): (n: number) => ShotMode {
   const modes: ShotMode[] = []
-  const target = (n: number) => n * Math.PI - Math.atan2(1, spec.outerBiot)
-  // WKB phase growth: dθ(1)/d√μ ≈ ∫√(c/k) dx.
-  let phaseIntegral = 0
-  for (const p of spec.pieces) phaseIntegral += (p.x1 - p.x0) * 0.5 * (Math.sqrt(p.c0 / p.k0) + Math.sqrt(p.c1 / p.k1))
-  return (n: number) => {
-    while (modes.length < n) {
-      const j = modes.length + 1
-      const goal = target(j)
-      const residual = (mu: number) => shoot(spec, mu, COARSE).theta - goal
-      let lo = j === 1 ? 0 : modes[j - 2].rate
-      let flo = residual(lo)
-      let hi = (Math.sqrt(lo) + (goal - (j === 1 ? 0 : target(j - 1))) / phaseIntegral) ** 2
-      let fhi = residual(hi)
-      while (fhi < 0) {
-        lo = hi
-        flo = fhi
-        hi = (Math.sqrt(hi) + 0.5 * Math.PI / phaseIntegral) ** 2
-        fhi = residual(hi)
+  let estimates = new Float64Array(0)
+  const last = spec.pieces[spec.pieces.length - 1]
+  const outerRatio = Math.sqrt(last.c1 / last.k1)
+  // Quadratic convergence: a step of s leaves an error ~ s², so √rateRtol-sized steps suffice.
+  const acceptStep = Math.sqrt(accuracy.rateRtol)
+  const solve = (j: number): ShotMode => {
+    // θ(1; μ_{j−1}) is the previous target, π below this one; μ₁ > 0.
+    let lo = j === 1 ? 0 : modes[j - 2].rate
+    let hi = Infinity
+    let mu = estimates[j - 1] > lo ? estimates[j - 1] : lo + 1
+    let fine = false
+    for (let shots = 0; shots < MAX_SHOTS; shots++) {
+      // Fine shots keep their dense output: the last one usually is the mode.
+      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine)
+      // The same Sturm condition in the scaled angle φ = atan2(s f, p), s = λ√(c/k) at
+      // the surface: θ ↦ φ is increasing and fixes every multiple of π/2, so φ(1) − (jπ −
+      // atan(s/Bi₁)) has the sign of θ(1) − (jπ − atan(1/Bi₁)), but φ(1) is nearly affine
+      // in λ = √μ (exactly so for uniform properties), which is where Newton works best.
+      const lam = Math.sqrt(mu)
+      const s = lam * outerRatio
+      const sin = Math.sin(shot.theta)
+      const cos = Math.cos(shot.theta)
+      const phi = shot.theta + Math.atan2(s * sin, cos) - Math.atan2(sin, cos)
+      const residual = phi - (j * Math.PI - Math.atan2(s, spec.outerBiot))
+      if (residual < 0) lo = mu
+      else hi = mu
+      const dPhiDmu = (s / (cos * cos + s * s * sin * sin)) * shot.dThetaDmu
+      const lamNext = lam - residual / (2 * lam * dPhiDmu)
+      const next = lamNext > 0 ? lamNext * lamNext : -1
+      const step = Math.abs(next - mu)
+      if (fine && next > lo && next < hi) {
+        // Within rateRtol the shot's own shape belongs to the polished rate; a step
+        // below √rateRtol leaves a rate error ~step², but the shape needs one more shot.
+        if (step <= accuracy.rateRtol * mu) return denseMode(next, shot)
+        if (step <= acceptStep * mu) return denseMode(next, shoot(spec, next, accuracy.fine, true))
       }
-      const coarse = brent(residual, lo, hi, { fa: flo, fb: fhi, rtol: COARSE_RATE_RTOL })
-      const polish = shoot(spec, coarse, FINE)
-      const rate = coarse - (polish.theta - goal) / polish.dThetaDmu
-      modes.push(denseMode(spec, rate))
+      mu = next > lo && next < hi ? next : hi === Infinity ? 2 * Math.max(mu, lo, 1) : 0.5 * (lo + hi)
+      if (!fine && step <= COARSE_STEP * mu) {
+        // The coarse θ may be off by ~COARSE.rtol: widen the bracket it built before trusting fine shots.
+        fine = true
+        lo = Math.max(j === 1 ? 0 : modes[j - 2].rate, lo - 10 * COARSE_STEP * mu)
+        hi += 10 * COARSE_STEP * mu
+      }
     }
+    throw new RangeError(`shooting: mode ${j} did not converge in ${MAX_SHOTS} shots`)
+  }
+  const denseMode = (rate: number, shot: Shot): ShotMode => ({ rate, shape: shapeOf(shot) })
+  return (n: number) => {
+    if (estimates.length < n) estimates = discreteRates(spec, Math.max(2 * n, 8))
+    while (modes.length < n) modes.push(solve(modes.length + 1))
     return modes[n - 1]
   }
 }
 
-function denseMode(spec: ShootingSpec, rate: number): ShotMode {
-  const { segments, xStart } = shoot(spec, rate, FINE, true)
-  const first = spec.pieces[0]
+/** f(x) of a shot: the centre power series, then the dense output of the integration. */
+function shapeOf(shot: Shot): (x: number) => number {
+  const { segments, xStart, centre } = shot
   const starts = segments.map((s) => s.x0)
-  const shape = (x: number): number => {
-    if (x < xStart) return 1 - (rate * first.c0 * x * x) / (2 * (spec.m + 1) * first.k0)
+  return (x: number): number => {
+    if (x < xStart) {
+      let f = 0
+      for (let j = centre.length - 1; j >= 0; j--) f = f * x + centre[j]
+      return f
+    }
     let lo = 0
     let hi = starts.length - 1
     while (lo < hi) {
@@ -163,5 +266,4 @@ function denseMode(spec: ShootingSpec, rate: number): ShotMode {
     }
     return denseValue(segments[lo], 3, 0, Math.min(x, segments[lo].x0 + segments[lo].h))
   }
-  return { rate, shape }
 }
