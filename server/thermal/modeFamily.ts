@@ -7,7 +7,7 @@
  */
 import { rodRoot, slabRoot, sphereRoot, uniformShape } from './eigenRoots'
 import type { ScaledDomain } from './properties'
-import { shootingModes } from './shooting'
+import { FINE_SHOOTING, shootingModes, type ShootingAccuracy } from './shooting'
 import type { Geometry } from './types'
 
 export interface Mode {
@@ -22,7 +22,13 @@ export interface ModeFamily {
   mode: (n: number) => Mode
 }
 
-export function modeFamily(geometry: Geometry, domain: ScaledDomain, innerBiot: number, outerBiot: number): ModeFamily {
+export function modeFamily(
+  geometry: Geometry,
+  domain: ScaledDomain,
+  innerBiot: number,
+  outerBiot: number,
+  shooting: ShootingAccuracy = FINE_SHOOTING,
+): ModeFamily {
   if (domain.uniform) {
     const root =
       geometry === 'slab'
@@ -42,5 +48,5 @@ export function modeFamily(geometry: Geometry, domain: ScaledDomain, innerBiot: 
       },
     }
   }
-  return { analytic: false, mode: shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }) }
+  return { analytic: false, mode: shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }, shooting) }
 }

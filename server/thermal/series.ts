@@ -8,7 +8,8 @@
  *
  * The number of modes is chosen for the earliest time the stage is evaluated at:
  * terms |a_n| max|f_n| e^{−μ_n τ_min} are summed beyond a cut until at least three
- * terms past it have been computed; the cut is the first whose tail is < 0.01 K,
+ * terms past it have been computed; the cut is the first whose tail is < 0.01 K
+ * (or the caller's looser truncationTolerance_K),
  * and that tail is reported (μ_n grows like n², so the computed next terms bound
  * the rest).
  */
@@ -51,6 +52,8 @@ export interface SeriesInput {
   earliest_s: number
   minModes: number
   maxModes: number
+  /** Tail allowed at the earliest time (TRUNCATION_TOLERANCE_K unless a looser accuracy was asked for). */
+  truncationTolerance_K?: number
   start_s: number
   end_s: number
 }
@@ -110,7 +113,7 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
     }
     let cut = computed
     let tail = 0
-    while (cut > input.minModes && tail + terms[cut - 1] < TRUNCATION_TOLERANCE_K) {
+    while (cut > input.minModes && tail + terms[cut - 1] < (input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)) {
       tail += terms[cut - 1]
       cut--
     }

@@ -11,7 +11,8 @@ import type { PointStage } from '../../shared/pointSeries'
 import { pointValue } from '../../shared/pointSeries'
 import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
 import { compositeRule } from './quadrature'
-import { buildStageSeries, seriesValue, type StageSeries } from './series'
+import { buildStageSeries, seriesValue, TRUNCATION_TOLERANCE_K, type StageSeries } from './series'
+import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { Boundary, CooldownProblem, TemperaturePoint } from './types'
@@ -24,6 +25,13 @@ export interface SolveOptions {
   earliest_s?: number | number[]
   /** Use at least this many modes in every stage. */
   minModes?: number
+  /**
+   * Temperature accuracy to aim for, in K. Absent: the product default (series
+   * truncated at 0.01 K, graded rates polished to 1e-10). A value loosens the
+   * truncation to 80 % of it and the graded shooting to a matching tolerance
+   * (shootingAccuracy), e.g. 0.05 K to compare with a grid tuned to 0.05 K.
+   */
+  accuracy_K?: number
 }
 
 export interface StageSummary {
@@ -79,13 +87,16 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
   const initialAt = typeof initial === 'number' ? () => initial : (x: number) => profileAt(initial, x)
   const stages: StageSeries[] = []
   const summaries: StageSummary[] = []
+  const accuracy = options.accuracy_K
+  if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
+  const shooting = accuracy === undefined ? FINE_SHOOTING : shootingAccuracy(accuracy)
   let start_s = 0
   problem.stages.forEach((stage, i) => {
     const last = i === problem.stages.length - 1
     const end_s = last ? Infinity : start_s + (stage.duration_s as number)
     const inner = scaledEnd(stage.inner, domain)
     const outer = scaledEnd(stage.outer, domain)
-    const family = modeFamily(geometry, domain, inner.biot, outer.biot)
+    const family = modeFamily(geometry, domain, inner.biot, outer.biot, shooting)
     const previous = stages[i - 1]
     const earliest = Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s
     const series = buildStageSeries({
@@ -102,6 +113,7 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
       symmetricUniformSteady: inner.biot === 0,
       earliest_s: earliest ?? 0.01 * domain.timeScale_s,
       minModes: options.minModes ?? 1,
+      truncationTolerance_K: accuracy === undefined ? TRUNCATION_TOLERANCE_K : 0.8 * accuracy,
       maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,
       start_s,
       end_s,
