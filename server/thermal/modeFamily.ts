@@ -5,7 +5,7 @@
  * — symmetric, one fixed or convective inner face, or two different faces — has
  * the closed form cos(λx − atan(Bi₀/λ)), so shooting is only used for graded bodies.
  */
-import { rodRoot, slabRoot, sphereRoot, uniformShape } from './eigenRoots'
+import { rodRoot, slabRoot, sphereRoot, surfaceValues, uniformShape, type SurfaceValues } from './eigenRoots'
 import type { ScaledDomain } from './properties'
 import { FINE_SHOOTING, shootingModes, type ShootingAccuracy } from './shooting'
 import type { Geometry } from './types'
@@ -14,6 +14,8 @@ export interface Mode {
   /** Dimensionless decay rate μ̂ (μ = μ̂ / timeScale_s). */
   rate: number
   shape: (x: number) => number
+  /** Symmetric uniform modes only: root and surface values for closed-form integrals. */
+  surface?: SurfaceValues
 }
 
 export interface ModeFamily {
@@ -21,6 +23,15 @@ export interface ModeFamily {
   /** n-th mode, n ≥ 1 (n − 1 interior zeros). */
   mode: (n: number) => Mode
 }
+
+/**
+ * Modes of recent uniform families, shared between solves: runCase solves a case
+ * twice (a cheap pass, then one accurate from the first curve sample) and the
+ * planner re-solves on every edit, mostly with the same Biot numbers. The modes
+ * depend on nothing else, so a hit is exact.
+ */
+const uniformModes = new Map<string, Mode[]>()
+const UNIFORM_CACHE_SIZE = 64
 
 export function modeFamily(
   geometry: Geometry,
@@ -36,15 +47,24 @@ export function modeFamily(
         : geometry === 'rod'
           ? (n: number) => rodRoot(n, outerBiot)
           : (n: number) => sphereRoot(n, outerBiot)
-    const cache: Mode[] = []
+    const key = `${geometry} ${innerBiot} ${outerBiot}`
+    let cache = uniformModes.get(key)
+    if (!cache) {
+      cache = []
+      uniformModes.set(key, cache)
+      if (uniformModes.size > UNIFORM_CACHE_SIZE) uniformModes.delete(uniformModes.keys().next().value as string)
+    }
+    const modes = cache
     return {
       analytic: true,
       mode: (n) => {
-        while (cache.length < n) {
-          const lam = root(cache.length + 1)
-          cache.push({ rate: lam * lam, shape: uniformShape(geometry, lam, innerBiot) })
+        while (modes.length < n) {
+          const lam = root(modes.length + 1)
+          const mode: Mode = { rate: lam * lam, shape: uniformShape(geometry, lam, innerBiot) }
+          if (innerBiot === 0) mode.surface = surfaceValues(geometry, lam)
+          modes.push(mode)
         }
-        return cache[n - 1]
+        return modes[n - 1]
       },
     }
   }

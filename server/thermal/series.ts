@@ -3,8 +3,9 @@
  *     T(x, τ) = T_ss(x) + Σ a_n f_n(x) e^{−μ_n τ},
  *     a_n = ∫ w (T_start − T_ss) f_n dx / ∫ w f_n² dx,   w = ρc x^m,
  * the modes being orthogonal in that weight (Sturm–Liouville). Coefficients come
- * from composite Gauss–Legendre quadrature, or the closed forms C_n (T₀ − T∞) for a
- * uniform symmetric body from a uniform start (Incropera et al., §5.5–5.6).
+ * from composite Gauss–Legendre quadrature, or for a uniform symmetric body in
+ * closed form: C_n (T₀ − T∞) from a uniform start (Incropera et al., §5.5–5.6), and
+ * Green's identity from the previous stage's modes (closedFormProjection).
  *
  * The number of modes is chosen for the earliest time the stage is evaluated at:
  * terms |a_n| max|f_n| e^{−μ_n τ_min} are summed beyond a cut until at least three
@@ -13,11 +14,11 @@
  * and that tail is reported (μ_n grows like n², so the computed next terms bound
  * the rest).
  */
-import type { ModeFamily } from './modeFamily'
+import type { Mode, ModeFamily } from './modeFamily'
 import type { ScaledDomain } from './properties'
 import { breakpointsOf, propertiesAt } from './properties'
 import { compositeRule } from './quadrature'
-import { uniformInitialCoefficient } from './eigenRoots'
+import { uniformInitialCoefficient, uniformMass, uniformNorm, uniformOverlap, type SurfaceValues } from './eigenRoots'
 import type { Geometry } from './types'
 
 export const TRUNCATION_TOLERANCE_K = 0.01
@@ -36,6 +37,14 @@ export interface StageSeries {
   /** ∫ w f_n / ∫ w: each mode's contribution to the heat-content mean. */
   modeMeans: number[]
   truncationError_K: number
+  /** Surface values of the modes used, when they are symmetric uniform modes. */
+  surfaces?: SurfaceValues[]
+}
+
+/** A start given as a symmetric uniform stage's modes: T = steady_C + Σ amplitude_K f_j. */
+export interface ModalStart {
+  steady_C: number
+  terms: { amplitude_K: number; surface: SurfaceValues }[]
 }
 
 export interface SeriesInput {
@@ -45,6 +54,8 @@ export interface SeriesInput {
   steady: (x: number) => number
   /** Temperature at the stage start: a function of x, or a uniform value. */
   start: number | ((x: number) => number)
+  /** The same start as modes, when the previous stage is symmetric and uniform (closed-form projection). */
+  startModes?: ModalStart
   /** Extra quadrature breakpoints (kinks of an initial profile). */
   breakpoints: number[]
   /** True when T_ss is uniform and the centre symmetric (closed-form C_n apply). */
@@ -63,8 +74,6 @@ const LOOKAHEAD = 4
 export function buildStageSeries(input: SeriesInput): StageSeries {
   const { domain, family } = input
   const tauMin = Math.max(input.earliest_s, 0) / domain.timeScale_s
-  const useClosedForm = family.analytic && input.symmetricUniformSteady && typeof input.start === 'number'
-  const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
   // Guess: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)².
   let n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI) + 1
   n = Math.min(Math.max(n, input.minModes, 4), input.maxModes)
@@ -72,45 +81,8 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
   for (;;) {
     const computed = Math.min(n + LOOKAHEAD, input.maxModes)
     const modes = Array.from({ length: computed }, (_, i) => family.mode(i + 1))
-    const lamMax = Math.sqrt(modes[computed - 1].rate * maxRatio)
-    const rule = compositeRule(
-      [...breakpointsOf(domain.pieces), ...input.breakpoints],
-      Math.min(1 / 16, 1.5 / lamMax),
-      (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
-    )
-    const nodes = rule.x.length
-    const excess = new Float64Array(nodes)
-    let totalWeight = 0
-    for (let i = 0; i < nodes; i++) {
-      excess[i] = startAt(rule.x[i]) - input.steady(rule.x[i])
-      totalWeight += rule.w[i]
-    }
-    let steadyMean = 0
-    for (let i = 0; i < nodes; i++) steadyMean += rule.w[i] * input.steady(rule.x[i])
-    const amplitudes: number[] = []
-    const means: number[] = []
-    const terms: number[] = []
-    for (let j = 0; j < computed; j++) {
-      const shape = modes[j].shape
-      let norm = 0
-      let projection = 0
-      let mean = 0
-      let peak = Math.abs(shape(1))
-      for (let i = 0; i < nodes; i++) {
-        const f = shape(rule.x[i])
-        const wf = rule.w[i] * f
-        norm += wf * f
-        projection += wf * excess[i]
-        mean += wf
-        peak = Math.max(peak, Math.abs(f))
-      }
-      const a = useClosedForm
-        ? ((input.start as number) - input.steady(0)) * uniformInitialCoefficient(input.geometry, Math.sqrt(modes[j].rate))
-        : projection / norm
-      amplitudes.push(a)
-      means.push(mean / totalWeight)
-      terms.push(Math.abs(a) * peak * Math.exp(-modes[j].rate * tauMin))
-    }
+    const closed = closedFormProjection(input, modes, tauMin)
+    const { amplitudes, means, terms, steadyMean } = closed ?? quadratureProjection(input, modes, tauMin, maxRatio)
     let cut = computed
     let tail = 0
     while (cut > input.minModes && tail + terms[cut - 1] < (input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)) {
@@ -125,16 +97,102 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
         end_s: input.end_s,
         timeScale_s: domain.timeScale_s,
         steady: input.steady,
-        steadyMean_C: steadyMean / totalWeight,
+        steadyMean_C: steadyMean,
         rates: modes.slice(0, cut).map((m) => m.rate),
         amplitudes_K: amplitudes.slice(0, cut),
         shapes: modes.slice(0, cut).map((m) => m.shape),
         modeMeans: means.slice(0, cut),
         truncationError_K: truncation,
+        ...(modes.every((m) => m.surface) ? { surfaces: modes.slice(0, cut).map((m) => m.surface as SurfaceValues) } : {}),
       }
     }
     n = Math.min(2 * n, input.maxModes)
   }
+}
+
+interface Projection {
+  amplitudes: number[]
+  /** ∫ w f_n / ∫ w per mode. */
+  means: number[]
+  /** Bound |a_n| max|f_n| e^{−μ_n τ_min} of each term at the earliest time. */
+  terms: number[]
+  steadyMean: number
+}
+
+/**
+ * Symmetric uniform modes from a uniform start (the closed forms C_n) or from the
+ * previous stage's modes (eigenRoots.ts: Green's identity), with no quadrature:
+ *     a_n = ((T_prev,ss − T_ss) ∫x^m f_n + Σ_j A_j ∫x^m g_j f_n) / ∫x^m f_n².
+ * |f_n| ≤ f_n(0) = 1 for cos, J0 and sin(λx)/(λx). Null when they do not apply.
+ */
+function closedFormProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection | null {
+  if (!input.symmetricUniformSteady || !modes.every((mode) => mode.surface)) return null
+  if (typeof input.start !== 'number' && !input.startModes) return null
+  const m = input.domain.m
+  const steady = input.steady(0)
+  const amplitudes: number[] = []
+  const means: number[] = []
+  const terms: number[] = []
+  for (const mode of modes) {
+    const surface = mode.surface as SurfaceValues
+    let a: number
+    if (typeof input.start === 'number') a = (input.start - steady) * uniformInitialCoefficient(input.geometry, surface.lam)
+    else {
+      const start = input.startModes as ModalStart
+      let projection = (start.steady_C - steady) * uniformMass(surface)
+      for (const term of start.terms) projection += term.amplitude_K * uniformOverlap(m, term.surface, surface)
+      a = projection / uniformNorm(m, surface)
+    }
+    amplitudes.push(a)
+    means.push((m + 1) * uniformMass(surface))
+    terms.push(Math.abs(a) * Math.exp(-mode.rate * tauMin))
+  }
+  return { amplitudes, means, terms, steadyMean: steady }
+}
+
+/** Composite Gauss–Legendre projection of the start onto any modes, resolving the fastest one. */
+function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number, maxRatio: number): Projection {
+  const { domain } = input
+  const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
+  const lamMax = Math.sqrt(modes[modes.length - 1].rate * maxRatio)
+  const rule = compositeRule(
+    [...breakpointsOf(domain.pieces), ...input.breakpoints],
+    Math.min(1 / 16, 1.5 / lamMax),
+    (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
+  )
+  const nodes = rule.x.length
+  const excess = new Float64Array(nodes)
+  let totalWeight = 0
+  let steadyMean = 0
+  for (let i = 0; i < nodes; i++) {
+    const steady = input.steady(rule.x[i])
+    excess[i] = startAt(rule.x[i]) - steady
+    totalWeight += rule.w[i]
+    steadyMean += rule.w[i] * steady
+  }
+  const amplitudes: number[] = []
+  const means: number[] = []
+  const terms: number[] = []
+  for (const mode of modes) {
+    const shape = mode.shape
+    let norm = 0
+    let projection = 0
+    let mean = 0
+    let peak = Math.abs(shape(1))
+    for (let i = 0; i < nodes; i++) {
+      const f = shape(rule.x[i])
+      const wf = rule.w[i] * f
+      norm += wf * f
+      projection += wf * excess[i]
+      mean += wf
+      peak = Math.max(peak, Math.abs(f))
+    }
+    const a = projection / norm
+    amplitudes.push(a)
+    means.push(mean / totalWeight)
+    terms.push(Math.abs(a) * peak * Math.exp(-mode.rate * tauMin))
+  }
+  return { amplitudes, means, terms, steadyMean: steadyMean / totalWeight }
 }
 
 /** Temperature of a stage series at time τ after the stage start. */

@@ -11,7 +11,8 @@ import type { PointStage } from '../../shared/pointSeries'
 import { pointValue } from '../../shared/pointSeries'
 import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
 import { compositeRule } from './quadrature'
-import { buildStageSeries, seriesValue, TRUNCATION_TOLERANCE_K, type StageSeries } from './series'
+import type { SurfaceValues } from './eigenRoots'
+import { buildStageSeries, seriesValue, TRUNCATION_TOLERANCE_K, type ModalStart, type StageSeries } from './series'
 import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing, type TargetSpec } from './targetTime'
@@ -70,6 +71,15 @@ export function scaledEnd(boundary: Boundary, domain: ScaledDomain): ScaledEnd {
   return { biot: (boundary.h_W_m2K * domain.length_m) / domain.kRef_W_mK, temperature_C: boundary.ambient_C }
 }
 
+/** A symmetric uniform stage's state at its end, as its own modes. */
+function modalEnd(stage: StageSeries, surfaces: SurfaceValues[]): ModalStart {
+  const tau = (stage.end_s - stage.start_s) / stage.timeScale_s
+  return {
+    steady_C: stage.steady(0),
+    terms: surfaces.map((surface, j) => ({ amplitude_K: stage.amplitudes_K[j] * Math.exp(-stage.rates[j] * tau), surface })),
+  }
+}
+
 /** Linear interpolation in a temperature table; at a repeated x the later point wins. */
 export function profileAt(points: TemperaturePoint[], x: number): number {
   let j = 0
@@ -109,6 +119,7 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
         : typeof initial === 'number'
           ? initial
           : initialAt,
+      ...(previous?.surfaces ? { startModes: modalEnd(previous, previous.surfaces) } : {}),
       breakpoints: i === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [],
       symmetricUniformSteady: inner.biot === 0,
       earliest_s: earliest ?? 0.01 * domain.timeScale_s,
