@@ -6,7 +6,7 @@
  */
 import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
 import { solveCrankNicolson } from './crankNicolson'
-import { pointValue, type PointStage } from '../../shared/pointSeries'
+import { pointValues, type PointStage } from '../../shared/pointSeries'
 import { solveCooldown, type CooldownSolution, type PointRef, type StageSummary } from './solveCooldown'
 import type { TargetSpec } from './targetTime'
 
@@ -65,7 +65,11 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
   const curveTimes = [...Array.from({ length: CURVE_POINTS + 1 }, (_, i) => (end_s * i) / CURVE_POINTS), ...starts.slice(1).filter((s) => s < end_s)]
   if (targetTime !== null) curveTimes.push(targetTime)
   const tCurve = [...new Set(curveTimes)].sort((a, b) => a - b)
-  const readPoint = (series: PointStage[], x: number) => (t: number) => (t <= 0 ? solution.initialAt(x) : pointValue(series, t))
+  // t = 0 reads the start itself; the series is not converged there.
+  const curveOf = (series: PointStage[], initial_C: number) => {
+    const values = pointValues(series, tCurve)
+    return tCurve.map((t, i) => (t <= 0 ? initial_C : values[i]))
+  }
   const profileX = Array.from({ length: PROFILE_POINTS }, (_, i) => i / (PROFILE_POINTS - 1))
   const table = times.map((t) => points.map((x) => solution.evaluate(t, x)))
   const result: CaseResult = {
@@ -77,9 +81,9 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     profiles: { x: profileX, t_s: times, T_C: times.map((t) => profileX.map((x) => solution.evaluate(t, x))) },
     curve: {
       t_s: tCurve,
-      centre_C: tCurve.map(readPoint(centre, solution.centreX)),
-      surface_C: tCurve.map(readPoint(surface, 1)),
-      mean_C: tCurve.map((t) => solution.mean(t)),
+      centre_C: curveOf(centre, solution.initialAt(solution.centreX)),
+      surface_C: curveOf(surface, solution.initialAt(1)),
+      mean_C: curveOf(solution.pointSeries('mean'), solution.mean(0)),
     },
   }
   if ((options.check ?? c.check) === 'finite-difference') result.check = finiteDifferenceCheck(solution, c, problem, tCurve, points)
