@@ -204,9 +204,10 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
     let hi = Infinity
     let mu = estimates[j - 1] > lo ? estimates[j - 1] : lo + 1
     let fine = false
+    let lastStep = Infinity
     for (let shots = 0; shots < MAX_SHOTS; shots++) {
-      // Fine shots keep their dense output: the last one usually is the mode.
-      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine)
+      // A shot expected to be the last keeps its dense output, which then is the mode's shape.
+      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine && lastStep <= acceptStep)
       // The same Sturm condition in the scaled angle φ = atan2(s f, p), s = λ√(c/k) at
       // the surface: θ ↦ φ is increasing and fixes every multiple of π/2, so φ(1) − (jπ −
       // atan(s/Bi₁)) has the sign of θ(1) − (jπ − atan(1/Bi₁)), but φ(1) is nearly affine
@@ -226,9 +227,10 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
       if (fine && next > lo && next < hi) {
         // Within rateRtol the shot's own shape belongs to the polished rate; a step
         // below √rateRtol leaves a rate error ~step², but the shape needs one more shot.
-        if (step <= accuracy.rateRtol * mu) return denseMode(next, shot)
+        if (step <= accuracy.rateRtol * mu && shot.segments.length > 0) return denseMode(next, shot)
         if (step <= acceptStep * mu) return denseMode(next, shoot(spec, next, accuracy.fine, true))
       }
+      lastStep = next > lo && next < hi ? step / mu : Infinity
       mu = next > lo && next < hi ? next : hi === Infinity ? 2 * Math.max(mu, lo, 1) : 0.5 * (lo + hi)
       if (!fine && step <= COARSE_STEP * mu) {
         // The coarse θ may be off by ~COARSE.rtol: widen the bracket it built before trusting fine shots.
