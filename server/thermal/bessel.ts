@@ -20,14 +20,24 @@ export function besselJ1(x: number): number {
   return x === 0 ? 0 : bessel.besselj(x, 1)
 }
 
+// The zeros are constants that bracket every rod root, so each is found once per process.
+const j0Zeros: number[] = []
+const j1Zeros: number[] = []
+
 /** n-th positive zero of J0 (n ≥ 1). */
 export function besselJ0Zero(n: number): number {
-  const guess = (n - 0.25) * Math.PI
-  return brent(besselJ0, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+  if (j0Zeros[n] === undefined) {
+    const guess = (n - 0.25) * Math.PI
+    j0Zeros[n] = brent(besselJ0, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+  }
+  return j0Zeros[n]
 }
 
 /** n-th positive zero of J1 (n ≥ 1); j1,0 = 0 is excluded. */
 export function besselJ1Zero(n: number): number {
-  const guess = (n + 0.25) * Math.PI
-  return brent(besselJ1, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+  if (j1Zeros[n] === undefined) {
+    const guess = (n + 0.25) * Math.PI
+    j1Zeros[n] = brent(besselJ1, guess - 0.4, guess + 0.4, { xtol: 1e-13 })
+  }
+  return j1Zeros[n]
 }
