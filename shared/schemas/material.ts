@@ -24,16 +24,38 @@ export const gradedProfileSchema = z
     })
   })
 
-/** A material as the library stores it (SI). */
-export const materialInputSchema = z.strictObject({
+// Field rules without defaults, so a partial update can tell "not sent" from "cleared".
+const materialFields = {
   name: z.string({ message: 'Name is required' }).trim().min(2, 'Name needs at least 2 characters').max(120, 'Name is too long'),
   k_W_mK: positive('Thermal conductivity', 'W/m·K').max(500, 'Thermal conductivity above 500 W/m·K is not a steel or alloy'),
   density_kg_m3: positive('Density', 'kg/m³').max(25000, 'Density above 25 000 kg/m³ is not plausible'),
   specificHeat_J_kgK: positive('Specific heat', 'J/kg·K').max(5000, 'Specific heat above 5000 J/kg·K is not plausible for a metal'),
-  propertiesAt_C: z.number({ message: 'Reference temperature must be a number (°C)' }).finite().min(-273.15).max(1600).nullable().default(null),
-  gradedProfile: gradedProfileSchema.nullable().default(null),
-  notes: z.string().trim().max(2000, 'Notes are too long').nullable().default(null),
-  source: z.string({ message: 'Say where the values come from' }).trim().min(3, 'Say where the values come from').max(1000),
+  propertiesAt_C: z
+    .number({ message: 'Reference temperature must be a number (°C)' })
+    .finite()
+    .min(-273.15, 'Reference temperature cannot be below absolute zero')
+    .max(1600, 'Reference temperature above 1600 °C is beyond any steel')
+    .nullable(),
+  gradedProfile: gradedProfileSchema.nullable(),
+  notes: z.string({ message: 'Notes must be text' }).trim().max(2000, 'Notes are too long').nullable(),
+  source: z.string({ message: 'Say where the values come from' }).trim().min(3, 'Say where the values come from').max(1000, 'Source is too long'),
+}
+
+/** A material as the library stores it (SI). */
+export const materialInputSchema = z.strictObject({
+  ...materialFields,
+  propertiesAt_C: materialFields.propertiesAt_C.default(null),
+  gradedProfile: materialFields.gradedProfile.default(null),
+  notes: materialFields.notes.default(null),
 })
 export type MaterialInput = z.input<typeof materialInputSchema>
-export type Material = z.output<typeof materialInputSchema> & { id: number; createdAt: string; updatedAt: string }
+/** The values as stored, defaults applied. */
+export type MaterialValues = z.output<typeof materialInputSchema>
+export type Material = MaterialValues & { id: number; createdAt: string; updatedAt: string }
+
+/** An edit: only the fields sent change; at least one must be sent. */
+export const materialPatchSchema = z
+  .strictObject(materialFields)
+  .partial()
+  .refine((patch) => Object.keys(patch).length > 0, 'Send at least one field to change')
+export type MaterialPatch = z.output<typeof materialPatchSchema>

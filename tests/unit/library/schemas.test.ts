@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest'
+import { materialInputSchema, materialPatchSchema } from '../../../shared/schemas/material'
+import { quenchantInputSchema, quenchantPatchSchema } from '../../../shared/schemas/quenchant'
+
+function problems(result: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } }) {
+  expect(result.success).toBe(false)
+  return result.error!.issues.map((issue) => [issue.path.map(String).join('.'), issue.message])
+}
+
+const material = {
+  name: 'Test steel',
+  k_W_mK: 50,
+  density_kg_m3: 7850,
+  specificHeat_J_kgK: 460,
+  source: 'Shop measurement',
+}
+
+const quenchant = {
+  name: 'Test oil',
+  kind: 'oil',
+  hTypical_W_m2K: 1200,
+  hLow_W_m2K: 900,
+  hHigh_W_m2K: 1600,
+  bath_C: 60,
+  source: 'Shop probe',
+}
+
+describe('material input', () => {
+  it('fills the optional fields with null', () => {
+    expect(materialInputSchema.parse(material)).toEqual({ ...material, propertiesAt_C: null, gradedProfile: null, notes: null })
+  })
+
+  it.each([
+    [{ name: 'A' }, 'name', 'Name needs at least 2 characters'],
+    [{ k_W_mK: -1 }, 'k_W_mK', 'Thermal conductivity must be greater than zero (W/m·K)'],
+    [{ k_W_mK: 900 }, 'k_W_mK', 'Thermal conductivity above 500 W/m·K is not a steel or alloy'],
+    [{ density_kg_m3: '7850' }, 'density_kg_m3', 'Density must be a number (kg/m³)'],
+    [{ specificHeat_J_kgK: 0 }, 'specificHeat_J_kgK', 'Specific heat must be greater than zero (J/kg·K)'],
+    [{ propertiesAt_C: -300 }, 'propertiesAt_C', 'Reference temperature cannot be below absolute zero'],
+    [{ source: '' }, 'source', 'Say where the values come from'],
+    [{ notes: 'x'.repeat(2001) }, 'notes', 'Notes are too long'],
+    [{ gradedProfile: [{ x: 0.1, k: 50, rhoCp: 3.6e6 }, { x: 1, k: 50, rhoCp: 3.6e6 }] }, 'gradedProfile', 'A graded profile must run from x = 0 (centre) to x = 1 (surface)'],
+    [{ gradedProfile: [{ x: 0, k: 50, rhoCp: 3.6e6 }, { x: 1, k: -5, rhoCp: 3.6e6 }] }, 'gradedProfile.1.k', 'Conductivity must be greater than zero (W/m·K)'],
+    [{ gradedProfile: [{ x: 0, k: 50, rhoCp: 3.6e6 }, { x: 0.9, k: 50, rhoCp: 3.6e6 }, { x: 0.5, k: 45, rhoCp: 3.6e6 }, { x: 1, k: 45, rhoCp: 3.6e6 }] }, 'gradedProfile.2.x', 'x must not decrease'],
+  ])('refuses %j naming %s', (change, field, message) => {
+    expect(problems(materialInputSchema.safeParse({ ...material, ...change }))).toContainEqual([field, message])
+  })
+
+  it('refuses unknown keys instead of ignoring them', () => {
+    expect(materialInputSchema.safeParse({ ...material, alpha: 1 }).success).toBe(false)
+  })
+
+  it('a patch carries only the fields sent, and must send one', () => {
+    expect(materialPatchSchema.parse({ notes: ' re-measured ' })).toEqual({ notes: 're-measured' })
+    expect(problems(materialPatchSchema.safeParse({}))).toContainEqual(['', 'Send at least one field to change'])
+    expect(problems(materialPatchSchema.safeParse({ k_W_mK: 0 }))).toContainEqual(['k_W_mK', 'Thermal conductivity must be greater than zero (W/m·K)'])
+  })
+})
+
+describe('quenchant input', () => {
+  it('accepts a coherent medium', () => {
+    expect(quenchantInputSchema.parse(quenchant)).toEqual({ ...quenchant, notes: null })
+  })
+
+  it.each([
+    [{ kind: 'brine' }, 'kind', 'Kind must be one of: oil, water, polymer, salt, forced-air, still-air, gas'],
+    [{ hTypical_W_m2K: 0 }, 'hTypical_W_m2K', 'Typical coefficient must be greater than zero (W/m²·K)'],
+    [{ hLow_W_m2K: 1300 }, 'hLow_W_m2K', 'The low coefficient cannot exceed the typical one'],
+    [{ hHigh_W_m2K: 1000 }, 'hHigh_W_m2K', 'The high coefficient cannot be below the typical one'],
+    [{ hHigh_W_m2K: 200000 }, 'hHigh_W_m2K', 'High coefficient above 100 000 W/m²·K is beyond any quench'],
+    [{ bath_C: 800 }, 'bath_C', 'Bath temperature above 700 °C is not supported'],
+    [{ bath_C: null }, 'bath_C', 'Bath temperature must be a number (°C)'],
+    [{ name: undefined }, 'name', 'Name is required'],
+    [{ source: ' ' }, 'source', 'Say where the values come from'],
+  ])('refuses %j naming %s', (change, field, message) => {
+    expect(problems(quenchantInputSchema.safeParse({ ...quenchant, ...change }))).toContainEqual([field, message])
+  })
+
+  it('a patch is checked field by field; the order of the coefficients is checked on the merged record', () => {
+    expect(quenchantPatchSchema.parse({ hLow_W_m2K: 5000 })).toEqual({ hLow_W_m2K: 5000 })
+    expect(problems(quenchantInputSchema.safeParse({ ...quenchant, hLow_W_m2K: 5000 }))).toContainEqual(['hLow_W_m2K', 'The low coefficient cannot exceed the typical one'])
+    expect(problems(quenchantPatchSchema.safeParse({ bath_C: 'hot' }))).toContainEqual(['bath_C', 'Bath temperature must be a number (°C)'])
+  })
+})
