@@ -3,6 +3,7 @@ import type { PublicUser } from '../../shared/types/user'
 import type { UserCreate, UserUpdate } from '../../shared/schemas/user'
 import { users, type UserRow } from '../db/schema'
 import { recordAudit } from './audit'
+import { isDuplicateKey } from './dbErrors'
 import { hashPassword } from './password'
 
 export function toPublicUser(row: UserRow): PublicUser {
@@ -15,11 +16,6 @@ export function toPublicUser(row: UserRow): PublicUser {
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
   }
-}
-
-function isDuplicateKey(error: unknown): boolean {
-  const cause = (error as { cause?: { code?: string } })?.cause ?? error
-  return (cause as { code?: string })?.code === 'ER_DUP_ENTRY'
 }
 
 export async function listUsers(): Promise<PublicUser[]> {

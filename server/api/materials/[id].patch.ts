@@ -1,0 +1,9 @@
+import { materialPatchSchema } from '../../../shared/schemas/material'
+import { LIBRARY_EDIT_ROLES } from '../../../shared/library'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, LIBRARY_EDIT_ROLES)
+  const { id } = await paramsValid(event, libraryIdParams)
+  const patch = await readValid(event, materialPatchSchema)
+  return await updateMaterial(id, patch, user.id)
+})

@@ -1,0 +1,5 @@
+// Every signed-in role reads the library: operators and QA see what plans were built on.
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  return await listMaterials()
+})

@@ -1,0 +1,9 @@
+import { materialInputSchema } from '../../../shared/schemas/material'
+import { LIBRARY_EDIT_ROLES } from '../../../shared/library'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, LIBRARY_EDIT_ROLES)
+  const input = await readValid(event, materialInputSchema)
+  setResponseStatus(event, 201)
+  return await createMaterial(input, user.id)
+})

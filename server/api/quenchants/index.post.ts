@@ -1,0 +1,9 @@
+import { quenchantInputSchema } from '../../../shared/schemas/quenchant'
+import { LIBRARY_EDIT_ROLES } from '../../../shared/library'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, LIBRARY_EDIT_ROLES)
+  const input = await readValid(event, quenchantInputSchema)
+  setResponseStatus(event, 201)
+  return await createQuenchant(input, user.id)
+})
