@@ -1,11 +1,12 @@
-// Seeds the demo shop into DATABASE_URL when it has no users yet (npm run db:seed).
+// Seeds the demo shop into DATABASE_URL, each table only when it is empty (npm run db:seed).
 import { createDatabase, databaseUrl } from '../server/db/client'
 import { seedDemoData } from '../server/db/demo/seed'
 
 const { db, pool } = createDatabase(databaseUrl())
 try {
   const seeded = await seedDemoData(db)
-  console.log(seeded ? '[seed] demo shop created' : '[seed] users exist already; demo data left alone')
+  const parts = Object.entries(seeded).filter(([, total]) => total > 0).map(([table, total]) => `${total} ${table}`)
+  console.log(parts.length ? `[seed] demo shop: added ${parts.join(', ')}` : '[seed] every demo table has rows already; left alone')
 } finally {
   await pool.end()
 }
