@@ -13,10 +13,10 @@ afterAll(async () => {
 })
 
 const expectedNavigation: Record<Role, string[]> = {
-  admin: ['Shift overview', 'People', 'Audit trail'],
-  metallurgist: ['Shift overview'],
-  operator: ['Shift overview'],
-  qa: ['Shift overview', 'Audit trail'],
+  admin: ['Shift overview', 'Materials', 'Quench media', 'People', 'Audit trail'],
+  metallurgist: ['Shift overview', 'Materials', 'Quench media'],
+  operator: ['Shift overview', 'Materials', 'Quench media'],
+  qa: ['Shift overview', 'Materials', 'Quench media', 'Audit trail'],
 }
 
 describe('the signed-in shell', () => {
