@@ -1,0 +1,6 @@
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ['metallurgist', 'admin'])
+  const { id } = await paramsValid(event, PlanIdParams)
+  setResponseStatus(event, 201)
+  return await duplicatePlan(id, user.id)
+})

@@ -1,0 +1,5 @@
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  const { id } = await paramsValid(event, PlanIdParams)
+  return await getPlan(id)
+})

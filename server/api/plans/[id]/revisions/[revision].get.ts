@@ -1,0 +1,5 @@
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  const { id, revision } = await paramsValid(event, PlanRevisionParams)
+  return await getPlan(id, revision)
+})

@@ -1,0 +1,8 @@
+import { planSpecSchema } from '../../../shared/schemas/plan'
+
+// Re-solves the quench with finite differences and returns the largest difference from the series.
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  const spec = await readValid(event, planSpecSchema)
+  return await checkSpec(spec)
+})

@@ -1,0 +1,5 @@
+// The materials and quenchants a plan can use, with the values the editor shows beside them.
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  return await planLibraryOptions()
+})

@@ -1,0 +1,8 @@
+import { planSpecSchema } from '../../../shared/schemas/plan'
+
+// Computes without saving: the editor calls this (debounced) as inputs change. Any role may look.
+export default defineEventHandler(async (event) => {
+  await requireRole(event)
+  const spec = await readValid(event, planSpecSchema)
+  return await previewPlan(spec)
+})

@@ -1,0 +1,221 @@
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import { z } from 'zod'
+import type { Database, Transaction } from '../db/client'
+import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
+import { CaseError } from '../thermal/caseSchema'
+import { checkPlan, computePlan } from '../planning/computePlan'
+import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
+import type { PlanSummary } from '../../shared/types/plan'
+import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
+import { recordAudit } from './audit'
+
+const planId = z.coerce.number({ message: 'Plan id must be a number' }).int().positive('Plan id must be positive')
+/** Path parameters of the /api/plans/[id] routes. */
+export const PlanIdParams = z.object({ id: planId })
+export const PlanRevisionParams = z.object({ id: planId, revision: z.coerce.number({ message: 'Revision must be a number' }).int().positive('Revision must be positive') })
+
+function badReference(field: string, message: string): never {
+  throw createError({ statusCode: 400, statusMessage: 'Invalid request body', message: `${field}: ${message}`, data: { problems: [{ field, message }] } })
+}
+
+/** Copies the current library values the spec refers to into it (what a revision stores). */
+export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = useDb()): Promise<ResolvedPlan> {
+  const [material] = await db.select().from(materials).where(eq(materials.id, spec.materialId))
+  if (!material) badReference('materialId', `No material with id ${spec.materialId} in the library`)
+  const ids = [...new Set(spec.stages.map((s) => s.quenchantId))]
+  const rows = await db.select().from(quenchants).where(inArray(quenchants.id, ids))
+  spec.stages.forEach((s, i) => {
+    if (!rows.some((q) => q.id === s.quenchantId)) badReference(`stages.${i}.quenchantId`, `No quenchant with id ${s.quenchantId} in the library`)
+  })
+  return {
+    ...spec,
+    library: {
+      material: {
+        id: material.id,
+        name: material.name,
+        k_W_mK: material.k_W_mK,
+        density_kg_m3: material.density_kg_m3,
+        specificHeat_J_kgK: material.specificHeat_J_kgK,
+        gradedProfile: material.gradedProfile ?? null,
+        source: material.source,
+      },
+      quenchants: rows.map((q) => ({
+        id: q.id,
+        name: q.name,
+        kind: q.kind,
+        hLow_W_m2K: q.hLow_W_m2K,
+        hTypical_W_m2K: q.hTypical_W_m2K,
+        hHigh_W_m2K: q.hHigh_W_m2K,
+        bath_C: q.bath_C,
+        source: q.source,
+      })),
+    },
+  }
+}
+
+/** Engine refusals (CaseError) are 422 naming the plan field; anything else is a real failure. */
+function engine<T>(run: () => T): T {
+  try {
+    return run()
+  } catch (error) {
+    if (error instanceof CaseError) {
+      const message = error.message.replace(/^[^:]*: /, '')
+      throw createError({
+        statusCode: 422,
+        statusMessage: 'This plan cannot be computed',
+        message: `${error.field}: ${message}`,
+        data: { problems: [{ field: error.field, message }] },
+      })
+    }
+    throw error
+  }
+}
+
+export const computeResolved = (plan: ResolvedPlan): PlanResult => engine(() => computePlan(plan))
+export const checkResolved = (plan: ResolvedPlan): PlanCheckResult => engine(() => checkPlan(plan))
+
+export async function previewPlan(spec: PlanSpec): Promise<PlanResult> {
+  return computeResolved(await resolvePlan(spec))
+}
+
+export async function checkSpec(spec: PlanSpec): Promise<PlanCheckResult> {
+  return checkResolved(await resolvePlan(spec))
+}
+
+function storedPlan(spec: unknown): ResolvedPlan {
+  return resolvedPlanSchema.parse(spec)
+}
+
+export async function listPlans(): Promise<PlanListItem[]> {
+  const rows = await useDb()
+    .select({ plan: plans, spec: planRevisions.spec, summary: planRevisions.summary })
+    .from(plans)
+    .innerJoin(planRevisions, and(eq(planRevisions.planId, plans.id), eq(planRevisions.revision, plans.latestRevision)))
+    .where(eq(plans.archived, false))
+    .orderBy(desc(plans.updatedAt))
+  return rows.map(({ plan, spec, summary }) => {
+    const s = spec as Partial<ResolvedPlan>
+    const sum = summary as PlanSummary | null
+    return {
+      id: plan.id,
+      name: plan.name,
+      latestRevision: plan.latestRevision,
+      shape: PART_SHAPES.includes(s.part?.shape as never) ? (s.part!.shape as PlanListItem['shape']) : 'plate',
+      materialName: s.library?.material.name ?? '',
+      quenchToHandling_s: sum?.quenchToHandling_s ?? null,
+      soakTotal_s: sum?.soak?.total_s ?? null,
+      handling_C: sum?.handling_C ?? null,
+      updatedAt: plan.updatedAt.toISOString(),
+    }
+  })
+}
+
+async function insertRevision(tx: Transaction, planId: number, revision: number, plan: ResolvedPlan, note: string | null, actorId: number) {
+  const result = computeResolved(plan)
+  await tx.insert(planRevisions).values({
+    planId,
+    revision,
+    spec: plan as unknown as Record<string, unknown>,
+    summary: result.summary as unknown as Record<string, unknown>,
+    note,
+    createdBy: actorId,
+  })
+  return result
+}
+
+export async function createPlan(spec: PlanSpec, actorId: number, note: string | null = null): Promise<PlanDetail> {
+  const resolved = await resolvePlan(spec)
+  return await createFromResolved(resolved, actorId, note, 'plan.create')
+}
+
+async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}): Promise<PlanDetail> {
+  const id = await useDb().transaction(async (tx) => {
+    const [{ id }] = await tx.insert(plans).values({ name: resolved.name, latestRevision: 1, createdBy: actorId }).$returningId()
+    const result = await insertRevision(tx, id, 1, resolved, note, actorId)
+    await recordAudit(tx, {
+      actorId,
+      action,
+      entityType: 'plan',
+      entityId: id,
+      details: { name: resolved.name, revision: 1, quenchToHandling_s: result.summary.quenchToHandling_s, ...details },
+    })
+    return id
+  })
+  return await getPlan(id)
+}
+
+/** An edit is a new revision; earlier revisions are never touched. */
+export async function addRevision(id: number, spec: PlanSpec, note: string | null, actorId: number): Promise<PlanDetail> {
+  const resolved = await resolvePlan(spec)
+  await useDb().transaction(async (tx) => {
+    const [plan] = await tx.select().from(plans).where(eq(plans.id, id)).for('update')
+    if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
+    const revision = plan.latestRevision + 1
+    const result = await insertRevision(tx, id, revision, resolved, note, actorId)
+    await tx.update(plans).set({ name: resolved.name, latestRevision: revision }).where(eq(plans.id, id))
+    await recordAudit(tx, {
+      actorId,
+      action: 'plan.revise',
+      entityType: 'plan',
+      entityId: id,
+      details: { revision, name: resolved.name, quenchToHandling_s: result.summary.quenchToHandling_s, from: plan.latestRevision },
+    })
+  })
+  return await getPlan(id)
+}
+
+/** A copy from the latest revision's stored values (not today's library), so it computes the same. */
+export async function duplicatePlan(id: number, actorId: number): Promise<PlanDetail> {
+  const source = await getPlan(id)
+  const name = `Copy of ${source.name}`.slice(0, 160)
+  return await createFromResolved({ ...source.spec, name }, actorId, `Duplicated from plan ${id} revision ${source.revision}`, 'plan.duplicate', {
+    sourcePlanId: id,
+    sourceRevision: source.revision,
+  })
+}
+
+/** The given revision (default: latest) with its freshly computed result and the revision list. */
+export async function getPlan(id: number, revision?: number): Promise<PlanDetail> {
+  const db = useDb()
+  const [plan] = await db.select().from(plans).where(eq(plans.id, id))
+  if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
+  const revisions = await db
+    .select({ revision: planRevisions.revision, note: planRevisions.note, createdAt: planRevisions.createdAt, summary: planRevisions.summary, spec: planRevisions.spec, createdBy: users.displayName })
+    .from(planRevisions)
+    .leftJoin(users, eq(users.id, planRevisions.createdBy))
+    .where(eq(planRevisions.planId, id))
+    .orderBy(desc(planRevisions.revision))
+  const wanted = revision ?? plan.latestRevision
+  const row = revisions.find((r) => r.revision === wanted)
+  if (!row) throw createError({ statusCode: 404, statusMessage: 'Revision not found' })
+  const spec = storedPlan(row.spec)
+  return {
+    id: plan.id,
+    name: plan.name,
+    latestRevision: plan.latestRevision,
+    revision: row.revision,
+    note: row.note,
+    spec,
+    result: computeResolved(spec),
+    revisions: revisions.map((r) => ({
+      revision: r.revision,
+      note: r.note,
+      createdAt: r.createdAt.toISOString(),
+      createdBy: r.createdBy,
+      quenchToHandling_s: (r.summary as PlanSummary | null)?.quenchToHandling_s ?? null,
+    })),
+  }
+}
+
+/** Materials and quenchants the editor may choose from (the planner's view of the library). */
+export async function planLibraryOptions() {
+  const db = useDb()
+  const [materialRows, quenchantRows] = await Promise.all([
+    db.select({ id: materials.id, name: materials.name, k_W_mK: materials.k_W_mK, density_kg_m3: materials.density_kg_m3, specificHeat_J_kgK: materials.specificHeat_J_kgK, gradedProfile: materials.gradedProfile }).from(materials).orderBy(materials.name),
+    db.select({ id: quenchants.id, name: quenchants.name, kind: quenchants.kind, hLow_W_m2K: quenchants.hLow_W_m2K, hTypical_W_m2K: quenchants.hTypical_W_m2K, hHigh_W_m2K: quenchants.hHigh_W_m2K, bath_C: quenchants.bath_C }).from(quenchants).orderBy(quenchants.name),
+  ])
+  return {
+    materials: materialRows.map(({ gradedProfile, ...m }) => ({ ...m, graded: !!gradedProfile })),
+    quenchants: quenchantRows,
+  }
+}
