@@ -1,0 +1,264 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import bessel from 'bessel'
+import { runCase } from '../../server/thermal/runCase'
+import { productTimeToCentre } from '../../server/thermal/productSolutions'
+import { pointValue } from '../../shared/pointSeries'
+import { anonymous, signInDemo, type Client } from '../support/http'
+import { createLibraryFixture, withTestDb, type LibraryFixture } from '../support/library'
+
+let metallurgist: Client
+let lib: LibraryFixture
+
+beforeAll(async () => {
+  metallurgist = await signInDemo('metallurgist')
+  lib = await createLibraryFixture()
+})
+
+/** A 40 mm bar from 850 °C: 60 s in oil, then still air until the centre is below 100 °C; soak at 850 °C. */
+function barSpec(diameter_m = 0.04) {
+  return {
+    name: `Bar ${diameter_m * 1000} mm oil then air`,
+    part: { shape: 'round-bar', diameter_m },
+    materialId: lib.steelId,
+    start_C: 850,
+    stages: [{ quenchantId: lib.oilId, duration_s: 60 }, { quenchantId: lib.airId }],
+    handling: { below_C: 100 },
+    soak: { furnace_C: 850, tolerance_K: 10, minimumSoak_s: 1800 },
+  }
+}
+
+/** The same bar written directly as an engine case, by hand (radius = half the diameter). */
+function barCase(diameter_m: number, hOil: number, hAir: number) {
+  const { steel, oil, air } = lib.values
+  return {
+    geometry: 'rod',
+    size_m: diameter_m / 2,
+    material: { k: steel.k, rho: steel.rho, cp: steel.cp },
+    initial_C: 850,
+    stages: [
+      { surface: { h: hOil, ambient_C: oil.bath_C }, duration_s: 60 },
+      { surface: { h: hAir, ambient_C: air.bath_C } },
+    ],
+    target: { at: 'centre', below_C: 100 },
+  }
+}
+
+function bisect(f: (x: number) => number, a: number, b: number): number {
+  let fa = f(a)
+  for (let i = 0; i < 200; i++) {
+    const c = 0.5 * (a + b)
+    const fc = f(c)
+    if (Math.sign(fc) === Math.sign(fa)) {
+      a = c
+      fa = fc
+    } else b = c
+  }
+  return 0.5 * (a + b)
+}
+
+describe('plans: compute and save', () => {
+  let created: any
+
+  it('creates a plan whose quench-to-handling time is runCase on the equivalent case, and the same bar low/high at the quenchant spread', async () => {
+    const response = await metallurgist.request('/api/plans', { method: 'POST', body: barSpec() })
+    expect(response.status).toBe(201)
+    created = response.body
+    expect(created.revision).toBe(1)
+    const { oil, air } = lib.values
+    // Source: the engine itself, called directly on a hand-written case.
+    const direct = runCase(barCase(0.04, oil.h, air.h)).targetTime_s as number
+    expect(created.result.quenchToHandling_s).toBeCloseTo(direct, 6)
+    expect(created.result.band.low.quenchToHandling_s).toBeCloseTo(runCase(barCase(0.04, oil.hLow, air.hLow)).targetTime_s as number, 6)
+    expect(created.result.band.high.quenchToHandling_s).toBeCloseTo(runCase(barCase(0.04, oil.hHigh, air.hHigh)).targetTime_s as number, 6)
+    expect(created.result.band.low.quenchToHandling_s).toBeGreaterThan(direct)
+    expect(created.result.band.high.quenchToHandling_s).toBeLessThan(direct)
+    // PlanSummary contract: the stored series reads the handling temperature at the handling time.
+    const summary = created.result.summary
+    expect(summary.quenchToHandling_s).toBe(created.result.quenchToHandling_s)
+    expect(summary.handling_C).toBe(100)
+    expect(pointValue(summary.handlingPointSeries, summary.quenchToHandling_s)).toBeCloseTo(100, 6)
+    // The saved spec carries the library values it was computed with.
+    expect(created.spec.library.material).toMatchObject({ id: lib.steelId, k_W_mK: 40, density_kg_m3: 7850, specificHeat_J_kgK: 475 })
+    expect(created.spec.library.quenchants.map((q: { id: number }) => q.id).sort()).toEqual([lib.oilId, lib.airId].sort())
+  })
+
+  it('soak heat-up matches the one-term rod solution with the radiation-plus-convection furnace coefficient', () => {
+    // Incropera et al., Fundamentals of Heat and Mass Transfer, eq. 1.9 (linearised radiation)
+    // and §5.6.2 eqs. 5.49–5.52 (one-term infinite cylinder, exact here: Fo ≫ 0.2).
+    const Tf = 850 + 273.15
+    const Ts = (850 + 20) / 2 + 273.15
+    const h = 10 + 0.8 * 5.670374419e-8 * (Tf * Tf + Ts * Ts) * (Tf + Ts)
+    const { k, rho, cp } = lib.values.steel
+    const R = 0.02
+    const bi = (h * R) / k
+    const J = (x: number, n: number) => bessel.besselj(x, n)
+    const zeta = bisect((z) => z * J(z, 1) - bi * J(z, 0), 1e-9, 2.404825557695773)
+    const C1 = ((2 / zeta) * J(zeta, 1)) / (J(zeta, 0) ** 2 + J(zeta, 1) ** 2)
+    const theta = (840 - 850) / (20 - 850)
+    const fo = -Math.log(theta / C1) / (zeta * zeta)
+    const expected = (fo * R * R * rho * cp) / k
+    const soak = created.result.soak
+    expect(soak.furnaceHFrom).toBe('common-practice')
+    expect(soak.furnaceH_W_m2K).toBeCloseTo(h, 9)
+    expect(soak.heatUp_s / expected - 1).toBeLessThan(1e-6)
+    expect(soak.heatUp_s / expected - 1).toBeGreaterThan(-1e-6)
+    expect(soak.total_s).toBeCloseTo(soak.heatUp_s + 1800, 6)
+    expect(created.result.summary.soak).toEqual({ furnace_C: 850, heatUp_s: soak.heatUp_s, minimumSoak_s: 1800, total_s: soak.total_s })
+  })
+
+  it('reports Biot numbers h·R/k and h·(V/A)/k per stage, and Fo = αt/R² at the handling time', () => {
+    // Closed forms: V/A of a long bar is D/4 (ends ignored).
+    const [oilStage, airStage] = created.result.stages
+    expect(oilStage.biot).toBeCloseTo((800 * 0.02) / 40, 12)
+    expect(oilStage.biotLumped).toBeCloseTo((800 * 0.01) / 40, 12)
+    expect(airStage.biot).toBeCloseTo((15 * 0.02) / 40, 12)
+    const alpha = 40 / (7850 * 475)
+    expect(created.result.fourierAtHandling).toBeCloseTo((alpha * created.result.quenchToHandling_s) / 0.02 ** 2, 9)
+    expect(created.result.oneTermValid).toBe(true)
+    expect(oilStage.modes[0].timeConstant_s).toBeCloseTo(1 / oilStage.modes[0].decayRate_per_s, 9)
+  })
+
+  it('an edit is a new revision; the first stays retrievable with its own result; a thicker bar is slower', async () => {
+    const revised = await metallurgist.request(`/api/plans/${created.id}/revisions`, { method: 'POST', body: { ...barSpec(0.05), note: 'Thicker stock' } })
+    expect(revised.status).toBe(201)
+    expect(revised.body.revision).toBe(2)
+    expect(revised.body.note).toBe('Thicker stock')
+    expect(revised.body.result.quenchToHandling_s).toBeCloseTo(runCase(barCase(0.05, 800, 15)).targetTime_s as number, 6)
+    expect(revised.body.result.quenchToHandling_s).toBeGreaterThan(created.result.quenchToHandling_s)
+    expect(revised.body.revisions.map((r: { revision: number }) => r.revision)).toEqual([2, 1])
+
+    const first = await metallurgist.request(`/api/plans/${created.id}/revisions/1`)
+    expect(first.status).toBe(200)
+    expect(first.body.spec.part.diameter_m).toBe(0.04)
+    expect(first.body.result.quenchToHandling_s).toBeCloseTo(created.result.quenchToHandling_s, 9)
+    const latest = await metallurgist.request(`/api/plans/${created.id}`)
+    expect(latest.body.revision).toBe(2)
+    expect((await metallurgist.request(`/api/plans/${created.id}/revisions/9`)).status).toBe(404)
+  })
+
+  it('a saved revision recomputes from its copied values after the library row changes', async () => {
+    await withTestDb((db) => db.execute('UPDATE materials SET k_w_mk = 20 WHERE id = ?', [lib.steelId]))
+    try {
+      const first = await metallurgist.request(`/api/plans/${created.id}/revisions/1`)
+      expect(first.body.result.quenchToHandling_s).toBeCloseTo(created.result.quenchToHandling_s, 9)
+    } finally {
+      await withTestDb((db) => db.execute('UPDATE materials SET k_w_mk = 40 WHERE id = ?', [lib.steelId]))
+    }
+  })
+
+  it('duplicates from the stored values and lists plans with headline times', async () => {
+    const copy = await metallurgist.request(`/api/plans/${created.id}/duplicate`, { method: 'POST' })
+    expect(copy.status).toBe(201)
+    expect(copy.body.id).not.toBe(created.id)
+    expect(copy.body.name).toBe(`Copy of ${barSpec(0.05).name}`)
+    expect(copy.body.spec.part.diameter_m).toBe(0.05)
+    const list = await metallurgist.request('/api/plans')
+    const row = list.body.find((p: { id: number }) => p.id === created.id)
+    expect(row).toMatchObject({ latestRevision: 2, shape: 'round-bar', handling_C: 100 })
+    expect(row.quenchToHandling_s).toBeGreaterThan(created.result.quenchToHandling_s)
+  })
+
+  it('every write is in the audit trail', async () => {
+    const audit = await (await signInDemo('admin')).request('/api/audit?entityType=plan&limit=100')
+    const actions = audit.body.filter((e: { entityId: string }) => e.entityId === String(created.id)).map((e: { action: string }) => e.action)
+    expect(actions).toEqual(expect.arrayContaining(['plan.create', 'plan.revise']))
+  })
+
+  it('exports the curve as CSV with units in the header', async () => {
+    const plan = await metallurgist.request(`/api/plans/${created.id}/revisions/1`)
+    const csv = await metallurgist.request(`/api/plans/${created.id}/curve.csv?revision=1`)
+    expect(csv.status).toBe(200)
+    const lines = (csv.body as string).trim().split('\r\n')
+    expect(lines[0]).toBe('time (s),centre (°C),surface (°C),mean (°C),handling point at low coefficients (°C),handling point at high coefficients (°C)')
+    expect(lines.length).toBe(plan.body.result.curve.t_s.length + 1)
+    expect(lines[1]!.split(',').map(Number)).toEqual([0, 850, 850, 850, 850, 850])
+    const i = 300
+    const cells = lines[i + 1]!.split(',').map(Number)
+    expect(cells[0]).toBeCloseTo(plan.body.result.curve.t_s[i], 3)
+    expect(cells[1]).toBeCloseTo(plan.body.result.curve.centre_C[i], 3)
+    const fahrenheit = await metallurgist.request(`/api/plans/${created.id}/curve.csv?revision=1&temperature=F`)
+    // 850 °C = 1562 °F (°F = °C × 9/5 + 32).
+    expect((fahrenheit.body as string).split('\r\n')[1]).toBe('0.000,1562.000,1562.000,1562.000,1562.000,1562.000')
+  })
+
+  it('the finite-difference check agrees with the series to well under a kelvin', async () => {
+    const check = await metallurgist.request('/api/plans/check', { method: 'POST', body: barSpec() })
+    expect(check.status).toBe(200)
+    expect(check.body.maxDifference_K).toBeGreaterThan(0)
+    expect(check.body.maxDifference_K).toBeLessThan(0.05)
+  })
+})
+
+describe('plans: refusals', () => {
+  it.each([
+    ['part.diameter_m', (s: any) => ({ ...s, part: { shape: 'round-bar', diameter_m: -0.04 } })],
+    ['part.shape', (s: any) => ({ ...s, part: { shape: 'cone', diameter_m: 0.04 } })],
+    ['stages.0.duration_s', (s: any) => ({ ...s, stages: [{ quenchantId: s.stages[0].quenchantId }, s.stages[1]] })],
+    ['handling.below_C', (s: any) => ({ ...s, handling: { below_C: 900 } })],
+    ['soak.tolerance_K', (s: any) => ({ ...s, soak: { ...s.soak, tolerance_K: -1 } })],
+    ['materialId', (s: any) => ({ ...s, materialId: 999999 })],
+    ['stages.1.quenchantId', (s: any) => ({ ...s, stages: [s.stages[0], { quenchantId: 999999 }] })],
+  ])('400 naming %s', async (field, change) => {
+    for (const path of ['/api/plans', '/api/plans/preview']) {
+      const response = await metallurgist.request(path, { method: 'POST', body: change(barSpec()) })
+      expect(response.status, path).toBe(400)
+      expect(response.body.data.problems.map((p: { field: string }) => p.field)).toContain(field)
+    }
+  })
+
+  it('422 naming handling.below_C when nothing in the quench is that cold', async () => {
+    const response = await metallurgist.request('/api/plans/preview', { method: 'POST', body: { ...barSpec(), handling: { below_C: 20 } } })
+    expect(response.status).toBe(422)
+    expect(response.body.data.problems[0].field).toBe('handling.below_C')
+  })
+
+  it('422 naming stages for a short cylinder quenched in baths of different temperatures', async () => {
+    const response = await metallurgist.request('/api/plans/preview', { method: 'POST', body: { ...barSpec(), part: { shape: 'cylinder', diameter_m: 0.04, length_m: 0.1 } } })
+    expect(response.status).toBe(422)
+    expect(response.body.data.problems[0].field).toBe('stages')
+  })
+
+  it('operators and QA read plans but get 403 on every write; signed out is 401', async () => {
+    const plan = (await metallurgist.request('/api/plans', { method: 'POST', body: barSpec() })).body
+    for (const role of ['operator', 'qa'] as const) {
+      const client = await signInDemo(role)
+      expect((await client.request(`/api/plans/${plan.id}`)).status).toBe(200)
+      expect((await client.request('/api/plans', { method: 'POST', body: barSpec() })).status).toBe(403)
+      expect((await client.request(`/api/plans/${plan.id}/revisions`, { method: 'POST', body: barSpec() })).status).toBe(403)
+      expect((await client.request(`/api/plans/${plan.id}/duplicate`, { method: 'POST' })).status).toBe(403)
+    }
+    expect((await anonymous().request('/api/plans')).status).toBe(401)
+    expect((await metallurgist.request('/api/plans/999999')).status).toBe(404)
+  })
+})
+
+describe('plans: short cylinder by product solutions', () => {
+  it('a 40 × 100 mm cylinder in 25 °C oil then 25 °C air cools faster than the 40 mm bar and its series meets the handling temperature', async () => {
+    const spec = {
+      ...barSpec(),
+      name: 'Short cylinder',
+      part: { shape: 'cylinder', diameter_m: 0.04, length_m: 0.1 },
+      stages: [{ quenchantId: lib.oil25Id, duration_s: 60 }, { quenchantId: lib.airId }],
+    }
+    const cylinder = await metallurgist.request('/api/plans/preview', { method: 'POST', body: spec })
+    expect(cylinder.status).toBe(200)
+    const bar = await metallurgist.request('/api/plans/preview', { method: 'POST', body: { ...spec, part: { shape: 'round-bar', diameter_m: 0.04 } } })
+    // The ends add cooling surface: the short cylinder must be quicker than the infinite bar.
+    expect(cylinder.body.quenchToHandling_s).toBeLessThan(bar.body.quenchToHandling_s)
+    expect(cylinder.body.method).toBe('product')
+    expect(pointValue(cylinder.body.summary.handlingPointSeries, cylinder.body.quenchToHandling_s)).toBeCloseTo(100, 1)
+  })
+
+  it('one stage: the centre time equals the engine\'s own short-cylinder product solution', async () => {
+    // Source: productTimeToCentre (Carslaw & Jaeger §1.15 product of the rod and slab series), a separate code path.
+    const spec = { ...barSpec(), name: 'Short cylinder, oil only', part: { shape: 'cylinder', diameter_m: 0.04, length_m: 0.1 }, stages: [{ quenchantId: lib.oil25Id }] }
+    const response = await metallurgist.request('/api/plans/preview', { method: 'POST', body: spec })
+    expect(response.status).toBe(200)
+    const expected = productTimeToCentre(
+      { body: { shape: 'cylinder', radius_m: 0.02, halfLength_m: 0.05 }, k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
+      100,
+    )
+    expect(response.body.quenchToHandling_s / expected - 1).toBeLessThan(1e-6)
+    expect(response.body.quenchToHandling_s / expected - 1).toBeGreaterThan(-1e-6)
+  })
+})
