@@ -64,6 +64,13 @@ interface Factors {
   factor: (d: number, point: 'centre' | 'surface' | 'mean', t: number) => number
 }
 
+/**
+ * Below this Fo a direction's centre has not felt its faces: its centre factor is 1 to
+ * 1e-50 (Carslaw & Jaeger §3.3, image solution), so its series need not be accurate
+ * earlier, which keeps the mode count (and the product's term count) bounded.
+ */
+const UNDISTURBED_FO = 0.002
+
 function solveFactors(input: ProductInput, earliest: (size_m: number) => number): Factors {
   const ambient_C = input.stages[0]!.ambient_C
   if (input.stages.some((s) => s.ambient_C !== ambient_C)) {
@@ -73,12 +80,17 @@ function solveFactors(input: ProductInput, earliest: (size_m: number) => number)
     )
   }
   const theta0 = input.initial_C - ambient_C
-  const solutions = input.body.directions.map((d) => solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m))), { earliest_s: earliest(d.size_m) }))
+  const alpha = input.material.k / (input.material.rho * input.material.cp)
+  const undisturbed_s = input.body.directions.map((d) => (UNDISTURBED_FO * d.size_m * d.size_m) / alpha)
+  const solutions = input.body.directions.map((d, i) =>
+    solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m))), { earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!) }),
+  )
   return {
     ambient_C,
     theta0,
     solutions,
-    factor: (d, point, t) => (t <= 0 ? 1 : (pointValue(solutions[d]!.pointSeries(point), t) - ambient_C) / theta0),
+    factor: (d, point, t) =>
+      t <= 0 || (point === 'centre' && t < undisturbed_s[d]!) ? 1 : (pointValue(solutions[d]!.pointSeries(point), t) - ambient_C) / theta0,
   }
 }
 
@@ -91,6 +103,7 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
   let factors = solveFactors(input, (L) => (0.05 * L * L) / alpha)
   let targetTime = crossing(factors, input, goal, shortest, alpha)
   const end_s = 1.25 * targetTime
+  farDirections(input, alpha, end_s)
   const firstSample = Math.min(end_s / CURVE_POINTS, ...(options.times_s ?? []).filter((t) => t > 0))
   factors = solveFactors(input, (L) => Math.min((0.05 * L * L) / alpha, firstSample))
   targetTime = crossing(factors, input, goal, shortest, alpha)
@@ -135,6 +148,20 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
     }),
     series: productSeries(factors, input.target.at, targetTime),
   }
+}
+
+/**
+ * A direction whose centre never feels its faces before the curve ends adds nothing at
+ * the centre but would need hundreds of modes for its early mean and face values: the
+ * part is then a plate (or round bar) for this purpose, and the planner says so.
+ */
+function farDirections(input: ProductInput, alpha: number, end_s: number): void {
+  input.body.directions.forEach((d) => {
+    if ((alpha * end_s) / (d.size_m * d.size_m) < UNDISTURBED_FO) {
+      const instead = input.body.directions.some((e) => e.geometry === 'rod') ? 'a round bar' : 'a plate'
+      throw new CaseError('part', `the ${d.label} is so large against the other sizes that its faces do not reach the centre before handling; plan this part as ${instead}`)
+    }
+  })
 }
 
 function stageStarts(input: ProductInput): number[] {

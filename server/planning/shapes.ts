@@ -32,8 +32,8 @@ export function engineBody(part: Part): EngineBody {
       return {
         kind: 'product',
         directions: [
-          { label: 'radial', geometry: 'rod', size_m: part.diameter_m / 2 },
-          { label: 'axial', geometry: 'slab', size_m: part.length_m / 2 },
+          { label: 'diameter', geometry: 'rod', size_m: part.diameter_m / 2 },
+          { label: 'length', geometry: 'slab', size_m: part.length_m / 2 },
         ],
       }
     case 'block':
