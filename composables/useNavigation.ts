@@ -9,6 +9,7 @@ export interface NavItem {
 // One list drives both the header and the page guard's idea of "home" per role.
 const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Shift overview', roles: [] },
+  { to: '/plans', label: 'Plans', roles: [] },
   { to: '/library/materials', label: 'Materials', roles: [] },
   { to: '/library/quenchants', label: 'Quench media', roles: [] },
   { to: '/admin/users', label: 'People', roles: ['admin'] },

@@ -13,10 +13,10 @@ afterAll(async () => {
 })
 
 const expectedNavigation: Record<Role, string[]> = {
-  admin: ['Shift overview', 'Materials', 'Quench media', 'People', 'Audit trail'],
-  metallurgist: ['Shift overview', 'Materials', 'Quench media'],
-  operator: ['Shift overview', 'Materials', 'Quench media'],
-  qa: ['Shift overview', 'Materials', 'Quench media', 'Audit trail'],
+  admin: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'People', 'Audit trail'],
+  metallurgist: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
+  operator: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
+  qa: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'Audit trail'],
 }
 
 describe('the signed-in shell', () => {

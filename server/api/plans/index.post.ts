@@ -1,8 +1,8 @@
-import { planSpecSchema } from '../../../shared/schemas/plan'
+import { planRevisionInputSchema } from '../../../shared/schemas/plan'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['metallurgist', 'admin'])
-  const spec = await readValid(event, planSpecSchema)
+  const { note, ...spec } = await readValid(event, planRevisionInputSchema)
   setResponseStatus(event, 201)
-  return await createPlan(spec, user.id)
+  return await createPlan(spec, user.id, note)
 })
