@@ -1,7 +1,9 @@
-import { boolean, datetime, double, index, int, json, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { boolean, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { ROLES } from '../../shared/roles'
 import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
+import { MAIL_RECIPIENT_KINDS } from '../../shared/schemas/mailRecipients'
+import { OUTBOX_STATUSES, type OutboxAttachment } from '../../shared/types/outbox'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -105,3 +107,45 @@ export type MaterialRow = typeof materials.$inferSelect
 export type QuenchantRow = typeof quenchants.$inferSelect
 export type PlanRow = typeof plans.$inferSelect
 export type PlanRevisionRow = typeof planRevisions.$inferSelect
+
+/**
+ * Durable mail outbox: a message is written in the same transaction as the change that
+ * causes it and sent later by the worker (server/outbox/worker.ts). `next_attempt_at`
+ * is both the retry schedule of a queued row and the lease expiry of a sending one.
+ */
+export const outboxMessages = mysqlTable(
+  'outbox_messages',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    dedupeKey: varchar('dedupe_key', { length: 190 }).notNull().unique(),
+    to: json('to_addresses').$type<string[]>().notNull(),
+    subject: varchar('subject', { length: 255 }).notNull(),
+    html: mediumtext('html').notNull(),
+    text: mediumtext('text').notNull(),
+    attachments: json('attachments').$type<OutboxAttachment[]>().notNull(),
+    status: mysqlEnum('status', OUTBOX_STATUSES).notNull().default('queued'),
+    attempts: int('attempts').notNull().default(0),
+    nextAttemptAt: datetime('next_attempt_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    /** Random token of the worker that holds the row while it is `sending`. */
+    claimToken: varchar('claim_token', { length: 36 }),
+    lastError: text('last_error'),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    sentAt: datetime('sent_at', { mode: 'date', fsp: 3 }),
+  },
+  (table) => [index('outbox_due_idx').on(table.status, table.nextAttemptAt)],
+)
+
+/**
+ * Who receives each kind of record mail. No row for a kind means its default: the
+ * active users of the kind's role (shared/schemas/mailRecipients.ts).
+ */
+export const mailRecipients = mysqlTable('mail_recipients', {
+  kind: mysqlEnum('kind', MAIL_RECIPIENT_KINDS).primaryKey(),
+  emails: json('emails').$type<string[]>().notNull(),
+  includeRoleDefault: boolean('include_role_default').notNull().default(true),
+  updatedBy: int('updated_by').references(() => users.id),
+  updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`).$onUpdate(() => new Date()),
+})
+
+export type OutboxMessageRow = typeof outboxMessages.$inferSelect
+export type MailRecipientRow = typeof mailRecipients.$inferSelect
