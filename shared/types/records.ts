@@ -1,0 +1,92 @@
+/**
+ * The data of one load's hold-time sheet: what the e-mailed HTML, the PDF and the
+ * curve CSV are rendered from (server/records/). Times in seconds, temperatures in °C,
+ * instants as ISO 8601 strings in UTC.
+ */
+
+/**
+ * Moments recorded for a load. Each is the instant the load entered that state;
+ * `furnace_opened` is the load leaving the furnace, which starts the quench delay.
+ */
+export const RECORD_EVENT_TYPES = ['charged', 'soaking', 'furnace_opened', 'quenched', 'cooling', 'ready_to_handle', 'released'] as const
+export type RecordEventType = (typeof RECORD_EVENT_TYPES)[number]
+
+export const RECORD_EVENT_LABELS: Record<RecordEventType, string> = {
+  charged: 'Charged into furnace',
+  soaking: 'Core at temperature, soak started',
+  furnace_opened: 'Load out of furnace',
+  quenched: 'In the quench',
+  cooling: 'Out of the quench, cooling',
+  ready_to_handle: 'Ready to handle',
+  released: 'Released',
+}
+
+/** A recorded event as the deviation rules need it. */
+export interface TimedEvent {
+  type: RecordEventType
+  at: string
+}
+
+/** A recorded event as the sheet shows it: also who recorded it. */
+export interface RecordEvent extends TimedEvent {
+  by: string
+  note?: string
+}
+
+/** The plan figures the deviation rules compare against. */
+export interface DeviationPlan {
+  /** Charge to core at temperature (predicted). Null when the plan does no soak planning. */
+  heatUp_s: number | null
+  /** Minimum soak once the core is at temperature. Null when the plan does no soak planning. */
+  minimumSoak_s: number | null
+  /** Longest allowed time from leaving the furnace to being in the quench. */
+  quenchDelayAllowance_s: number
+  /** Quench start to the handling point below the handling temperature (predicted). */
+  quenchToHandling_s: number
+}
+
+export const DEVIATION_RULES = ['quench_delay', 'early_release', 'short_soak'] as const
+export type DeviationRule = (typeof DEVIATION_RULES)[number]
+
+export interface Deviation {
+  rule: DeviationRule
+  /** The plan's limit: the allowance, the predicted handling time, or the planned soak. */
+  planned_s: number
+  /** What the recorded events give for the same span. */
+  actual_s: number
+  /** How far past the limit, always positive. */
+  excess_s: number
+  message: string
+}
+
+/** Spans measured from the recorded events; null where the events needed are missing. */
+export interface MeasuredTimes {
+  soak_s: number | null
+  quenchDelay_s: number | null
+  quenchToRelease_s: number | null
+}
+
+export interface CurvePoint {
+  /** Seconds from the start of the quench. */
+  t_s: number
+  T_C: number
+}
+
+export interface HoldTimeSheet {
+  shopName: string
+  loadNumber: string
+  part: { name: string; number: string; quantity: number; section: string }
+  material: string
+  furnace: string
+  quenchStation: string
+  quenchant: string
+  plan: { name: string; revision: number }
+  planned: DeviationPlan & { furnace_C: number; handling_C: number }
+  measured: MeasuredTimes
+  /** Predicted handling-point temperature after the quench starts. */
+  predictedCurve: CurvePoint[]
+  events: RecordEvent[]
+  deviations: Deviation[]
+  cautions: string[]
+  generatedAt: string
+}
