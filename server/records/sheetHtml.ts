@@ -1,0 +1,130 @@
+/**
+ * The hold-time sheet as an e-mail body. Mail clients drop <style> blocks and classes,
+ * so every style is inline and the layout is tables; colours are the app's palette.
+ */
+import { RECORD_EVENT_LABELS, type HoldTimeSheet } from '../../shared/types/records'
+import { formatInstant, formatSpan, formatTemperature } from './format'
+
+const INK_900 = '#131b24'
+const INK_600 = '#4a5a6b'
+const INK_200 = '#cbd3dc'
+const INK_50 = '#f5f7f9'
+const TEMPER_400 = '#f0a53a'
+const TEMPER_50 = '#fff6e8'
+const TEMPER_800 = '#7a420a'
+const BATH_800 = '#114c48'
+const BATH_50 = '#e9f7f6'
+const ALARM_50 = '#fdeeee'
+const ALARM_800 = '#6e1717'
+
+export function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+}
+
+const cell = `padding:6px 10px;border-bottom:1px solid ${INK_200};text-align:left;vertical-align:top;`
+const headCell = `${cell}font-size:11px;text-transform:uppercase;letter-spacing:0.04em;color:${INK_600};`
+
+function rows(pairs: [string, string][]): string {
+  return pairs
+    .map(([label, value]) => `<tr><th style="${headCell}width:38%;">${escapeHtml(label)}</th><td style="${cell}">${escapeHtml(value)}</td></tr>`)
+    .join('')
+}
+
+function section(title: string, body: string): string {
+  return `<h2 style="margin:24px 0 8px;font-size:16px;color:${INK_900};">${escapeHtml(title)}</h2>${body}`
+}
+
+const table = (inner: string) => `<table role="presentation" cellspacing="0" cellpadding="0" style="width:100%;border-collapse:collapse;font-size:14px;">${inner}</table>`
+
+const measuredOrDash = (s: number | null) => (s === null ? 'not recorded' : formatSpan(s))
+
+export function renderSheetHtml(sheet: HoldTimeSheet): string {
+  const { planned, measured } = sheet
+  const identity = table(rows([
+    ['Part', `${sheet.part.name} (${sheet.part.number}), ${sheet.part.quantity} pcs, ${sheet.part.section}`],
+    ['Material', sheet.material],
+    ['Furnace', `${sheet.furnace} at ${formatTemperature(planned.furnace_C)}`],
+    ['Quench', `${sheet.quenchStation}, ${sheet.quenchant}`],
+    ['Plan', `${sheet.plan.name}, revision ${sheet.plan.revision}`],
+  ]))
+
+  const times = table(
+    `<tr><th style="${headCell}">Span</th><th style="${headCell}">Planned</th><th style="${headCell}">Recorded</th></tr>` +
+      [
+        ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '—'],
+        ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, measuredOrDash(measured.soak_s)],
+        ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, measuredOrDash(measured.quenchDelay_s)],
+        [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), measuredOrDash(measured.quenchToRelease_s)],
+      ]
+        .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
+        .join(''),
+  )
+
+  const deviations = sheet.deviations.length
+    ? `<div style="background:${ALARM_50};border:1px solid #e26262;border-radius:6px;padding:10px 14px;color:${ALARM_800};font-size:14px;"><ul style="margin:0;padding-left:18px;">${sheet.deviations
+        .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
+        .join('')}</ul></div>`
+    : `<p style="background:${BATH_50};border-radius:6px;padding:10px 14px;color:${BATH_800};font-size:14px;margin:0;">No deviations from the plan.</p>`
+
+  const events = table(
+    `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
+      sheet.events
+        .map((event) => `<tr><td style="${cell}white-space:nowrap;">${escapeHtml(formatInstant(event.at))}</td><td style="${cell}">${escapeHtml(RECORD_EVENT_LABELS[event.type])}${event.note ? ` — ${escapeHtml(event.note)}` : ''}</td><td style="${cell}">${escapeHtml(event.by)}</td></tr>`)
+        .join(''),
+  )
+
+  const cautions = `<div style="background:${TEMPER_50};border-left:4px solid ${TEMPER_400};padding:10px 14px;color:${TEMPER_800};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions
+    .map((caution) => `<li>${escapeHtml(caution)}</li>`)
+    .join('')}</ul></div>`
+
+  const last = sheet.predictedCurve.at(-1)
+  const curveNote = last
+    ? `<p style="font-size:14px;color:${INK_600};margin:0;">${sheet.predictedCurve.length} predicted points from ${formatTemperature(sheet.predictedCurve[0]!.T_C)} at the quench to ${formatTemperature(last.T_C)} after ${formatSpan(last.t_s)}; the full curve is in the attached PDF and CSV.</p>`
+    : ''
+
+  return `<!doctype html><html lang="en"><body style="margin:0;padding:0;background:${INK_50};">
+<div style="max-width:680px;margin:0 auto;padding:24px;font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${INK_900};">
+<div style="background:${INK_900};color:#ffffff;border-radius:8px 8px 0 0;padding:14px 20px;border-bottom:3px solid ${TEMPER_400};">
+<div style="font-size:12px;letter-spacing:0.06em;text-transform:uppercase;color:${INK_200};">${escapeHtml(sheet.shopName)} · Hold-time sheet</div>
+<div style="font-size:22px;font-weight:600;margin-top:4px;">Load ${escapeHtml(sheet.loadNumber)}</div>
+</div>
+<div style="background:#ffffff;border:1px solid ${INK_200};border-top:0;border-radius:0 0 8px 8px;padding:8px 20px 20px;">
+${section('Load', identity)}
+${section('Times', times)}
+${section('Deviations', deviations)}
+${section('Predicted cooldown', curveNote)}
+${section('Events', events)}
+<div style="margin-top:24px;">${cautions}</div>
+</div>
+<p style="font-size:12px;color:${INK_600};margin:12px 4px;">Sent by Slakewise on ${escapeHtml(formatInstant(sheet.generatedAt))}. The PDF and the curve CSV are attached.</p>
+</div></body></html>`
+}
+
+/** The plain-text part of the same message, for clients that do not show HTML. */
+export function renderSheetText(sheet: HoldTimeSheet): string {
+  const { planned, measured } = sheet
+  const lines = [
+    `${sheet.shopName} · Hold-time sheet`,
+    `Load ${sheet.loadNumber}`,
+    '',
+    `Part: ${sheet.part.name} (${sheet.part.number}), ${sheet.part.quantity} pcs, ${sheet.part.section}`,
+    `Material: ${sheet.material}`,
+    `Furnace: ${sheet.furnace} at ${formatTemperature(planned.furnace_C)}`,
+    `Quench: ${sheet.quenchStation}, ${sheet.quenchant}`,
+    `Plan: ${sheet.plan.name}, revision ${sheet.plan.revision}`,
+    '',
+    `Soak: planned ${planned.minimumSoak_s === null ? 'n/a' : formatSpan(planned.minimumSoak_s)}, recorded ${measuredOrDash(measured.soak_s)}`,
+    `Quench delay: allowed ${formatSpan(planned.quenchDelayAllowance_s)}, recorded ${measuredOrDash(measured.quenchDelay_s)}`,
+    `Quench to handling: predicted ${formatSpan(planned.quenchToHandling_s)}, recorded ${measuredOrDash(measured.quenchToRelease_s)}`,
+    '',
+    'Deviations:',
+    ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),
+    '',
+    'Events:',
+    ...sheet.events.map((event) => `  ${formatInstant(event.at)}  ${RECORD_EVENT_LABELS[event.type]}  (${event.by})`),
+    '',
+    'Cautions:',
+    ...sheet.cautions.map((caution) => `  - ${caution}`),
+  ]
+  return lines.join('\n') + '\n'
+}

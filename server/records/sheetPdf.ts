@@ -1,0 +1,178 @@
+/**
+ * The hold-time sheet as a PDF (pdfkit, A4). Helvetica is one of the PDF standard
+ * fonts, so nothing is embedded; the app's own typeface ships only as WOFF, which
+ * pdfkit cannot read. The predicted curve is drawn with vector lines, not an image,
+ * so it stays sharp when printed and the file stays small.
+ */
+import PDFDocument from 'pdfkit'
+import { RECORD_EVENT_LABELS, type CurvePoint, type HoldTimeSheet } from '../../shared/types/records'
+import { formatInstant, formatSpan, formatTemperature } from './format'
+
+const INK_900 = '#131b24'
+const INK_600 = '#4a5a6b'
+const INK_200 = '#cbd3dc'
+const TEMPER_400 = '#f0a53a'
+const TEMPER_800 = '#7a420a'
+const BATH_600 = '#1d7f77'
+const ALARM_600 = '#b42828'
+
+const MARGIN = 50
+
+export interface PdfOptions {
+  /** Deflate the page streams (default). Off lets a test read the text operators directly. */
+  compress?: boolean
+}
+
+type Doc = InstanceType<typeof PDFDocument>
+
+function heading(doc: Doc, text: string) {
+  ensureRoom(doc, 60)
+  doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor(INK_900).text(text, MARGIN)
+  doc.moveDown(0.3)
+}
+
+function ensureRoom(doc: Doc, height: number) {
+  if (doc.y + height > doc.page.height - MARGIN) doc.addPage()
+}
+
+/** A simple ruled table: column widths in points, first row bold. */
+function drawTable(doc: Doc, widths: number[], rows: string[][]) {
+  const width = widths.reduce((a, b) => a + b, 0)
+  rows.forEach((row, index) => {
+    doc.font(index === 0 ? 'Helvetica-Bold' : 'Helvetica').fontSize(9)
+    const height = Math.max(...row.map((text, column) => doc.heightOfString(text, { width: widths[column]! - 8 }))) + 8
+    ensureRoom(doc, height)
+    const top = doc.y
+    let x = MARGIN
+    row.forEach((text, column) => {
+      doc.fillColor(index === 0 ? INK_600 : INK_900).text(text, x + 4, top + 4, { width: widths[column]! - 8 })
+      x += widths[column]!
+    })
+    doc.moveTo(MARGIN, top + height).lineTo(MARGIN + width, top + height).lineWidth(0.5).strokeColor(INK_200).stroke()
+    doc.x = MARGIN
+    doc.y = top + height
+  })
+}
+
+/** Round axis steps (1, 2 or 5 × 10^n) giving about `count` intervals. */
+function niceStep(span: number, count: number): number {
+  const raw = span / count
+  const power = 10 ** Math.floor(Math.log10(raw))
+  const fraction = raw / power
+  return (fraction <= 1 ? 1 : fraction <= 2 ? 2 : fraction <= 5 ? 5 : 10) * power
+}
+
+function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, quenchToHandling_s: number) {
+  const height = 200
+  ensureRoom(doc, height + 40)
+  const left = MARGIN + 40
+  const top = doc.y + 6
+  const width = doc.page.width - MARGIN - left
+  const tMax = Math.max(quenchToHandling_s, ...curve.map((p) => p.t_s))
+  const temps = [handling_C, ...curve.map((p) => p.T_C)]
+  const stepT = niceStep(Math.max(...temps) - Math.min(...temps) || 1, 5)
+  const TMin = Math.floor(Math.min(...temps) / stepT) * stepT
+  const TMax = Math.ceil(Math.max(...temps) / stepT) * stepT
+  const minutes = tMax / 60
+  const stepMin = niceStep(minutes || 1, 6)
+  const x = (t_s: number) => left + (t_s / 60 / (Math.ceil(minutes / stepMin) * stepMin)) * width
+  const y = (T_C: number) => top + height - ((T_C - TMin) / (TMax - TMin)) * height
+
+  doc.lineWidth(0.5).strokeColor(INK_200).font('Helvetica').fontSize(8).fillColor(INK_600)
+  for (let T = TMin; T <= TMax + 1e-9; T += stepT) {
+    doc.moveTo(left, y(T)).lineTo(left + width, y(T)).stroke()
+    doc.text(`${T.toFixed(0)}`, MARGIN, y(T) - 4, { width: 34, align: 'right' })
+  }
+  for (let m = 0; m <= Math.ceil(minutes / stepMin) * stepMin + 1e-9; m += stepMin) {
+    doc.moveTo(x(m * 60), top).lineTo(x(m * 60), top + height).stroke()
+    doc.text(`${Number(m.toPrecision(6))}`, x(m * 60) - 15, top + height + 4, { width: 30, align: 'center' })
+  }
+  doc.text('°C', MARGIN, top - 16, { width: 34, align: 'right' })
+  doc.text('minutes after the quench starts', left, top + height + 16, { width, align: 'center' })
+
+  // The handling temperature and the predicted handling time, dashed, so the reader sees where the curve crosses.
+  doc.lineWidth(1).strokeColor(BATH_600).dash(4, { space: 3 })
+  doc.moveTo(left, y(handling_C)).lineTo(left + width, y(handling_C)).stroke()
+  doc.moveTo(x(quenchToHandling_s), top).lineTo(x(quenchToHandling_s), top + height).stroke()
+  doc.undash()
+  doc.fillColor(BATH_600).text(`handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, x(quenchToHandling_s) + 4, y(handling_C) - 12)
+
+  if (curve.length > 1) {
+    doc.lineWidth(1.6).strokeColor(TEMPER_400).lineJoin('round')
+    doc.moveTo(x(curve[0]!.t_s), y(curve[0]!.T_C))
+    for (const point of curve.slice(1)) doc.lineTo(x(point.t_s), y(point.T_C))
+    doc.stroke()
+  }
+  doc.x = MARGIN
+  doc.y = top + height + 32
+}
+
+export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): Promise<Buffer> {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: MARGIN,
+    compress: options.compress ?? true,
+    info: { Title: `Hold-time sheet, load ${sheet.loadNumber}`, Author: sheet.shopName, Creator: 'Slakewise' },
+  })
+  const chunks: Buffer[] = []
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (chunk: Buffer) => chunks.push(chunk))
+    doc.on('end', () => resolve(Buffer.concat(chunks)))
+    doc.on('error', reject)
+  })
+  const contentWidth = doc.page.width - 2 * MARGIN
+  const { planned, measured } = sheet
+
+  doc.rect(0, 0, doc.page.width, 6).fill(TEMPER_400)
+  doc.font('Helvetica').fontSize(9).fillColor(INK_600).text(`${sheet.shopName} · Hold-time sheet`, MARGIN, MARGIN)
+  doc.font('Helvetica-Bold').fontSize(20).fillColor(INK_900).text(`Load ${sheet.loadNumber}`)
+  doc.font('Helvetica').fontSize(9).fillColor(INK_600).text(`Generated ${formatInstant(sheet.generatedAt)}`)
+
+  heading(doc, 'Load')
+  drawTable(doc, [150, contentWidth - 150], [
+    ['Item', 'Value'],
+    ['Part', `${sheet.part.name} (${sheet.part.number}), ${sheet.part.quantity} pcs, ${sheet.part.section}`],
+    ['Material', sheet.material],
+    ['Furnace', `${sheet.furnace} at ${formatTemperature(planned.furnace_C)}`],
+    ['Quench', `${sheet.quenchStation}, ${sheet.quenchant}`],
+    ['Plan', `${sheet.plan.name}, revision ${sheet.plan.revision}`],
+  ])
+
+  const recorded = (s: number | null) => (s === null ? 'not recorded' : formatSpan(s))
+  heading(doc, 'Times')
+  drawTable(doc, [contentWidth - 260, 130, 130], [
+    ['Span', 'Planned', 'Recorded'],
+    ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '-'],
+    ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, recorded(measured.soak_s)],
+    ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, recorded(measured.quenchDelay_s)],
+    [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), recorded(measured.quenchToRelease_s)],
+  ])
+
+  heading(doc, 'Deviations')
+  if (sheet.deviations.length === 0) {
+    doc.font('Helvetica').fontSize(10).fillColor(BATH_600).text('No deviations from the plan.')
+  } else {
+    doc.font('Helvetica').fontSize(10).fillColor(ALARM_600)
+    for (const deviation of sheet.deviations) doc.text(`•  ${deviation.message}`, { width: contentWidth })
+  }
+
+  heading(doc, 'Predicted handling-point temperature')
+  drawCurve(doc, sheet.predictedCurve, planned.handling_C, planned.quenchToHandling_s)
+
+  heading(doc, 'Events')
+  drawTable(doc, [130, contentWidth - 260, 130], [
+    ['When', 'What', 'Who'],
+    ...sheet.events.map((event) => [formatInstant(event.at), RECORD_EVENT_LABELS[event.type] + (event.note ? ` - ${event.note}` : ''), event.by]),
+  ])
+
+  heading(doc, 'Cautions')
+  doc.font('Helvetica').fontSize(9).fillColor(TEMPER_800)
+  for (const caution of sheet.cautions) {
+    ensureRoom(doc, 30)
+    doc.text(`•  ${caution}`, MARGIN, doc.y, { width: contentWidth })
+    doc.moveDown(0.3)
+  }
+
+  doc.end()
+  return done
+}
