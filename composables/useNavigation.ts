@@ -14,6 +14,8 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/library/quenchants', label: 'Quench media', roles: [] },
   { to: '/admin/users', label: 'People', roles: ['admin'] },
   { to: '/admin/audit', label: 'Audit trail', roles: ['admin', 'qa'] },
+  { to: '/admin/outbox', label: 'Outbox', roles: ['admin'] },
+  { to: '/admin/mail-recipients', label: 'Mail recipients', roles: ['admin'] },
 ]
 
 /** Navigation entries the signed-in user's role may open. */

@@ -13,7 +13,7 @@ afterAll(async () => {
 })
 
 const expectedNavigation: Record<Role, string[]> = {
-  admin: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'People', 'Audit trail'],
+  admin: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
   metallurgist: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
   operator: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
   qa: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'Audit trail'],
