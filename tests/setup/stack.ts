@@ -5,7 +5,8 @@
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
-import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_API, MAIL_SMTP_PORT, MAIL_WEB_PORT } from '../support/stackConfig'
+import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_SMTP_PORT } from '../support/stackConfig'
+import { startMailCatcher, stopMailCatcher } from '../support/mailCatcher'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 
@@ -40,11 +41,8 @@ async function startStack(): Promise<Stack> {
   run('npx', ['tsx', 'scripts/seed.ts'], env)
   run('bash', ['-c', 'source scripts/lib.sh && mkdir -p .data && build_if_stale'])
 
-  const mail = spawn(
-    'node_modules/.bin/maildev',
-    ['--smtp', String(MAIL_SMTP_PORT), '--ip', '127.0.0.1', '--web', String(MAIL_WEB_PORT), '--web-ip', '127.0.0.1'],
-    { cwd: root, stdio: 'ignore' },
-  )
+  // Detached and tracked by a pid file, so the outbox tests can stop and restart it.
+  await startMailCatcher()
   const server = spawn('node', ['.output/server/index.mjs'], {
     cwd: root,
     stdio: ['ignore', 'ignore', 'inherit'],
@@ -55,12 +53,15 @@ async function startStack(): Promise<Stack> {
       AUTH_ORIGIN: `${BASE_URL}/api/auth`,
       NUXT_AUTH_SECRET: AUTH_SECRET,
       SMTP_URL: `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
+      // A quick outbox so mail tests take seconds: poll every 0.3 s, retry after 0.3 s doubling to 1.5 s.
+      OUTBOX_POLL_MS: '300',
+      OUTBOX_RETRY_BASE_MS: '300',
+      OUTBOX_RETRY_MAX_MS: '1500',
       NODE_ENV: 'production',
     },
   })
-  await waitFor(`${MAIL_API}/api/healthz`, 'The mail catcher')
   await waitFor(`${BASE_URL}/api/health`, 'The Slakewise server')
-  return { users: 0, children: [server, mail] }
+  return { users: 0, children: [server] }
 }
 
 export async function setup() {
@@ -75,6 +76,7 @@ export async function teardown() {
   stack.users -= 1
   if (stack.users > 0) return
   for (const child of stack.children) child.kill('SIGTERM')
+  await stopMailCatcher()
   run('bash', ['scripts/db.sh', 'stop', 'test'])
   delete registry.__slakewiseStack
 }
