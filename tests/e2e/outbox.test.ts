@@ -36,7 +36,7 @@ describe('the outbox page', () => {
     expect(await row.getAttribute('data-status')).toBe('failed')
     expect(await row.getByTestId('last-error').textContent()).toMatch(/530/)
     expect(await row.textContent()).toContain('Hold-time sheet · Load KB-E2E-0001')
-    await page.screenshot({ path: `${SCREENSHOT_DIR}/outbox-failed.png`, fullPage: true })
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/outbox-failed.png` })
 
     await row.getByRole('button', { name: `Retry message ${id}` }).click()
     await page.getByRole('status').filter({ hasText: 'is queued to go out now' }).waitFor()
@@ -44,7 +44,7 @@ describe('the outbox page', () => {
 
     await page.getByRole('button', { name: 'Refresh' }).click()
     await page.locator(`tr[data-id="${id}"][data-status="sent"]`).waitFor()
-    await page.screenshot({ path: `${SCREENSHOT_DIR}/outbox-sent.png`, fullPage: true })
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/outbox-sent.png` })
     await page.context().close()
   })
 
