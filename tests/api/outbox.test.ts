@@ -11,10 +11,16 @@ import { escapeHtml } from '../../server/records/sheetHtml'
 import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
 
 let admin: Client
+/** Active users by role, sorted: the default recipients (other test files add people). */
+let activeByRole: Record<string, string[]>
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
 beforeAll(async () => {
   admin = await signInDemo('admin')
+  const people = (await admin.request('/api/users')).body as { email: string; role: string; active: boolean }[]
+  activeByRole = {}
+  for (const person of people.filter((p) => p.active)) (activeByRole[person.role] ??= []).push(person.email)
+  for (const list of Object.values(activeByRole)) list.sort()
 })
 
 async function outbox(query = 'limit=500') {
@@ -56,11 +62,13 @@ describe('role matrix for the outbox and recipients routes', () => {
 })
 
 describe('a hold-time sheet by e-mail', () => {
-  it('arrives exactly once, to the QA lead by default, with the PDF and the curve CSV', async () => {
+  it('arrives exactly once, to the active QA leads by default, with the PDF and the curve CSV', async () => {
     await clearCaughtMail()
     const first = await admin.request('/api/outbox/test-sheet', { method: 'POST', body: { loadNumber: 'KB-API-0001', dedupeKey: 'api-once' } })
     expect(first.status).toBe(201)
-    expect(first.body).toMatchObject({ created: true, to: ['qa@kestrelbay.example'], loadNumber: 'KB-API-0001', dedupeKey: 'test-sheet:api-once' })
+    expect(first.body).toMatchObject({ created: true, loadNumber: 'KB-API-0001', dedupeKey: 'test-sheet:api-once' })
+    expect([...first.body.to].sort()).toEqual(activeByRole.qa)
+    expect(activeByRole.qa).toContain('qa@kestrelbay.example')
 
     // The same dedupe key again (a retried request) queues nothing new.
     const again = await admin.request('/api/outbox/test-sheet', { method: 'POST', body: { loadNumber: 'KB-API-0001', dedupeKey: 'api-once' } })
@@ -69,7 +77,7 @@ describe('a hold-time sheet by e-mail', () => {
 
     const [mail] = await waitForMail((m) => m.subject.includes('KB-API-0001'), 1)
     expect(mail!.subject).toBe('Hold-time sheet · Load KB-API-0001 · Drive flange · 1 deviation')
-    expect(mail!.to.map((to) => to.address)).toEqual(['qa@kestrelbay.example'])
+    expect(mail!.to.map((to) => to.address).sort()).toEqual(activeByRole.qa)
     expect(mail!.html).toContain('Load KB-API-0001')
     expect(mail!.html).toContain('Quench delay 52 s, 22 s over the allowed 30 s')
     for (const caution of STANDARD_CAUTIONS) expect(mail!.html).toContain(escapeHtml(caution))
@@ -87,7 +95,8 @@ describe('a hold-time sheet by e-mail', () => {
     expect(csv.split('\r\n').slice(0, 3)).toEqual([CURVE_CSV_HEADER, '0.0,0.00,850.0', '30.0,0.50,790.0'])
 
     const row = (await outbox()).messages.find((message) => message.id === first.body.id)!
-    expect(row).toMatchObject({ status: 'sent', attempts: 1, lastError: null, to: ['qa@kestrelbay.example'] })
+    expect(row).toMatchObject({ status: 'sent', attempts: 1, lastError: null })
+    expect([...row.to].sort()).toEqual(activeByRole.qa)
     expect(row.attachments.map((file) => file.filename)).toEqual(['hold-time-sheet-KB-API-0001.pdf', 'cooldown-curve-KB-API-0001.csv'])
     expect(row.attachments[0]!.bytes).toBe(pdf.length)
 
@@ -175,10 +184,10 @@ describe('mail recipients', () => {
   it('defaults to the active users of each role', async () => {
     const response = await admin.request('/api/mail-recipients')
     expect(response.status).toBe(200)
-    expect(response.body.map((setting: { kind: string; defaultRole: string; effective: string[] }) => [setting.kind, setting.defaultRole, setting.effective])).toEqual([
-      ['released_sheet', 'qa', ['qa@kestrelbay.example']],
-      ['rejection', 'metallurgist', ['metallurgist@kestrelbay.example']],
-      ['daily_digest', 'qa', ['qa@kestrelbay.example']],
+    expect(response.body.map((setting: { kind: string; defaultRole: string; effective: string[] }) => [setting.kind, setting.defaultRole, [...setting.effective].sort()])).toEqual([
+      ['released_sheet', 'qa', activeByRole.qa],
+      ['rejection', 'metallurgist', activeByRole.metallurgist],
+      ['daily_digest', 'qa', activeByRole.qa],
     ])
   })
 
@@ -214,7 +223,7 @@ describe('mail recipients', () => {
     expect(mail!.to.map((to) => to.address).sort()).toEqual(['line2@kestrelbay.example', 'records@customer.example'])
 
     const restored = await admin.request('/api/mail-recipients/released_sheet', { method: 'PUT', body: { emails: [], includeRoleDefault: true } })
-    expect(restored.body.effective).toEqual(['qa@kestrelbay.example'])
+    expect([...restored.body.effective].sort()).toEqual(activeByRole.qa)
   })
 
   it('400 naming each bad field', async () => {
