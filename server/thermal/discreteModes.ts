@@ -23,11 +23,11 @@ export interface DiscreteSpec {
   outerBiot: number
 }
 
-/** Relative width to which each discrete eigenvalue is bisected: at the accuracy of the corrected estimate (~1e-3 at 8 cells per mode). */
+/** Relative width to which each discrete eigenvalue is bisected: at the accuracy of the corrected estimate (~1e-3 at 6 cells per mode). */
 const BISECTION_RTOL = 2e-4
 
-/** Approximate decay rates μ̂_1 … μ̂_count on about `cells` cells (default 8 per mode, at least 48). */
-export function discreteRates(spec: DiscreteSpec, count: number, cells = Math.max(48, 8 * count)): Float64Array {
+/** Approximate decay rates μ̂_1 … μ̂_count on about `cells` cells (default 6 per mode, at least 32). */
+export function discreteRates(spec: DiscreteSpec, count: number, cells = Math.max(32, 6 * count)): Float64Array {
   const { m, pieces } = spec
   // Property breakpoints are faces too, so a jump never sits inside a cell.
   const faces = [...new Set([...Array.from({ length: cells + 1 }, (_, i) => i / cells), ...pieces.map((p) => p.x0)])].sort((a, b) => a - b)
