@@ -94,7 +94,7 @@ interface Shot {
  * that and within 1.5/ω (ω² = μ max c/k), where f > 0 and no term is large enough
  * to lose digits to cancellation. Returns f, p = x^m k f′ and ∫₀^x s^m c f² ds at xs.
  */
-function centreSeries(m: 1 | 2, piece: PropertyPiece, mu: number, xs: number): { a: Float64Array; f: number; p: number; energy: number } {
+function centreSeries(m: 0 | 1 | 2, piece: PropertyPiece, mu: number, xs: number): { a: Float64Array; f: number; p: number; energy: number } {
   const k0 = piece.k0
   const k1 = (piece.k1 - piece.k0) / (piece.x1 - piece.x0)
   const c0 = piece.c0
@@ -133,7 +133,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
   let x = 0
   // (f, p, ∫ x^m c f² dx)
   const y = new Float64Array(3)
-  let centre = new Float64Array(0)
+  let centre: Float64Array = new Float64Array(0)
   if (spec.innerBiot === Infinity) {
     y[0] = 0
     y[1] = 1
@@ -198,7 +198,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
  */
 export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = FINE_SHOOTING): (n: number) => ShotMode {
   const modes: ShotMode[] = []
-  let estimates = new Float64Array(0)
+  let estimates: Float64Array = new Float64Array(0)
   const last = spec.pieces[spec.pieces.length - 1]
   const outerRatio = Math.sqrt(last.c1 / last.k1)
   // Quadratic convergence: a step of s leaves an error ~ s², so √rateRtol-sized steps suffice.
