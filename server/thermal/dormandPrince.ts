@@ -35,6 +35,11 @@ export interface IntegrateOptions {
    * an oscillating component does not force tiny steps near its zeros.
    */
   peak?: Float64Array
+  /**
+   * Only the first this many components control the step (default: all). Components
+   * carried along for a first-order correction need no error control of their own.
+   */
+  errorComponents?: number
 }
 
 export interface IntegrateResult {
@@ -69,6 +74,7 @@ export function integrate(rhs: Rhs, x0: number, y0: Float64Array, x1: number, op
   const yt = new Float64Array(n), ynew = new Float64Array(n)
   const segments: DenseSegment[] = []
   const peak = options.peak
+  const controlled = options.errorComponents ?? n
   if (peak) for (let i = 0; i < n; i++) peak[i] = Math.max(peak[i], Math.abs(y[i]))
   let x = x0
   rhs(x, y, k1)
@@ -97,12 +103,12 @@ export function integrate(rhs: Rhs, x0: number, y0: Float64Array, x1: number, op
     for (let i = 0; i < n; i++) ynew[i] = y[i] + h * (A71 * k1[i] + A73 * k3[i] + A74 * k4[i] + A75 * k5[i] + A76 * k6[i])
     rhs(xEnd, ynew, k7)
     let err = 0
-    for (let i = 0; i < n; i++) {
+    for (let i = 0; i < controlled; i++) {
       const e = h * (E1 * k1[i] + E3 * k3[i] + E4 * k4[i] + E5 * k5[i] + E6 * k6[i] + E7 * k7[i])
       const sc = atol + rtol * Math.max(Math.abs(y[i]), Math.abs(ynew[i]), peak ? peak[i] : 0)
       err += (e / sc) ** 2
     }
-    err = Math.sqrt(err / n)
+    err = Math.sqrt(err / controlled)
     if (err <= 1) {
       if (options.dense) {
         const rc = new Float64Array(5 * n)

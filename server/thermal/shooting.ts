@@ -16,9 +16,11 @@
  *     θ(1; μ) = nπ − atan(1/Bi₁).
  * Starting values come from a finite-volume discretisation (discreteModes.ts).
  * Safeguarded Newton steps on that equation, with the exact dθ(1)/dμ, then polish
- * μ to 1e-10 relative (the default); every shot narrows a bracket [lo, hi] known
- * from the sign of θ(1; μ) − target, so a poor estimate costs bisection steps but
- * can never converge on a neighbouring mode. f and p are continuous across a
+ * μ to 1e-10 relative (the default): coarse shots until the step is below 1e-4,
+ * then a fine shot that also carries ∂f/∂μ; once its Newton step δ is below
+ * √1e-10, μ + δ is the rate and f + δ ∂f/∂μ the shape, both to O(δ²). Every shot
+ * narrows a bracket [lo, hi] known from the sign of θ(1; μ) − target, so a poor
+ * estimate costs bisection steps but can never converge on a neighbouring mode. f and p are continuous across a
  * property jump; integration restarts there (each linear piece separately).
  * Checked on k = ρc = e^{2x}, whose modes are e^{−x} sin(nπx), μ = 1 + n²π²
  * (tests/unit/thermal/shooting.test.ts), and against the uniform closed forms.
@@ -83,6 +85,10 @@ interface Shot {
   xStart: number
   /** Power-series coefficients of f on 0 ≤ x ≤ xStart (empty when xStart = 0). */
   centre: Float64Array
+  /** Their derivatives in μ (with `sensitivity`). */
+  centreDmu: Float64Array
+  /** Dense output also carries ∂f/∂μ and ∂p/∂μ (components 3 and 4). */
+  sensitivity: boolean
 }
 
 /**
@@ -92,16 +98,27 @@ interface Shot {
  *     k₀ j(j − 1 + m) a_j = −k₁ (j − 1)(j − 1 + m) a_{j−1} − μ (c₀ a_{j−2} + c₁ a_{j−3}),
  * so a₁ = 0. It converges for |x| < k₀/|k₁|; the caller stays within a quarter of
  * that and within 1.5/ω (ω² = μ max c/k), where f > 0 and no term is large enough
- * to lose digits to cancellation. Returns f, p = x^m k f′ and ∫₀^x s^m c f² ds at xs.
+ * to lose digits to cancellation. Returns f, p = x^m k f′, ∫₀^x s^m c f² ds and the
+ * μ-derivatives of f and p at xs.
  */
-function centreSeries(m: 0 | 1 | 2, piece: PropertyPiece, mu: number, xs: number): { a: Float64Array; f: number; p: number; energy: number } {
+function centreSeries(
+  m: 0 | 1 | 2,
+  piece: PropertyPiece,
+  mu: number,
+  xs: number,
+): { a: Float64Array; da: Float64Array; f: number; p: number; energy: number; fMu: number; pMu: number } {
   const k0 = piece.k0
   const k1 = (piece.k1 - piece.k0) / (piece.x1 - piece.x0)
   const c0 = piece.c0
   const c1 = (piece.c1 - piece.c0) / (piece.x1 - piece.x0)
   const terms: number[] = [1, 0]
+  // ∂a_j/∂μ from the μ-derivative of the same recurrence.
+  const slopes: number[] = [0, 0]
   for (let j = 2; j < 120; j++) {
-    const aj = (-k1 * (j - 1) * (j - 1 + m) * terms[j - 1] - mu * (c0 * terms[j - 2] + (j >= 3 ? c1 * terms[j - 3] : 0))) / (k0 * j * (j - 1 + m))
+    const lower = c0 * terms[j - 2] + (j >= 3 ? c1 * terms[j - 3] : 0)
+    const aj = (-k1 * (j - 1) * (j - 1 + m) * terms[j - 1] - mu * lower) / (k0 * j * (j - 1 + m))
+    const dLower = c0 * slopes[j - 2] + (j >= 3 ? c1 * slopes[j - 3] : 0)
+    slopes.push((-k1 * (j - 1) * (j - 1 + m) * slopes[j - 1] - lower - mu * dLower) / (k0 * j * (j - 1 + m)))
     terms.push(aj)
     if (Math.abs(aj) * xs ** j < 1e-18 && Math.abs(terms[j - 1]) * xs ** (j - 1) < 1e-18 && j > 4) break
   }
@@ -123,17 +140,31 @@ function centreSeries(m: 0 | 1 | 2, piece: PropertyPiece, mu: number, xs: number
     energy += 0.5 * xs * gauss.w[i] * x ** m * (c0 + c1 * x) * f * f
   }
   const f = value(xs)
-  return { a, f, p: xs ** m * (k0 + k1 * xs) * df, energy }
+  const da = Float64Array.from(slopes)
+  let fMu = 0
+  let dfMu = 0
+  for (let j = da.length - 1; j >= 0; j--) {
+    fMu = fMu * xs + da[j]
+    if (j > 0) dfMu = dfMu * xs + j * da[j]
+  }
+  const area = xs ** m * (k0 + k1 * xs)
+  return { a, da, f, p: area * df, energy, fMu, pMu: area * dfMu }
 }
 
-/** Integrates the shooting system for decay rate mu; θ(1), dθ(1)/dμ and optionally dense output. */
-export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, dense = false): Shot {
+/**
+ * Integrates the shooting system for decay rate mu; θ(1), dθ(1)/dμ and optionally
+ * dense output, with the sensitivities ∂f/∂μ, ∂p/∂μ when `sensitivity` is set:
+ *     (∂f/∂μ)′ = (∂p/∂μ)/(x^m k),   (∂p/∂μ)′ = −x^m c (f + μ ∂f/∂μ),
+ * which let a shape shot at μ be moved to a Newton-corrected μ + δ to O(δ²).
+ */
+export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, dense = false, sensitivity = false): Shot {
   const { m, pieces } = spec
   const first = pieces[0]
   let x = 0
-  // (f, p, ∫ x^m c f² dx)
-  const y = new Float64Array(3)
+  // (f, p, ∫ x^m c f² dx[, ∂f/∂μ, ∂p/∂μ]); the start values below do not depend on μ except at a centre.
+  const y = new Float64Array(sensitivity ? 5 : 3)
   let centre: Float64Array = new Float64Array(0)
+  let centreDmu: Float64Array = new Float64Array(0)
   if (spec.innerBiot === Infinity) {
     y[0] = 0
     y[1] = 1
@@ -146,6 +177,11 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
     y[1] = start.p
     y[2] = start.energy
     centre = start.a
+    if (sensitivity) {
+      y[3] = start.fMu
+      y[4] = start.pMu
+      centreDmu = start.da
+    }
   } else {
     y[0] = 1
     y[1] = spec.innerBiot
@@ -164,7 +200,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
   const segments: DenseSegment[] = []
   let state: Float64Array = y
   let h: number | undefined
-  const peak = new Float64Array(3)
+  const peak = new Float64Array(y.length)
   for (const piece of pieces) {
     if (piece.x1 <= x) continue
     const dk = (piece.k1 - piece.k0) / (piece.x1 - piece.x0)
@@ -176,19 +212,23 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
       ds[0] = s[1] / (xm * k)
       ds[1] = -mu * wc * s[0]
       ds[2] = wc * s[0] * s[0]
+      if (sensitivity) {
+        ds[3] = s[4] / (xm * k)
+        ds[4] = -wc * (s[0] + mu * s[3])
+      }
     }
     // Keep each step under ~1 radian of local oscillation so the Prüfer angle unwraps.
     const omega = Math.sqrt(mu * Math.max(piece.c0 / piece.k0, piece.c1 / piece.k1))
     const hmax = omega > 0 ? 1 / omega : undefined
     const from = Math.max(x, piece.x0)
-    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense, onStep, peak })
+    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense, onStep, peak, errorComponents: 3 })
     state = result.y
     h = result.h
     x = piece.x1
     if (dense) segments.push(...result.segments)
   }
   const r2 = state[0] * state[0] + state[1] * state[1]
-  return { theta, dThetaDmu: state[2] / r2, segments, xStart, centre }
+  return { theta, dThetaDmu: state[2] / r2, segments, xStart, centre, centreDmu, sensitivity }
 }
 
 /**
@@ -209,10 +249,9 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
     let hi = Infinity
     let mu = estimates[j - 1] > lo ? estimates[j - 1] : lo + 1
     let fine = false
-    let lastStep = Infinity
     for (let shots = 0; shots < MAX_SHOTS; shots++) {
-      // A shot expected to be the last keeps its dense output, which then is the mode's shape.
-      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine && lastStep <= acceptStep)
+      // Fine shots are usually the last: they keep dense output and the μ-sensitivities.
+      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine, fine)
       // The same Sturm condition in the scaled angle φ = atan2(s f, p), s = λ√(c/k) at
       // the surface: θ ↦ φ is increasing and fixes every multiple of π/2, so φ(1) − (jπ −
       // atan(s/Bi₁)) has the sign of θ(1) − (jπ − atan(1/Bi₁)), but φ(1) is nearly affine
@@ -229,13 +268,9 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
       const lamNext = lam - residual / (2 * lam * dPhiDmu)
       const next = lamNext > 0 ? lamNext * lamNext : -1
       const step = Math.abs(next - mu)
-      if (fine && next > lo && next < hi) {
-        // Within rateRtol the shot's own shape belongs to the polished rate; a step
-        // below √rateRtol leaves a rate error ~step², but the shape needs one more shot.
-        if (step <= accuracy.rateRtol * mu && shot.segments.length > 0) return denseMode(next, shot)
-        if (step <= acceptStep * mu) return denseMode(next, shoot(spec, next, accuracy.fine, true))
-      }
-      lastStep = next > lo && next < hi ? step / mu : Infinity
+      // A step below √rateRtol leaves errors ~step² in the rate and in the shape moved
+      // along its sensitivity, so this shot is the mode.
+      if (fine && next > lo && next < hi && step <= acceptStep * mu) return denseMode(next, shot, next - mu)
       mu = next > lo && next < hi ? next : hi === Infinity ? 2 * Math.max(mu, lo, 1) : 0.5 * (lo + hi)
       if (!fine && step <= COARSE_STEP * mu) {
         // The coarse θ may be off by ~COARSE.rtol: widen the bracket it built before trusting fine shots.
@@ -246,7 +281,7 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
     }
     throw new RangeError(`shooting: mode ${j} did not converge in ${MAX_SHOTS} shots`)
   }
-  const denseMode = (rate: number, shot: Shot): ShotMode => ({ rate, shape: shapeOf(shot) })
+  const denseMode = (rate: number, shot: Shot, delta: number): ShotMode => ({ rate, shape: shapeOf(shot, delta) })
   return (n: number) => {
     if (estimates.length < n) estimates = discreteRates(spec, Math.max(2 * n, 8))
     while (modes.length < n) modes.push(solve(modes.length + 1))
@@ -254,9 +289,11 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
   }
 }
 
-/** f(x) of a shot: the centre power series, then the dense output of the integration. */
-function shapeOf(shot: Shot): (x: number) => number {
-  const { segments, xStart, centre } = shot
+/** f(x) of a shot moved to μ + delta: the centre power series, then the dense output of the integration. */
+function shapeOf(shot: Shot, delta: number): (x: number) => number {
+  const { segments, xStart } = shot
+  const centre = shot.centre.map((a, j) => a + delta * shot.centreDmu[j])
+  const n = shot.sensitivity ? 5 : 3
   const starts = segments.map((s) => s.x0)
   return (x: number): number => {
     if (x < xStart) {
@@ -271,6 +308,7 @@ function shapeOf(shot: Shot): (x: number) => number {
       if (starts[mid] <= x) lo = mid
       else hi = mid - 1
     }
-    return denseValue(segments[lo], 3, 0, Math.min(x, segments[lo].x0 + segments[lo].h))
+    const at = Math.min(x, segments[lo].x0 + segments[lo].h)
+    return denseValue(segments[lo], n, 0, at) + (shot.sensitivity ? delta * denseValue(segments[lo], n, 3, at) : 0)
   }
 }

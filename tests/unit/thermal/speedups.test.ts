@@ -39,6 +39,16 @@ describe('finite-volume rate estimates (starting values for shooting)', () => {
   })
 })
 
+describe('shooting polish', () => {
+  it('a symmetric uniform slab: every shape, moved to the Newton-corrected rate along its μ-sensitivity, is cos λx to 1e-8', () => {
+    const shot = shootingModes({ m: 0, pieces: [{ x0: 0, x1: 1, k0: 1, k1: 1, c0: 1, c1: 1 }], innerBiot: 0, outerBiot: 0.7 })
+    for (let n = 1; n <= 12; n++) {
+      const lam = slabRoot(n, 0, 0.7)
+      for (const x of [0, 0.21, 0.5, 0.77, 1]) expect(Math.abs(shot(n).shape(x) - Math.cos(lam * x))).toBeLessThan(1e-8)
+    }
+  })
+})
+
 describe('shooting from the centre power series', () => {
   it.each([
     [1, (n: number) => rodRoot(n, 2)],
