@@ -189,7 +189,11 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
     summaries,
     centreX,
     initialAt,
-    evaluate: (t_s, x) => (t_s <= 0 ? initialAt(x) : seriesValue(stageAt(t_s), t_s - stageAt(t_s).start_s, x)),
+    evaluate: (t_s, x) => {
+      if (t_s <= 0) return initialAt(x)
+      const stage = stageAt(t_s)
+      return seriesValue(stage, t_s - stage.start_s, x)
+    },
     mean: (t_s) => (t_s <= 0 ? initialMean : pointValue(pointSeries('mean'), t_s)),
     pointSeries,
     targetTime: (at, target) => {
