@@ -295,18 +295,27 @@ function shapeOf(shot: Shot, delta: number): (x: number) => number {
   const centre = shot.centre.map((a, j) => a + delta * shot.centreDmu[j])
   const n = shot.sensitivity ? 5 : 3
   const starts = segments.map((s) => s.x0)
+  let last = 0
   return (x: number): number => {
     if (x < xStart) {
       let f = 0
       for (let j = centre.length - 1; j >= 0; j--) f = f * x + centre[j]
       return f
     }
-    let lo = 0
-    let hi = starts.length - 1
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1
-      if (starts[mid] <= x) lo = mid
-      else hi = mid - 1
+    // Callers mostly sweep x upwards (quadrature nodes, profiles): try the last segment and its successor first.
+    let lo = last
+    if (!(starts[lo] <= x && (lo + 1 === starts.length || x < starts[lo + 1]))) {
+      lo = lo + 1 < starts.length && starts[lo + 1] <= x && (lo + 2 === starts.length || x < starts[lo + 2]) ? lo + 1 : -1
+      if (lo < 0) {
+        lo = 0
+        let hi = starts.length - 1
+        while (lo < hi) {
+          const mid = (lo + hi + 1) >> 1
+          if (starts[mid] <= x) lo = mid
+          else hi = mid - 1
+        }
+      }
+      last = lo
     }
     const at = Math.min(x, segments[lo].x0 + segments[lo].h)
     return denseValue(segments[lo], n, 0, at) + (shot.sensitivity ? delta * denseValue(segments[lo], n, 3, at) : 0)
