@@ -1,9 +1,11 @@
-import { boolean, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { boolean, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { ROLES } from '../../shared/roles'
 import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
 import { MAIL_RECIPIENT_KINDS } from '../../shared/schemas/mailRecipients'
 import { OUTBOX_STATUSES, type OutboxAttachment } from '../../shared/types/outbox'
+import { FURNACE_KINDS } from '../../shared/schemas/schedule'
+import { BATCH_STATES } from '../../shared/schedule'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -149,3 +151,120 @@ export const mailRecipients = mysqlTable('mail_recipients', {
 
 export type OutboxMessageRow = typeof outboxMessages.$inferSelect
 export type MailRecipientRow = typeof mailRecipients.$inferSelect
+
+/** A furnace the shop books loads into; its row is the lock that serialises bookings on it. */
+export const furnaces = mysqlTable('furnaces', {
+  id: int('id').autoincrement().primaryKey(),
+  name: varchar('name', { length: 80 }).notNull().unique(),
+  kind: mysqlEnum('kind', FURNACE_KINDS).notNull(),
+  maxTemp_C: double('max_temp_c').notNull(),
+  capacity_kg: double('capacity_kg').notNull(),
+  zoneWidth_mm: double('zone_width_mm').notNull(),
+  zoneDepth_mm: double('zone_depth_mm').notNull(),
+  zoneHeight_mm: double('zone_height_mm').notNull(),
+  active: boolean('active').notNull().default(true),
+  ...timestamps,
+})
+
+/** A quench tank or air station; like furnaces, its row is locked while booking. */
+export const quenchStations = mysqlTable('quench_stations', {
+  id: int('id').autoincrement().primaryKey(),
+  name: varchar('name', { length: 80 }).notNull().unique(),
+  kind: mysqlEnum('kind', QUENCHANT_KINDS).notNull(),
+  maxTemp_C: double('max_temp_c').notNull(),
+  capacity_kg: double('capacity_kg').notNull(),
+  active: boolean('active').notNull().default(true),
+  ...timestamps,
+})
+
+/** Which stations a furnace's loads can reach within the transfer time. */
+export const furnaceStations = mysqlTable(
+  'furnace_stations',
+  {
+    furnaceId: int('furnace_id').notNull().references(() => furnaces.id),
+    stationId: int('station_id').notNull().references(() => quenchStations.id),
+  },
+  (table) => [primaryKey({ columns: [table.furnaceId, table.stationId] })],
+)
+
+/** Shop-wide scheduling figures (shared/schedule.ts ShopSettings), one row per key. */
+export const shopSettings = mysqlTable('shop_settings', {
+  key: varchar('key', { length: 64 }).primaryKey(),
+  value: double('value').notNull(),
+  updatedBy: int('updated_by').references(() => users.id),
+  ...timestamps,
+})
+
+/** Last load-number sequence per year; locked while a booking takes the next one. */
+export const loadCounters = mysqlTable('load_counters', {
+  year: int('year').primaryKey(),
+  last: int('last').notNull(),
+})
+
+/**
+ * A booked load. Durations are copied from the plan revision and settings at
+ * booking time, so re-planning from floor events never depends on later edits;
+ * the slot columns are the current plan (moved by late floor events).
+ */
+export const batches = mysqlTable(
+  'batches',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    loadNumber: varchar('load_number', { length: 32 }).notNull().unique(),
+    planRevisionId: int('plan_revision_id').notNull().references(() => planRevisions.id),
+    furnaceId: int('furnace_id').notNull().references(() => furnaces.id),
+    stationId: int('station_id').notNull().references(() => quenchStations.id),
+    partCount: int('part_count').notNull(),
+    mass_kg: double('mass_kg').notNull(),
+    reference: varchar('reference', { length: 120 }).notNull(),
+    state: mysqlEnum('state', BATCH_STATES).notNull().default('planned'),
+    plannedCharge: datetime('planned_charge', { mode: 'date', fsp: 3 }).notNull(),
+    furnace_s: double('furnace_s').notNull(),
+    furnaceIsDefault: boolean('furnace_is_default').notNull(),
+    minimumSoak_s: double('minimum_soak_s'),
+    transfer_s: double('transfer_s').notNull(),
+    quench_s: double('quench_s').notNull(),
+    quenchToHandling_s: double('quench_to_handling_s').notNull(),
+    quenchDelayAllowance_s: double('quench_delay_allowance_s').notNull(),
+    furnaceStart: datetime('furnace_start', { mode: 'date', fsp: 3 }).notNull(),
+    furnaceEnd: datetime('furnace_end', { mode: 'date', fsp: 3 }).notNull(),
+    quenchStart: datetime('quench_start', { mode: 'date', fsp: 3 }).notNull(),
+    quenchEnd: datetime('quench_end', { mode: 'date', fsp: 3 }).notNull(),
+    handlingAt: datetime('handling_at', { mode: 'date', fsp: 3 }).notNull(),
+    chargedAt: datetime('charged_at', { mode: 'date', fsp: 3 }),
+    soakingAt: datetime('soaking_at', { mode: 'date', fsp: 3 }),
+    quenchedAt: datetime('quenched_at', { mode: 'date', fsp: 3 }),
+    /** Set when an earlier load ran late into this one's furnace or station time. */
+    conflictWith: varchar('conflict_with', { length: 32 }),
+    conflictNote: varchar('conflict_note', { length: 255 }),
+    createdBy: int('created_by').references(() => users.id),
+    ...timestamps,
+  },
+  (table) => [
+    index('batch_furnace_time_idx').on(table.furnaceId, table.furnaceStart),
+    index('batch_station_time_idx').on(table.stationId, table.quenchStart),
+    index('batch_time_idx').on(table.furnaceStart),
+  ],
+)
+
+/**
+ * Every state move with who (null: the clock) and when. One row per batch and
+ * target state, which is what makes a repeated floor tap harmless.
+ */
+export const batchEvents = mysqlTable(
+  'batch_events',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    batchId: int('batch_id').notNull().references(() => batches.id),
+    fromState: mysqlEnum('from_state', BATCH_STATES).notNull(),
+    toState: mysqlEnum('to_state', BATCH_STATES).notNull(),
+    at: datetime('at', { mode: 'date', fsp: 3 }).notNull(),
+    actorId: int('actor_id').references(() => users.id),
+  },
+  (table) => [uniqueIndex('batch_event_once').on(table.batchId, table.toState)],
+)
+
+export type FurnaceRow = typeof furnaces.$inferSelect
+export type QuenchStationRow = typeof quenchStations.$inferSelect
+export type BatchRow = typeof batches.$inferSelect
+export type BatchEventRow = typeof batchEvents.$inferSelect

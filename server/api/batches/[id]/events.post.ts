@@ -1,0 +1,14 @@
+import { z } from 'zod'
+import { moveInputSchema } from '../../../../shared/schemas/schedule'
+
+const Params = z.object({ id: z.coerce.number({ message: 'Batch id must be a number' }).int().positive('Batch id must be positive') })
+
+export default defineEventHandler(async (event) => {
+  // Which role may record which move depends on the move; moveBatch checks it.
+  const user = await requireRole(event)
+  const { id } = await paramsValid(event, Params)
+  const { to } = await readValid(event, moveInputSchema)
+  const result = await moveBatch(id, to, user)
+  setResponseStatus(event, result.repeated ? 200 : 201)
+  return result
+})

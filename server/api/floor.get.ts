@@ -1,0 +1,9 @@
+import { z } from 'zod'
+
+const Query = z.object({ furnaceId: z.coerce.number({ message: 'Furnace id must be a number' }).int().positive().optional() })
+
+export default defineEventHandler(async (event) => {
+  await requireRole(event, ['operator', 'admin', 'metallurgist'])
+  const { furnaceId } = queryValid(event, Query)
+  return await floorBatches(furnaceId)
+})

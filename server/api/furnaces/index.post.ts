@@ -1,0 +1,8 @@
+import { furnaceInputSchema } from '../../../shared/schemas/schedule'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, ['admin'])
+  const input = await readValid(event, furnaceInputSchema)
+  setResponseStatus(event, 201)
+  return await saveFurnace(null, input, admin.id)
+})

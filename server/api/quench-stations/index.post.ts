@@ -1,0 +1,8 @@
+import { stationInputSchema } from '../../../shared/schemas/schedule'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, ['admin'])
+  const input = await readValid(event, stationInputSchema)
+  setResponseStatus(event, 201)
+  return await saveStation(null, input, admin.id)
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  await requireRole(event, ['metallurgist', 'admin'])
+  return await planOptions()
+})

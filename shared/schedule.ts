@@ -1,0 +1,240 @@
+/**
+ * Booking rules shared by the server (which enforces them) and the schedule and
+ * floor pages (which explain them): batch states and who may move them, the
+ * slots a plan revision needs, overlap and the next free start. Pure functions;
+ * all times are epoch milliseconds unless the name says seconds.
+ */
+import type { Role } from './roles'
+import type { PlanSummary } from './types/plan'
+
+export const BATCH_STATES = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready', 'released', 'cancelled'] as const
+export type BatchState = (typeof BATCH_STATES)[number]
+
+export const BATCH_STATE_LABELS: Record<BatchState, string> = {
+  planned: 'Booked',
+  charged: 'In furnace',
+  soaking: 'Holding at heat',
+  quenched: 'In the bath',
+  cooling: 'Cooling to handling',
+  ready: 'Safe to handle',
+  released: 'Handed on',
+  cancelled: 'Withdrawn',
+}
+
+/** States in which a batch still holds (or will hold) furnace or station time. */
+export const OPEN_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
+/** States shown on the floor. */
+export const FLOOR_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
+
+const FLOOR_ROLES: readonly Role[] = ['operator', 'admin']
+const PLANNING_ROLES: readonly Role[] = ['metallurgist', 'admin']
+
+export interface Transition {
+  from: readonly BatchState[]
+  /** Who may record it; empty means only the clock moves it (from the plan's times). */
+  roles: readonly Role[]
+  /** The floor button's wording. */
+  action: string
+}
+
+/**
+ * The one table of allowed moves. "cooling" and "ready" are reached by the clock:
+ * the bath stage ends and the predicted core temperature crosses the handling
+ * temperature at times the plan fixes once the quench is recorded.
+ */
+export const TRANSITIONS: Record<Exclude<BatchState, 'planned'>, Transition> = {
+  charged: { from: ['planned'], roles: FLOOR_ROLES, action: 'Load charged' },
+  soaking: { from: ['charged'], roles: FLOOR_ROLES, action: 'Core at heat' },
+  quenched: { from: ['soaking'], roles: FLOOR_ROLES, action: 'Quench started' },
+  cooling: { from: ['quenched'], roles: [], action: 'Out of the bath' },
+  ready: { from: ['cooling'], roles: [], action: 'Safe to handle' },
+  released: { from: ['ready'], roles: FLOOR_ROLES, action: 'Hand on' },
+  cancelled: { from: ['planned', 'charged', 'soaking'], roles: PLANNING_ROLES, action: 'Withdraw' },
+}
+
+export type MoveCheck =
+  | { ok: true }
+  | { ok: false; status: 403 | 409; message: string }
+
+/**
+ * Whether `role` may move a batch from `current` to `requested`. A role that may
+ * never record the move gets 403 whatever the state; otherwise the order decides.
+ */
+export function checkMove(current: BatchState, requested: BatchState, role: Role): MoveCheck {
+  if (requested === 'planned') return { ok: false, status: 409, message: `A batch cannot go back to ${BATCH_STATE_LABELS.planned} (planned); it is ${BATCH_STATE_LABELS[current]} (${current})` }
+  const rule = TRANSITIONS[requested]
+  if (rule.roles.length === 0) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} (${requested}) follows from the plan's times; nobody records it` }
+  if (!rule.roles.includes(role)) return { ok: false, status: 403, message: `A ${role} cannot record ${BATCH_STATE_LABELS[requested]} (${requested})` }
+  if (!rule.from.includes(current)) {
+    return {
+      ok: false,
+      status: 409,
+      message: `The batch is ${BATCH_STATE_LABELS[current]} (${current}); it cannot move to ${BATCH_STATE_LABELS[requested]} (${requested})`,
+    }
+  }
+  return { ok: true }
+}
+
+/** The one move a floor operator makes next, if any. */
+export function nextFloorMove(state: BatchState): Exclude<BatchState, 'planned'> | null {
+  const order: [BatchState, Exclude<BatchState, 'planned'>][] = [
+    ['planned', 'charged'],
+    ['charged', 'soaking'],
+    ['soaking', 'quenched'],
+    ['ready', 'released'],
+  ]
+  return order.find(([from]) => from === state)?.[1] ?? null
+}
+
+/** Shop-wide figures the plan does not carry. Defaults below are this product's, not a standard's. */
+export interface ShopSettings {
+  /** Furnace door to bath, used between soak end and quench start. */
+  transfer_s: number
+  /** Furnace time booked when a plan has no soak planning. */
+  defaultFurnace_s: number
+  /** How long past the end of soak a quench may start before the batch is flagged late. */
+  quenchDelayAllowance_s: number
+  /** How long after "safe to handle" the load may wait for tempering before it is flagged. */
+  temperWithin_s: number
+}
+
+export const DEFAULT_SHOP_SETTINGS: ShopSettings = {
+  transfer_s: 60,
+  defaultFurnace_s: 4 * 3600,
+  quenchDelayAllowance_s: 600,
+  temperWithin_s: 2 * 3600,
+}
+
+/** Durations a booking needs, read from a plan revision's summary and the shop settings. */
+export interface SlotDurations {
+  furnace_s: number
+  /** True when the plan had no soak planning and the shop's default furnace time was used. */
+  furnaceIsDefault: boolean
+  minimumSoak_s: number | null
+  transfer_s: number
+  /** Time on the quench station: the plan's first (bath) stage, or the whole cooldown if it has one stage only. */
+  quench_s: number
+  quenchToHandling_s: number
+}
+
+export function slotDurations(summary: PlanSummary, settings: ShopSettings): SlotDurations {
+  const bathEnd = summary.handlingPointSeries[0]?.end_s
+  return {
+    furnace_s: summary.soak?.total_s ?? settings.defaultFurnace_s,
+    furnaceIsDefault: summary.soak === null,
+    minimumSoak_s: summary.soak?.minimumSoak_s ?? null,
+    transfer_s: settings.transfer_s,
+    quench_s: bathEnd ?? summary.quenchToHandling_s,
+    quenchToHandling_s: summary.quenchToHandling_s,
+  }
+}
+
+/** Where a batch sits on the timeline (epoch ms). Furnace and station hold [start, end). */
+export interface Slots {
+  furnaceStart: number
+  furnaceEnd: number
+  quenchStart: number
+  quenchEnd: number
+  /** Predicted moment the handling point is below the handling temperature. */
+  handlingAt: number
+}
+
+/** Recorded floor times (epoch ms) that override the plan. */
+export interface ActualTimes {
+  chargedAt?: number | null
+  soakingAt?: number | null
+  quenchedAt?: number | null
+}
+
+/**
+ * Slots from the planned charge, re-planned from whatever the floor has recorded:
+ * a recorded charge moves everything after it; "core at heat" restarts the
+ * minimum soak when the plan knows it; a recorded quench fixes bath and cooldown
+ * and frees the furnace one transfer earlier.
+ */
+export function deriveSlots(plannedCharge: number, d: SlotDurations, actual: ActualTimes = {}): Slots {
+  const charge = actual.chargedAt ?? plannedCharge
+  let furnaceEnd = charge + d.furnace_s * 1000
+  if (actual.soakingAt != null && d.minimumSoak_s !== null) furnaceEnd = actual.soakingAt + d.minimumSoak_s * 1000
+  let quenchStart = furnaceEnd + d.transfer_s * 1000
+  if (actual.quenchedAt != null) {
+    quenchStart = actual.quenchedAt
+    furnaceEnd = Math.max(charge, quenchStart - d.transfer_s * 1000)
+  }
+  return {
+    furnaceStart: charge,
+    furnaceEnd,
+    quenchStart,
+    quenchEnd: quenchStart + d.quench_s * 1000,
+    handlingAt: quenchStart + d.quenchToHandling_s * 1000,
+  }
+}
+
+export interface Interval {
+  start: number
+  end: number
+}
+
+/** Half-open intervals: one ending exactly when the next starts do not overlap. */
+export function overlaps(a: Interval, b: Interval): boolean {
+  return a.start < b.end && b.start < a.end
+}
+
+/**
+ * The earliest start at or after `from` at which the furnace holds the load for
+ * `furnace_ms` and the station, `stationOffset_ms` after the start, holds it for
+ * `station_ms`, clear of every busy interval. The answer is `from` itself or a
+ * moment at which some busy interval ends (shifted by the offset for the station),
+ * so only those candidates need checking.
+ */
+export function nextFreeStart(
+  from: number,
+  furnace_ms: number,
+  stationOffset_ms: number,
+  station_ms: number,
+  furnaceBusy: Interval[],
+  stationBusy: Interval[],
+): number {
+  const candidates = [from, ...furnaceBusy.map((b) => b.end), ...stationBusy.map((b) => b.end - stationOffset_ms)]
+    .filter((t) => t >= from)
+    .sort((a, b) => a - b)
+  for (const t of candidates) {
+    const furnace = { start: t, end: t + furnace_ms }
+    const station = { start: t + stationOffset_ms, end: t + stationOffset_ms + station_ms }
+    if (!furnaceBusy.some((b) => overlaps(furnace, b)) && !stationBusy.some((b) => overlaps(station, b))) return t
+  }
+  // Unreachable: the latest candidate lies past every busy interval.
+  throw new Error('no free start found')
+}
+
+/**
+ * The state the clock has reached for a batch whose quench is recorded: the bath
+ * stage ends at quenchEnd, the core is at handling temperature at handlingAt.
+ */
+export function stateByClock(state: BatchState, slots: Pick<Slots, 'quenchEnd' | 'handlingAt'>, now: number): BatchState {
+  if (state === 'quenched' && now >= slots.quenchEnd) state = 'cooling'
+  if (state === 'cooling' && now >= slots.handlingAt) state = 'ready'
+  return state
+}
+
+export interface BatchFlags {
+  lateToQuench: boolean
+  overdueToTemper: boolean
+}
+
+/**
+ * Late to quench: still in the furnace after soak end plus the allowance (the
+ * plan's own allowance when it states one). Overdue to temper: safe to handle
+ * for longer than the shop allows before tempering.
+ */
+export function batchFlags(state: BatchState, slots: Slots, now: number, quenchDelayAllowance_s: number, temperWithin_s: number): BatchFlags {
+  return {
+    lateToQuench: (state === 'charged' || state === 'soaking') && now > slots.furnaceEnd + quenchDelayAllowance_s * 1000,
+    overdueToTemper: state === 'ready' && now > slots.handlingAt + temperWithin_s * 1000,
+  }
+}
+
+/** Shop-unique load number: prefix, year, five-digit sequence within the year. */
+export function loadNumber(prefix: string, year: number, sequence: number): string {
+  return `${prefix}-${year}-${String(sequence).padStart(5, '0')}`
+}

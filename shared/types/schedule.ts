@@ -1,0 +1,99 @@
+import type { BatchFlags, BatchState, ShopSettings } from '../schedule'
+import type { FurnaceKind } from '../schemas/schedule'
+import type { QuenchantKind } from '../schemas/quenchant'
+import type { PlanSummary } from './plan'
+
+export interface Furnace {
+  id: number
+  name: string
+  kind: FurnaceKind
+  maxTemp_C: number
+  capacity_kg: number
+  zoneWidth_mm: number
+  zoneDepth_mm: number
+  zoneHeight_mm: number
+  active: boolean
+  stationIds: number[]
+}
+
+export interface QuenchStation {
+  id: number
+  name: string
+  kind: QuenchantKind
+  maxTemp_C: number
+  capacity_kg: number
+  active: boolean
+}
+
+/** A batch as the API returns it; times are epoch milliseconds (compact for thousands of rows). */
+export interface BatchView {
+  id: number
+  loadNumber: string
+  planRevisionId: number
+  furnaceId: number
+  stationId: number
+  partCount: number
+  mass_kg: number
+  reference: string
+  /** The state now, including moves the clock has made since the last recorded event. */
+  state: BatchState
+  plannedCharge: number
+  furnaceStart: number
+  furnaceEnd: number
+  quenchStart: number
+  quenchEnd: number
+  handlingAt: number
+  chargedAt: number | null
+  soakingAt: number | null
+  quenchedAt: number | null
+  furnaceIsDefault: boolean
+  conflictWith: string | null
+  conflictNote: string | null
+  flags: BatchFlags
+}
+
+export interface BatchEventView {
+  id: number
+  fromState: BatchState
+  toState: BatchState
+  at: string
+  actorName: string | null
+}
+
+export interface BatchDetail extends BatchView {
+  planName: string
+  revision: number
+  furnaceName: string
+  stationName: string
+  summary: PlanSummary
+  durations: { furnace_s: number; minimumSoak_s: number | null; transfer_s: number; quench_s: number; quenchToHandling_s: number; quenchDelayAllowance_s: number }
+  events: BatchEventView[]
+}
+
+export interface ScheduleResponse {
+  serverNow: number
+  batches: BatchView[]
+}
+
+export interface FloorBatch extends BatchView {
+  planName: string
+  furnaceName: string
+  stationName: string
+  summary: PlanSummary
+  minimumSoak_s: number | null
+}
+
+export interface FloorResponse {
+  serverNow: number
+  settings: ShopSettings
+  batches: FloorBatch[]
+}
+
+export interface PlanOption {
+  planRevisionId: number
+  planName: string
+  revision: number
+  quenchToHandling_s: number
+  furnace_s: number | null
+  furnace_C: number | null
+}
