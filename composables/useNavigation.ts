@@ -10,8 +10,11 @@ export interface NavItem {
 const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Shift overview', roles: [] },
   { to: '/plans', label: 'Plans', roles: [] },
+  { to: '/schedule', label: 'Schedule', roles: [] },
+  { to: '/floor', label: 'Floor', roles: ['operator', 'admin', 'metallurgist'] },
   { to: '/library/materials', label: 'Materials', roles: [] },
   { to: '/library/quenchants', label: 'Quench media', roles: [] },
+  { to: '/admin/furnaces', label: 'Furnaces', roles: ['admin'] },
   { to: '/admin/users', label: 'People', roles: ['admin'] },
   { to: '/admin/audit', label: 'Audit trail', roles: ['admin', 'qa'] },
   { to: '/admin/outbox', label: 'Outbox', roles: ['admin'] },

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from 'drizzle-orm'
 import type { z } from 'zod'
-import type { Transaction } from '../db/client'
+import { createError } from 'h3'
+import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, furnaceStations, furnaces, loadCounters, planRevisions, plans, quenchStations, users, type BatchRow } from '../db/schema'
 import {
   OPEN_STATES,
@@ -129,9 +130,9 @@ async function nextLoadNumber(tx: Transaction, year: number): Promise<string> {
  * locked first, so of two overlapping bookings the second sees the first's rows
  * (read committed) and is refused with the colliding load and the next free start.
  */
-export async function bookBatch(input: Booking, actor: SessionUser): Promise<BatchView> {
+export async function bookBatch(input: Booking, actor: Pick<SessionUser, 'id' | 'role'>, db: Database = useDb()): Promise<BatchView> {
   const plannedCharge = Date.parse(input.plannedCharge)
-  return await useDb().transaction(
+  return await db.transaction(
     async (tx) => {
       const { furnace, station } = await lockResources(tx, input.furnaceId, input.stationId)
       if (!furnace) problem(422, 'Unknown furnace', 'furnaceId', `No furnace with id ${input.furnaceId}`)
@@ -229,10 +230,10 @@ export async function bookBatch(input: Booking, actor: SessionUser): Promise<Bat
  * (out of the bath, safe to handle) are written first at the times the plan gave
  * them, so the event log reads in order.
  */
-export async function moveBatch(id: number, to: BatchState, actor: SessionUser): Promise<{ batch: BatchView; repeated: boolean }> {
-  const [pre] = await useDb().select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
+export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role'>, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
+  const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
   if (!pre) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
-  return await useDb().transaction(
+  return await db.transaction(
     async (tx) => {
       await lockResources(tx, pre.furnaceId, pre.stationId)
       const [row] = await tx.select().from(batches).where(eq(batches.id, id)).for('update')
@@ -313,11 +314,11 @@ async function reflagConflicts(tx: Transaction, row: BatchRow, withdrawn: boolea
 }
 
 /** Batches whose time (charge to handling) touches [from, to); the schedule's week query. */
-export async function listBatches(from: Date, to: Date, furnaceId?: number) {
-  const settings = await readShopSettings()
+export async function listBatches(from: Date, to: Date, furnaceId?: number, db: Database = useDb()) {
+  const settings = await readShopSettings(db)
   const conditions = [lt(batches.furnaceStart, to), gt(batches.handlingAt, from)]
   if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
-  const rows = await useDb().select().from(batches).where(and(...conditions)).orderBy(asc(batches.furnaceStart))
+  const rows = await db.select().from(batches).where(and(...conditions)).orderBy(asc(batches.furnaceStart))
   const now = Date.now()
   return { serverNow: now, batches: rows.map((row) => toBatchView(row, settings, now)) }
 }
@@ -378,6 +379,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     stationName: r.stationName,
     summary: readSummary(r.summary)!,
     minimumSoak_s: r.batch.minimumSoak_s,
+    quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
   }))
   return { serverNow: now, settings, batches: list }
 }

@@ -81,6 +81,7 @@ export interface FloorBatch extends BatchView {
   stationName: string
   summary: PlanSummary
   minimumSoak_s: number | null
+  quenchDelayAllowance_s: number
 }
 
 export interface FloorResponse {
