@@ -52,7 +52,7 @@ export function floorCountdown(b: CountdownInput, now: number, temperWithin_s: n
     case 'quenched':
     case 'cooling':
       seconds = until(b.handlingAt)
-      caption = `until the core is below ${b.summary.handling_C} °C`
+      caption = seconds > 0 ? `until the core is below ${b.summary.handling_C} °C` : `Core below ${b.summary.handling_C} °C: lift out when the bath stage ends`
       if (b.quenchedAt !== null) coreNow_C = pointValue(b.summary.handlingPointSeries, (now - b.quenchedAt) / 1000)
       break
     case 'ready':

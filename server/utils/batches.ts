@@ -240,7 +240,8 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
       const settings = await readShopSettings(tx)
       const now = Date.now()
       const [already] = await tx.select().from(batchEvents).where(and(eq(batchEvents.batchId, id), eq(batchEvents.toState, to)))
-      if (already && checkMove(already.fromState, to, actor.role).ok) return { batch: toBatchView(row!, settings, now), repeated: true }
+      // Only the move that made the current state repeats harmlessly; an older one asked again is a backwards move.
+      if (already && row!.state === to && checkMove(already.fromState, to, actor.role).ok) return { batch: toBatchView(row!, settings, now), repeated: true }
 
       let state = row!.state
       const clock = stateByClock(state, { quenchEnd: row!.quenchEnd.getTime(), handlingAt: row!.handlingAt.getTime() }, now)
@@ -249,7 +250,8 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
         state = 'cooling'
       }
       if (state === 'cooling' && clock === 'ready') {
-        await tx.insert(batchEvents).values({ batchId: id, fromState: 'cooling', toState: 'ready', at: row!.handlingAt, actorId: null })
+        // A core at handling temperature while still in the bath is safe once the bath stage ends.
+        await tx.insert(batchEvents).values({ batchId: id, fromState: 'cooling', toState: 'ready', at: new Date(Math.max(row!.handlingAt.getTime(), row!.quenchEnd.getTime())), actorId: null })
         state = 'ready'
       }
 

@@ -49,10 +49,11 @@ export async function saveFurnace(id: number | null, input: Partial<FurnaceData>
   try {
     const savedId = await useDb().transaction(async (tx) => {
       const { stationIds, ...values } = input
-      let furnaceId = id
-      if (furnaceId === null) {
+      let furnaceId: number
+      if (id === null) {
         ;[{ id: furnaceId }] = await tx.insert(furnaces).values(values as FurnaceData).$returningId()
       } else {
+        furnaceId = id
         const [before] = await tx.select({ id: furnaces.id }).from(furnaces).where(eq(furnaces.id, furnaceId)).for('update')
         if (!before) throw createError({ statusCode: 404, statusMessage: 'Furnace not found' })
         if (Object.keys(values).length) await tx.update(furnaces).set(values).where(eq(furnaces.id, furnaceId))
@@ -71,10 +72,11 @@ export async function saveFurnace(id: number | null, input: Partial<FurnaceData>
 export async function saveStation(id: number | null, input: Partial<StationData>, actorId: number): Promise<QuenchStation> {
   try {
     const savedId = await useDb().transaction(async (tx) => {
-      let stationId = id
-      if (stationId === null) {
+      let stationId: number
+      if (id === null) {
         ;[{ id: stationId }] = await tx.insert(quenchStations).values(input as StationData).$returningId()
       } else {
+        stationId = id
         const [before] = await tx.select({ id: quenchStations.id }).from(quenchStations).where(eq(quenchStations.id, stationId)).for('update')
         if (!before) throw createError({ statusCode: 404, statusMessage: 'Quench station not found' })
         if (Object.keys(input).length) await tx.update(quenchStations).set(input).where(eq(quenchStations.id, stationId))
