@@ -153,20 +153,22 @@ export interface ActualTimes {
  * and frees the furnace one transfer earlier.
  */
 export function deriveSlots(plannedCharge: number, d: SlotDurations, actual: ActualTimes = {}): Slots {
+  // Whole milliseconds, as the database stores them, so a proposed start books exactly.
+  const ms = (seconds: number) => Math.round(seconds * 1000)
   const charge = actual.chargedAt ?? plannedCharge
-  let furnaceEnd = charge + d.furnace_s * 1000
-  if (actual.soakingAt != null && d.minimumSoak_s !== null) furnaceEnd = actual.soakingAt + d.minimumSoak_s * 1000
-  let quenchStart = furnaceEnd + d.transfer_s * 1000
+  let furnaceEnd = charge + ms(d.furnace_s)
+  if (actual.soakingAt != null && d.minimumSoak_s !== null) furnaceEnd = actual.soakingAt + ms(d.minimumSoak_s)
+  let quenchStart = furnaceEnd + ms(d.transfer_s)
   if (actual.quenchedAt != null) {
     quenchStart = actual.quenchedAt
-    furnaceEnd = Math.max(charge, quenchStart - d.transfer_s * 1000)
+    furnaceEnd = Math.max(charge, quenchStart - ms(d.transfer_s))
   }
   return {
     furnaceStart: charge,
     furnaceEnd,
     quenchStart,
-    quenchEnd: quenchStart + d.quench_s * 1000,
-    handlingAt: quenchStart + d.quenchToHandling_s * 1000,
+    quenchEnd: quenchStart + ms(d.quench_s),
+    handlingAt: quenchStart + ms(d.quenchToHandling_s),
   }
 }
 

@@ -32,10 +32,10 @@ describe('slot derivation from an engine-computed summary', () => {
     expect(d.quenchToHandling_s).toBeCloseTo(quench.targetTime_s!, 9)
     const slots = deriveSlots(charge, d)
     expect(slots.furnaceStart).toBe(charge)
-    expect(slots.furnaceEnd).toBeCloseTo(charge + d.furnace_s * 1000, 3)
+    expect(slots.furnaceEnd).toBe(charge + Math.round(d.furnace_s * 1000))
     expect(slots.quenchStart - slots.furnaceEnd).toBe(60_000)
     expect(slots.quenchEnd - slots.quenchStart).toBe(180_000)
-    expect((slots.handlingAt - slots.quenchStart) / 1000).toBeCloseTo(quench.targetTime_s!, 6)
+    expect(slots.handlingAt - slots.quenchStart).toBe(Math.round(quench.targetTime_s! * 1000))
     // At the handling time the series the floor evaluates gives exactly the handling temperature.
     expect(pointValue(pin.handlingPointSeries, pin.quenchToHandling_s)).toBeCloseTo(100, 6)
   })
@@ -65,14 +65,14 @@ describe('slot derivation from an engine-computed summary', () => {
     const late = charge + 45 * 60_000
     const charged = deriveSlots(charge, d, { chargedAt: late })
     expect(charged.furnaceStart).toBe(late)
-    expect(charged.furnaceEnd - late).toBeCloseTo(d.furnace_s * 1000, 3)
+    expect(charged.furnaceEnd - late).toBe(Math.round(d.furnace_s * 1000))
     const atHeat = late + 1500_000
     const soaking = deriveSlots(charge, d, { chargedAt: late, soakingAt: atHeat })
     expect(soaking.furnaceEnd).toBe(atHeat + 1800_000)
     const quenched = late + 3 * 3600_000
     const inBath = deriveSlots(charge, d, { chargedAt: late, soakingAt: atHeat, quenchedAt: quenched })
     expect(inBath).toMatchObject({ furnaceEnd: quenched - 60_000, quenchStart: quenched, quenchEnd: quenched + 180_000 })
-    expect(inBath.handlingAt - quenched).toBeCloseTo(d.quenchToHandling_s * 1000, 3)
+    expect(inBath.handlingAt - quenched).toBe(Math.round(d.quenchToHandling_s * 1000))
   })
 })
 
@@ -152,16 +152,16 @@ describe('floor countdown', () => {
 
   it('right after the quench it counts the engine time to handling and predicts the core temperature', () => {
     const view = floorCountdown(batch, quenchedAt, 7200)
-    expect(view.seconds).toBeCloseTo(pin.quenchToHandling_s, 6)
+    expect(view.seconds).toBeCloseTo(pin.quenchToHandling_s, 2)
     expect(view.coreNow_C).toBeCloseTo(pointValue(pin.handlingPointSeries, 0), 9)
     const later = floorCountdown(batch, quenchedAt + 60_000, 7200)
     expect(later.coreNow_C).toBeCloseTo(pointValue(pin.handlingPointSeries, 60), 9)
-    expect(later.seconds).toBeCloseTo(pin.quenchToHandling_s - 60, 6)
+    expect(later.seconds).toBeCloseTo(pin.quenchToHandling_s - 60, 2)
   })
   it('at zero the core is at 100 °C; this plan keeps the load in the bath until its 180 s stage ends, then it is safe to handle', () => {
     const atZero = floorCountdown(batch, slots.handlingAt, 7200)
     expect(atZero.reached).toBe(true)
-    expect(atZero.coreNow_C).toBeCloseTo(100, 5)
+    expect(atZero.coreNow_C).toBeCloseTo(100, 3)
     expect(atZero.state).toBe('quenched')
     const out = floorCountdown(batch, slots.quenchEnd, 7200)
     expect(out.state).toBe('ready')
@@ -172,7 +172,7 @@ describe('floor countdown', () => {
   })
   it('in the furnace it counts to heat-up plus minimum soak, and flags a quench later than the allowance', () => {
     const inFurnace = { ...batch, state: 'soaking' as BatchState, quenchedAt: null, ...deriveSlots(charge, d, { chargedAt: charge }) }
-    expect(floorCountdown(inFurnace, charge, 7200).seconds).toBeCloseTo(pin.soak!.total_s, 6)
+    expect(floorCountdown(inFurnace, charge, 7200).seconds).toBeCloseTo(pin.soak!.total_s, 2)
     expect(floorCountdown(inFurnace, inFurnace.furnaceEnd + 600_000, 7200).flags.lateToQuench).toBe(false)
     expect(floorCountdown(inFurnace, inFurnace.furnaceEnd + 600_001, 7200).flags.lateToQuench).toBe(true)
   })

@@ -1,0 +1,171 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { DEMO_PLANS } from '../../server/db/demo/schedule'
+import { runCase } from '../../server/thermal/runCase'
+import { signInDemo, type Client } from '../support/http'
+import { booking, createLine, createPlan } from '../support/schedule'
+
+let admin: Client
+let metallurgist: Client
+let operator: Client
+let qa: Client
+let pin: Awaited<ReturnType<typeof createPlan>>
+const HOUR = 3600_000
+// The engine's own answers for the pin plan, for comparison with what the server derives.
+const heatUp_s = runCase(DEMO_PLANS[0]!.cases.heatUp).targetTime_s!
+const quenchToHandling_s = runCase(DEMO_PLANS[0]!.cases.quench).targetTime_s!
+const furnace_ms = (heatUp_s + 1800) * 1000
+
+/** A far-future day per test, so tests never share time on a line. */
+let day = 0
+const futureDay = () => Date.UTC(2032, 0, 1) + (day += 3) * 24 * HOUR + Math.floor(Math.random() * 1000) * 7 * 24 * HOUR
+
+beforeAll(async () => {
+  ;[admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+  pin = await createPlan('Pin for batch tests')
+})
+
+describe('booking', () => {
+  it('books a revision: load number, slots from the summary (heat-up + 1800 s soak, 60 s transfer, 180 s bath, engine time to handling)', async () => {
+    const line = await createLine(admin)
+    const charge = futureDay()
+    const response = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, 'Customer 7731') })
+    expect(response.status).toBe(201)
+    const b = response.body
+    expect(b.loadNumber).toMatch(/^KB-2032-\d{5}$/)
+    expect(b).toMatchObject({ state: 'planned', furnaceStart: charge, plannedCharge: charge, reference: 'Customer 7731', partCount: 24, mass_kg: 320, conflictWith: null })
+    expect(Math.abs(b.furnaceEnd - (charge + furnace_ms))).toBeLessThanOrEqual(1)
+    expect(b.quenchStart - b.furnaceEnd).toBe(60_000)
+    expect(b.quenchEnd - b.quenchStart).toBe(180_000)
+    expect(Math.abs(b.handlingAt - b.quenchStart - quenchToHandling_s * 1000)).toBeLessThanOrEqual(1)
+
+    const detail = await qa.request(`/api/batches/${b.id}`)
+    expect(detail.status).toBe(200)
+    expect(detail.body.events).toEqual([expect.objectContaining({ fromState: 'planned', toState: 'planned', actorName: 'Mira Okonkwo' })])
+    const week = await qa.request(`/api/batches?from=${new Date(charge - HOUR).toISOString()}&to=${new Date(charge + 24 * HOUR).toISOString()}&furnaceId=${line.furnace.id}`)
+    expect(week.body.batches.map((x: { loadNumber: string }) => x.loadNumber)).toEqual([b.loadNumber])
+  })
+
+  it('refuses an overlapping booking with 409 naming the colliding load and proposing its end as the next free start', async () => {
+    const line = await createLine(admin)
+    const charge = futureDay()
+    const first = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge) })
+    const clash = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge + 20 * 60_000) })
+    expect(clash.status).toBe(409)
+    expect(clash.body.statusMessage).toBe(`${line.furnace.name} is taken by ${first.body.loadNumber}`)
+    expect(clash.body.data.collidesWith).toEqual({ id: first.body.id, loadNumber: first.body.loadNumber, resource: 'furnace' })
+    expect(Date.parse(clash.body.data.nextFreeStart)).toBe(first.body.furnaceEnd)
+    const retry = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, Date.parse(clash.body.data.nextFreeStart)) })
+    expect(retry.status).toBe(201)
+  })
+
+  it('20 concurrent conflicting bookings on one furnace: exactly one wins, the rest name it', async () => {
+    const line = await createLine(admin)
+    const charge = futureDay()
+    const results = await Promise.all(
+      Array.from({ length: 20 }, (_, i) => metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge + i * 60_000, `Race ${i}`) })),
+    )
+    const winners = results.filter((r) => r.status === 201)
+    expect(winners).toHaveLength(1)
+    const losers = results.filter((r) => r.status === 409)
+    expect(losers).toHaveLength(19)
+    for (const loser of losers) expect(loser.body.data.collidesWith.loadNumber).toBe(winners[0]!.body.loadNumber)
+    const stored = await qa.request(`/api/batches?from=${new Date(charge - HOUR).toISOString()}&to=${new Date(charge + 48 * HOUR).toISOString()}&furnaceId=${line.furnace.id}`)
+    expect(stored.body.batches).toHaveLength(1)
+  })
+
+  it('a station shared by two furnaces is also never double-booked', async () => {
+    const a = await createLine(admin)
+    const b = await admin.request('/api/furnaces', { method: 'POST', body: { name: `Shared ${Date.now().toString(36)}`, kind: 'box', maxTemp_C: 1100, capacity_kg: 1000, zoneWidth_mm: 500, zoneDepth_mm: 500, zoneHeight_mm: 500, stationIds: [a.station.id] } })
+    const charge = futureDay()
+    const first = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, a, charge) })
+    const second = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, { furnace: b.body, station: a.station }, charge + 60_000) })
+    expect(second.status).toBe(409)
+    expect(second.body.data.collidesWith).toMatchObject({ loadNumber: first.body.loadNumber, resource: 'station' })
+    // The bath must start when the first bath ends: start = bath end − (furnace time + transfer).
+    expect(Date.parse(second.body.data.nextFreeStart)).toBe(first.body.quenchEnd - (first.body.quenchStart - first.body.furnaceStart))
+  })
+
+  it('400 naming each missing or wrong field, 422 for a station that does not serve the furnace, 403 for operators', async () => {
+    const bad = await metallurgist.request('/api/batches', { method: 'POST', body: { furnaceId: 'one', partCount: 0, mass_kg: -1, plannedCharge: 'tomorrow' } })
+    expect(bad.status).toBe(400)
+    const fields = bad.body.data.problems.map((p: { field: string }) => p.field)
+    expect(fields).toEqual(expect.arrayContaining(['planRevisionId', 'furnaceId', 'stationId', 'plannedCharge', 'partCount', 'mass_kg', 'reference']))
+    const a = await createLine(admin)
+    const other = await createLine(admin)
+    const wrong = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, { furnace: a.furnace, station: other.station }, futureDay()) })
+    expect(wrong.status).toBe(422)
+    expect(wrong.body.data.problems[0].field).toBe('stationId')
+    expect((await operator.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, a, futureDay()) })).status).toBe(403)
+  })
+})
+
+describe('state moves on the floor', () => {
+  it('only in order, only by the allowed roles; a repeated tap changes nothing; backwards is refused', async () => {
+    const line = await createLine(admin)
+    const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
+    const move = (client: Client, to: string) => client.request(`/api/batches/${booked.body.id}/events`, { method: 'POST', body: { to } })
+
+    const skipped = await move(operator, 'quenched')
+    expect(skipped.status).toBe(409)
+    expect(skipped.body.data).toEqual({ currentState: 'planned', requestedState: 'quenched' })
+    expect(skipped.body.statusMessage).toContain('(planned)')
+    expect(skipped.body.statusMessage).toContain('(quenched)')
+    expect((await move(metallurgist, 'charged')).status).toBe(403)
+    expect((await move(qa, 'charged')).status).toBe(403)
+    expect((await move(operator, 'cancelled')).status).toBe(403)
+
+    const before = Date.now()
+    const charged = await move(operator, 'charged')
+    expect(charged.status).toBe(201)
+    expect(charged.body.batch.state).toBe('charged')
+    expect(charged.body.batch.chargedAt).toBeGreaterThanOrEqual(before - 1000)
+    expect(charged.body.batch.chargedAt).toBeLessThanOrEqual(Date.now() + 1000)
+    const again = await move(operator, 'charged')
+    expect(again.status).toBe(200)
+    expect(again.body).toMatchObject({ repeated: true, batch: { chargedAt: charged.body.batch.chargedAt } })
+
+    expect((await move(operator, 'soaking')).status).toBe(201)
+    const back = await move(operator, 'charged')
+    expect(back.status).toBe(409)
+    expect(back.body.data).toEqual({ currentState: 'soaking', requestedState: 'charged' })
+    expect((await move(operator, 'planned')).status).toBe(409)
+    expect((await move(admin, 'ready')).status).toBe(409)
+    expect((await move(operator, 'released')).status).toBe(409)
+
+    const detail = await qa.request(`/api/batches/${booked.body.id}`)
+    expect(detail.body.events.map((e: { toState: string; actorName: string }) => [e.toState, e.actorName])).toEqual([
+      ['planned', 'Mira Okonkwo'],
+      ['charged', 'Tomas Vidal'],
+      ['soaking', 'Tomas Vidal'],
+    ])
+    const audit = await admin.request('/api/audit?entityType=batch&limit=100')
+    expect(audit.body.filter((e: { entityId: string }) => e.entityId === String(booked.body.id)).map((e: { action: string }) => e.action).sort()).toEqual(['batch.book', 'batch.charged', 'batch.soaking'])
+  })
+
+  it('a late charge moves the later slots and flags the next booking on the furnace; withdrawing the late load clears the flag', async () => {
+    const line = await createLine(admin)
+    const plannedA = Date.now() - 30 * 60_000
+    const a = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, plannedA, 'Early') })
+    expect(a.status).toBe(201)
+    const b = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, a.body.furnaceEnd + 5 * 60_000, 'Next') })
+    expect(b.status).toBe(201)
+
+    const charged = await operator.request(`/api/batches/${a.body.id}/events`, { method: 'POST', body: { to: 'charged' } })
+    expect(charged.status).toBe(201)
+    const moved = charged.body.batch
+    expect(moved.furnaceStart).toBe(moved.chargedAt)
+    expect(moved.chargedAt - plannedA).toBeGreaterThan(29 * 60_000)
+    expect(Math.abs(moved.furnaceEnd - (moved.chargedAt + furnace_ms))).toBeLessThanOrEqual(1)
+    expect(moved.quenchStart - moved.furnaceEnd).toBe(60_000)
+    expect(Math.abs(moved.handlingAt - moved.quenchStart - quenchToHandling_s * 1000)).toBeLessThanOrEqual(1)
+
+    const next = (await qa.request(`/api/batches/${b.body.id}`)).body
+    expect(next.conflictWith).toBe(a.body.loadNumber)
+    expect(next.conflictNote).toContain(`Furnace still holds ${a.body.loadNumber}`)
+    expect(next.furnaceStart).toBe(b.body.furnaceStart)
+
+    const withdrawn = await metallurgist.request(`/api/batches/${a.body.id}/events`, { method: 'POST', body: { to: 'cancelled' } })
+    expect(withdrawn.status).toBe(201)
+    expect((await qa.request(`/api/batches/${b.body.id}`)).body.conflictWith).toBeNull()
+  })
+})
