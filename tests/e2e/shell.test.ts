@@ -13,10 +13,10 @@ afterAll(async () => {
 })
 
 const expectedNavigation: Record<Role, string[]> = {
-  admin: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
-  metallurgist: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
-  operator: ['Shift overview', 'Plans', 'Materials', 'Quench media'],
-  qa: ['Shift overview', 'Plans', 'Materials', 'Quench media', 'Audit trail'],
+  admin: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Quench media', 'Furnaces', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
+  metallurgist: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Quench media'],
+  operator: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Quench media'],
+  qa: ['Shift overview', 'Plans', 'Schedule', 'Materials', 'Quench media', 'Audit trail'],
 }
 
 describe('the signed-in shell', () => {
