@@ -118,11 +118,11 @@ async function lockResources(tx: Transaction, furnaceId: number, stationId: numb
 }
 
 async function nextLoadNumber(tx: Transaction, year: number): Promise<string> {
-  const [counter] = await tx.select().from(loadCounters).where(eq(loadCounters.year, year)).for('update')
-  const next = (counter?.last ?? 0) + 1
-  if (counter) await tx.update(loadCounters).set({ last: next }).where(eq(loadCounters.year, year))
-  else await tx.insert(loadCounters).values({ year, last: next })
-  return loadNumber(LOAD_PREFIX, year, next)
+  // One upsert, not select-then-insert: two bookings on different furnaces could
+  // otherwise both find no row for a new year and both insert it.
+  await tx.insert(loadCounters).values({ year, last: 1 }).onDuplicateKeyUpdate({ set: { last: sql`${loadCounters.last} + 1` } })
+  const [counter] = await tx.select().from(loadCounters).where(eq(loadCounters.year, year))
+  return loadNumber(LOAD_PREFIX, year, counter!.last)
 }
 
 /**
