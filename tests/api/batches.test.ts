@@ -31,7 +31,7 @@ describe('booking', () => {
     const response = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, 'Customer 7731') })
     expect(response.status).toBe(201)
     const b = response.body
-    expect(b.loadNumber).toMatch(/^KB-2032-\d{5}$/)
+    expect(b.loadNumber).toMatch(new RegExp(`^KB-${new Date(charge).getUTCFullYear()}-\\d{5}$`))
     expect(b).toMatchObject({ state: 'planned', furnaceStart: charge, plannedCharge: charge, reference: 'Customer 7731', partCount: 24, mass_kg: 320, conflictWith: null })
     expect(Math.abs(b.furnaceEnd - (charge + furnace_ms))).toBeLessThanOrEqual(1)
     expect(b.quenchStart - b.furnaceEnd).toBe(60_000)
