@@ -1,4 +1,5 @@
 import { and, desc, eq, inArray } from 'drizzle-orm'
+import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
@@ -8,6 +9,7 @@ import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } fro
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
 import { recordAudit } from './audit'
+import { useDb } from './db'
 
 const planId = z.coerce.number({ message: 'Plan id must be a number' }).int().positive('Plan id must be positive')
 /** Path parameters of the /api/plans/[id] routes. */
@@ -123,13 +125,14 @@ async function insertRevision(tx: Transaction, planId: number, revision: number,
   return result
 }
 
-export async function createPlan(spec: PlanSpec, actorId: number, note: string | null = null): Promise<PlanDetail> {
-  const resolved = await resolvePlan(spec)
-  return await createFromResolved(resolved, actorId, note, 'plan.create')
+/** What POST /api/plans does; the demo seed calls it too (with the script's database), so demo plans are ordinary plans. */
+export async function createPlan(spec: PlanSpec, actorId: number, note: string | null = null, db: Database = useDb()): Promise<PlanDetail> {
+  const resolved = await resolvePlan(spec, db)
+  return await createFromResolved(resolved, actorId, note, 'plan.create', {}, db)
 }
 
-async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}): Promise<PlanDetail> {
-  const id = await useDb().transaction(async (tx) => {
+async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}, db: Database = useDb()): Promise<PlanDetail> {
+  const id = await db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(plans).values({ name: resolved.name, latestRevision: 1, createdBy: actorId }).$returningId()
     const result = await insertRevision(tx, id, 1, resolved, note, actorId)
     await recordAudit(tx, {
@@ -141,7 +144,7 @@ async function createFromResolved(resolved: ResolvedPlan, actorId: number, note:
     })
     return id
   })
-  return await getPlan(id)
+  return await getPlan(id, undefined, db)
 }
 
 /** An edit is a new revision; earlier revisions are never touched. */
@@ -175,12 +178,11 @@ export async function duplicatePlan(id: number, actorId: number): Promise<PlanDe
 }
 
 /** The given revision (default: latest) with its freshly computed result and the revision list. */
-export async function getPlan(id: number, revision?: number): Promise<PlanDetail> {
-  const db = useDb()
+export async function getPlan(id: number, revision?: number, db: Database = useDb()): Promise<PlanDetail> {
   const [plan] = await db.select().from(plans).where(eq(plans.id, id))
   if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
   const revisions = await db
-    .select({ revision: planRevisions.revision, note: planRevisions.note, createdAt: planRevisions.createdAt, summary: planRevisions.summary, spec: planRevisions.spec, createdBy: users.displayName })
+    .select({ id: planRevisions.id, revision: planRevisions.revision, note: planRevisions.note, createdAt: planRevisions.createdAt, summary: planRevisions.summary, spec: planRevisions.spec, createdBy: users.displayName })
     .from(planRevisions)
     .leftJoin(users, eq(users.id, planRevisions.createdBy))
     .where(eq(planRevisions.planId, id))
@@ -194,6 +196,7 @@ export async function getPlan(id: number, revision?: number): Promise<PlanDetail
     name: plan.name,
     latestRevision: plan.latestRevision,
     revision: row.revision,
+    planRevisionId: row.id,
     note: row.note,
     spec,
     result: computeResolved(spec),

@@ -90,6 +90,8 @@ export interface PlanDetail {
   name: string
   latestRevision: number
   revision: number
+  /** The revision's row id: what a booking on the schedule refers to. */
+  planRevisionId: number
   note: string | null
   spec: ResolvedPlan
   result: PlanResult
