@@ -42,10 +42,13 @@ export function readSummary(value: unknown): PlanSummary | null {
   return s
 }
 
-/** The plan's own quench-delay allowance when its spec states one (seconds), else the shop's. */
+/**
+ * The plan's own quench-delay allowance when its spec states one (seconds), else the
+ * shop's. The planner stores null for "not set"; 0 is a real choice (straight into the bath).
+ */
 function quenchDelayAllowance(spec: unknown, settings: ShopSettings): number {
   const value = (spec as { quenchDelayAllowance_s?: unknown } | null)?.quenchDelayAllowance_s
-  return typeof value === 'number' && value > 0 ? value : settings.quenchDelayAllowance_s
+  return typeof value === 'number' && value >= 0 ? value : settings.quenchDelayAllowance_s
 }
 
 function durationsOf(row: BatchRow): SlotDurations {
