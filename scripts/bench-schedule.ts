@@ -7,7 +7,7 @@ import { migrate } from 'drizzle-orm/mysql2/migrator'
 import { createDatabase } from '../server/db/client'
 import { batches, furnaceStations, furnaces, quenchStations, users } from '../server/db/schema'
 import { seedDemoData } from '../server/db/demo/seed'
-import { DEMO_PLANS, insertComputedPlan } from '../server/db/demo/schedule'
+import { demoPlanRevisions } from '../server/db/demo/schedule'
 import { bookBatch, listBatches } from '../server/utils/batches'
 import { DEFAULT_SHOP_SETTINGS, deriveSlots, loadNumber, slotDurations } from '../shared/schedule'
 
@@ -34,12 +34,10 @@ const stats = (samples: number[]) => {
 
 try {
   await migrate(db, { migrationsFolder: `${root}server/db/migrations` })
+  // Demo people, library and plans (created by the planner's service); the bench books the pin and the plate.
   await seedDemoData(db)
   const [metallurgist] = (await db.select().from(users)).filter((u) => u.role === 'metallurgist')
-  const plans = [
-    await insertComputedPlan(db, 'Bench pin', DEMO_PLANS[0]!.cases, null),
-    await insertComputedPlan(db, 'Bench plate', DEMO_PLANS[1]!.cases, null),
-  ]
+  const plans = (await demoPlanRevisions(db)).slice(0, 2)
   const lines: { furnaceId: number; stationId: number }[] = []
   for (let i = 0; i < FURNACES; i++) {
     const [{ id: furnaceId }] = await db.insert(furnaces).values({ name: `Bench furnace ${i + 1}`, kind: 'box', maxTemp_C: 1100, capacity_kg: 2000, zoneWidth_mm: 900, zoneDepth_mm: 900, zoneHeight_mm: 900 }).$returningId()

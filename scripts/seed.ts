@@ -8,7 +8,7 @@ try {
   const seeded = await seedDemoData(db)
   const parts = Object.entries(seeded).filter(([, total]) => total > 0).map(([table, total]) => `${total} ${table}`)
   console.log(parts.length ? `[seed] demo shop: added ${parts.join(', ')}` : '[seed] every demo table has rows already; left alone')
-  if (await seedDemoSchedule(db)) console.log('[seed] demo furnaces, quench stations, plans and two days of loads created')
+  if (await seedDemoSchedule(db)) console.log('[seed] demo furnaces, quench stations and two days of loads created')
 } finally {
   await pool.end()
 }

@@ -1,18 +1,20 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { DEMO_PLANS } from '../../server/db/demo/schedule'
 import { runCase } from '../../server/thermal/runCase'
 import { signInDemo, type Client } from '../support/http'
-import { booking, createLine, createPlan } from '../support/schedule'
+import { createLibraryFixture, type LibraryFixture } from '../support/library'
+import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, pinSpec, savePlan, type SavedPlan } from '../support/plans'
+import { booking, createLine } from '../support/schedule'
 
 let admin: Client
 let metallurgist: Client
 let operator: Client
 let qa: Client
-let pin: Awaited<ReturnType<typeof createPlan>>
+let lib: LibraryFixture
+let pin: SavedPlan
 const HOUR = 3600_000
-// The engine's own answers for the pin plan, for comparison with what the server derives.
-const heatUp_s = runCase(DEMO_PLANS[0]!.cases.heatUp).targetTime_s!
-const quenchToHandling_s = runCase(DEMO_PLANS[0]!.cases.quench).targetTime_s!
+// The engine's own answers for the pin plan, called on the same pin written by hand, for comparison with what the server derives.
+const heatUp_s = runCase(PIN_HEAT_UP_CASE).targetTime_s!
+const quenchToHandling_s = runCase(PIN_QUENCH_CASE).targetTime_s!
 const furnace_ms = (heatUp_s + 1800) * 1000
 
 /** A far-future day per test, so tests never share time on a line. */
@@ -21,7 +23,8 @@ const futureDay = () => Date.UTC(2032, 0, 1) + (day += 3) * 24 * HOUR + Math.flo
 
 beforeAll(async () => {
   ;[admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
-  pin = await createPlan('Pin for batch tests')
+  lib = await createLibraryFixture(metallurgist)
+  pin = await savePlan(metallurgist, pinSpec(lib))
 })
 
 describe('booking', () => {
@@ -96,6 +99,21 @@ describe('booking', () => {
     expect(wrong.status).toBe(422)
     expect(wrong.body.data.problems[0].field).toBe('stationId')
     expect((await operator.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, a, futureDay()) })).status).toBe(403)
+  })
+})
+
+describe('the plan\'s quench-delay allowance', () => {
+  it('a plan that sets one books with it (including 0 s); a plan that leaves it unset (null) books with the shop\'s', async () => {
+    const shop = (await admin.request('/api/schedule/settings')).body.quenchDelayAllowance_s
+    expect(shop).toBeGreaterThan(0)
+    for (const [allowance, expected] of [[240, 240], [0, 0], [null, shop]] as const) {
+      const plan = await savePlan(metallurgist, { ...pinSpec(lib), quenchDelayAllowance_s: allowance })
+      const line = await createLine(admin)
+      const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, futureDay()) })
+      expect(booked.status).toBe(201)
+      const detail = (await qa.request(`/api/batches/${booked.body.id}`)).body
+      expect(detail.durations.quenchDelayAllowance_s, `plan allowance ${allowance}`).toBe(expected)
+    }
   })
 })
 

@@ -3,15 +3,16 @@ import bessel from 'bessel'
 import { runCase } from '../../server/thermal/runCase'
 import { productTimeToCentre } from '../../server/thermal/productSolutions'
 import { pointValue } from '../../shared/pointSeries'
+import { DEMO_PLANS } from '../../server/db/demo/plans'
 import { anonymous, signInDemo, type Client } from '../support/http'
-import { createLibraryFixture, withTestDb, type LibraryFixture } from '../support/library'
+import { createLibraryFixture, type LibraryFixture } from '../support/library'
 
 let metallurgist: Client
 let lib: LibraryFixture
 
 beforeAll(async () => {
   metallurgist = await signInDemo('metallurgist')
-  lib = await createLibraryFixture()
+  lib = await createLibraryFixture(metallurgist)
 })
 
 /** A 40 mm bar from 850 °C: 60 s in oil, then still air until the centre is below 100 °C; soak at 850 °C. */
@@ -137,12 +138,13 @@ describe('plans: compute and save', () => {
   })
 
   it('a saved revision recomputes from its copied values after the library row changes', async () => {
-    await withTestDb((db) => db.execute('UPDATE materials SET k_w_mk = 20 WHERE id = ?', [lib.steelId]))
+    const edit = (k_W_mK: number) => metallurgist.request(`/api/materials/${lib.steelId}`, { method: 'PATCH', body: { k_W_mK } })
+    expect((await edit(20)).status).toBe(200)
     try {
       const first = await metallurgist.request(`/api/plans/${created.id}/revisions/1`)
       expect(first.body.result.quenchToHandling_s).toBeCloseTo(created.result.quenchToHandling_s, 9)
     } finally {
-      await withTestDb((db) => db.execute('UPDATE materials SET k_w_mk = 40 WHERE id = ?', [lib.steelId]))
+      await edit(40)
     }
   })
 
@@ -260,5 +262,23 @@ describe('plans: short cylinder by product solutions', () => {
     )
     expect(response.body.quenchToHandling_s / expected - 1).toBeLessThan(1e-6)
     expect(response.body.quenchToHandling_s / expected - 1).toBeGreaterThan(-1e-6)
+  })
+})
+
+describe('plans: the seeded demo shop', () => {
+  it('every demo plan was saved by the planner and opens in the editor with the demo library it names', async () => {
+    const list = (await metallurgist.request('/api/plans')).body as { id: number; name: string; quenchToHandling_s: number }[]
+    for (const demo of DEMO_PLANS) {
+      const row = list.find((p) => p.name === demo.name)
+      expect(row, demo.name).toBeDefined()
+      const opened = await metallurgist.request(`/api/plans/${row!.id}`)
+      expect(opened.status).toBe(200)
+      expect(opened.body.spec.library.material.name).toBe(demo.material)
+      expect(opened.body.spec.library.quenchants.map((q: { name: string }) => q.name).sort()).toEqual([...new Set(demo.stages.map((s) => s.quenchant))].sort())
+      expect(opened.body.spec.quenchDelayAllowance_s).toBe(demo.quenchDelayAllowance_s)
+      // The stored summary (what the schedule books from) is the editor's result, recomputed from the stored values.
+      expect(opened.body.result.quenchToHandling_s).toBeCloseTo(row!.quenchToHandling_s, 9)
+      expect(opened.body.revisions[0].createdBy).toBe('Mira Okonkwo')
+    }
   })
 })

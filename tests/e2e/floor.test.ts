@@ -1,16 +1,22 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
+import { runCase } from '../../server/thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
+import type { PlanSpecInput } from '../../shared/schemas/plan'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
-import { THIN_SHEET, booking, createLine, createPlan } from '../support/schedule'
+import { createLibraryFixture, type LibraryFixture } from '../support/library'
+import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, THIN_SHEET_QUENCH_CASE, pinSpec, savePlan, thinSheetSpec } from '../support/plans'
+import { booking, createLine } from '../support/schedule'
 
 let browser: Browser
 let admin: Client
 let metallurgist: Client
+let lib: LibraryFixture
 beforeAll(async () => {
   browser = await launchBrowser()
   ;[admin, metallurgist] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist')])
+  lib = await createLibraryFixture(metallurgist)
 })
 afterAll(async () => {
   await browser?.close()
@@ -21,8 +27,9 @@ async function tapAndConfirm(page: Page, card: ReturnType<Page['getByTestId']>, 
   await card.getByRole('button', { name: `Confirm: ${label}` }).click()
 }
 
-async function bookOnNewLine(cases?: Parameters<typeof createPlan>[1]) {
-  const plan = await createPlan('Floor test', cases)
+/** Saves the plan through the planner, then books it on a line of its own, due in ten minutes. */
+async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib)) {
+  const plan = await savePlan(metallurgist, spec)
   const line = await createLine(admin, 'Floor')
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 10 * 60_000, 'Floor run') })
   expect(booked.status).toBe(201)
@@ -32,6 +39,9 @@ async function bookOnNewLine(cases?: Parameters<typeof createPlan>[1]) {
 describe('the floor countdown on a 1280×800 tablet', () => {
   it('an operator charges, marks core at heat, starts the quench and sees the engine time to handling counting down', async () => {
     const { plan, line, batch } = await bookOnNewLine()
+    // Source: the engine called directly on the same pin written by hand.
+    const engineHeatUp_s = runCase(PIN_HEAT_UP_CASE).targetTime_s!
+    const engineToHandling_s = runCase(PIN_QUENCH_CASE).targetTime_s!
     const page = await tabletPage(browser)
     await signInThroughPage(page, 'operator', '/floor')
     await page.getByRole('button', { name: line.furnace.name }).click()
@@ -45,7 +55,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'charged', batch.loadNumber)
     // In the furnace the count is heat-up + minimum soak from the charge.
     const soakLeft = Number(await card.getByTestId('countdown').getAttribute('data-seconds'))
-    expect(Math.abs(soakLeft - plan.summary.soak!.total_s)).toBeLessThanOrEqual(2)
+    expect(Math.abs(soakLeft - (engineHeatUp_s + 1800))).toBeLessThanOrEqual(2)
 
     await tapAndConfirm(page, card, 'Core at heat')
     await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'soaking', batch.loadNumber)
@@ -54,8 +64,9 @@ describe('the floor countdown on a 1280×800 tablet', () => {
 
     const detail = (await admin.request(`/api/batches/${batch.id}`)).body
     expect(detail.handlingAt - detail.quenchedAt).toBe(Math.round(plan.summary.quenchToHandling_s * 1000))
+    expect(plan.summary.quenchToHandling_s).toBeCloseTo(engineToHandling_s, 6)
     const shown = Number(await card.getByTestId('countdown').getAttribute('data-seconds'))
-    const expected = plan.summary.quenchToHandling_s - (Date.now() - detail.quenchedAt) / 1000
+    const expected = engineToHandling_s - (Date.now() - detail.quenchedAt) / 1000
     expect(Math.abs(shown - expected)).toBeLessThanOrEqual(1)
     const core = Number((await card.getByTestId('core-now').textContent())!.match(/≈\s*(-?\d+)/)![1])
     expect(Math.abs(core - pointValue(plan.summary.handlingPointSeries, (Date.now() - detail.quenchedAt) / 1000))).toBeLessThanOrEqual(15)
@@ -74,7 +85,8 @@ describe('the floor countdown on a 1280×800 tablet', () => {
   })
 
   it('a thin sheet reaches handling temperature within seconds: the card turns safe to handle and is handed on', async () => {
-    const { plan, line, batch } = await bookOnNewLine(THIN_SHEET)
+    const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib))
+    expect(plan.summary.quenchToHandling_s).toBeCloseTo(runCase(THIN_SHEET_QUENCH_CASE).targetTime_s!, 6)
     expect(plan.summary.quenchToHandling_s).toBeLessThan(10)
     const page = await tabletPage(browser)
     await signInThroughPage(page, 'operator', '/floor')

@@ -2,13 +2,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
+import { signInDemo } from '../support/http'
 import { runCase } from '../../server/thermal/runCase'
 
 let browser: Browser
 let lib: LibraryFixture
 beforeAll(async () => {
   browser = await launchBrowser()
-  lib = await createLibraryFixture()
+  lib = await createLibraryFixture(await signInDemo('metallurgist'))
 })
 afterAll(async () => {
   await browser?.close()

@@ -2,13 +2,16 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
-import { createLine, createPlan } from '../support/schedule'
+import { createLibraryFixture } from '../support/library'
+import { pinSpec, savePlan } from '../support/plans'
+import { createLine } from '../support/schedule'
 
 let browser: Browser
 let admin: Client
+let metallurgist: Client
 beforeAll(async () => {
   browser = await launchBrowser()
-  admin = await signInDemo('admin')
+  ;[admin, metallurgist] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist')])
 })
 afterAll(async () => {
   await browser?.close()
@@ -16,7 +19,7 @@ afterAll(async () => {
 
 describe('the schedule timeline', () => {
   it('a metallurgist clicks free time in a furnace lane and books a load there', async () => {
-    const plan = await createPlan('Timeline booking')
+    const plan = await savePlan(metallurgist, pinSpec(await createLibraryFixture(metallurgist)))
     const line = await createLine(admin, 'Timeline')
     const page = await tabletPage(browser)
     await signInThroughPage(page, 'metallurgist', '/schedule')

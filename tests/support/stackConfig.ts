@@ -5,5 +5,3 @@ export const MAIL_SMTP_PORT = Number(process.env.SLAKEWISE_TEST_SMTP_PORT ?? 102
 export const MAIL_WEB_PORT = Number(process.env.SLAKEWISE_TEST_MAIL_WEB_PORT ?? 1081)
 export const MAIL_API = `http://127.0.0.1:${MAIL_WEB_PORT}`
 export const AUTH_SECRET = 'slakewise-test-secret-not-for-production'
-/** The test stack's database (tests/setup/stack.ts migrates and seeds it), for fixtures the API has no route for. */
-export const TEST_DATABASE_URL = `mysql://slakewise:${process.env.SLAKEWISE_DB_PASSWORD ?? 'slakewise'}@127.0.0.1:${process.env.SLAKEWISE_TEST_DB_PORT ?? 3308}/slakewise_test`

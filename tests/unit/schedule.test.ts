@@ -1,6 +1,4 @@
 import { describe, expect, it } from 'vitest'
-import { DEMO_PLANS } from '../../server/db/demo/schedule'
-import { summaryFromCases } from '../../server/utils/planSummary'
 import { runCase } from '../../server/thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
 import { floorCountdown } from '../../shared/floorCountdown'
@@ -16,16 +14,27 @@ import {
   type BatchState,
 } from '../../shared/schedule'
 import type { Role } from '../../shared/roles'
+import { OFFLINE_LIBRARY as lib } from '../support/library'
+import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, offlineSummary, pinSpec } from '../support/plans'
 
-const pin = summaryFromCases(DEMO_PLANS[0]!.cases)
-const flange = summaryFromCases(DEMO_PLANS[2]!.cases)
+// Summaries from the planner's own compute, as a saved revision stores them.
+const pin = offlineSummary(pinSpec(lib))
+/** A Ø120 bar, 600 s in oil then still air, without soak planning. */
+const flange = offlineSummary({
+  ...pinSpec(lib),
+  name: 'Bar Ø120 oil then air, no soak planning',
+  part: { shape: 'round-bar', diameter_m: 0.12 },
+  stages: [{ quenchantId: lib.oilId, duration_s: 600 }, { quenchantId: lib.airId }],
+  handling: { below_C: 80, at: 'centre' },
+  soak: null,
+})
 const charge = Date.UTC(2031, 2, 3, 6, 0, 0)
 
-describe('slot derivation from an engine-computed summary', () => {
+describe('slot derivation from a planner-computed summary', () => {
   it('the pin plan: furnace = heat-up + minimum soak, 60 s transfer, bath = first stage (180 s), handling from the quench start', () => {
     const d = slotDurations(pin, DEFAULT_SHOP_SETTINGS)
-    const quench = runCase(DEMO_PLANS[0]!.cases.quench)
-    const heat = runCase(DEMO_PLANS[0]!.cases.heatUp)
+    const quench = runCase(PIN_QUENCH_CASE)
+    const heat = runCase(PIN_HEAT_UP_CASE)
     expect(d.furnace_s).toBeCloseTo(heat.targetTime_s! + 1800, 9)
     expect(d.quench_s).toBe(180)
     expect(d.transfer_s).toBe(60)
@@ -55,7 +64,7 @@ describe('slot derivation from an engine-computed summary', () => {
   })
 
   it('a single-stage quench holds the station until handling', () => {
-    const single = summaryFromCases({ quench: { ...DEMO_PLANS[0]!.cases.quench, stages: [{ surface: { h: 800, ambient_C: 60 } }] } })
+    const single = offlineSummary({ ...pinSpec(lib), stages: [{ quenchantId: lib.oilId }] })
     expect(single.handlingPointSeries).toHaveLength(1)
     expect(slotDurations(single, DEFAULT_SHOP_SETTINGS).quench_s).toBe(single.quenchToHandling_s)
   })

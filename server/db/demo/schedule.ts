@@ -1,73 +1,35 @@
-import { count, eq } from 'drizzle-orm'
+import { and, count, eq, inArray } from 'drizzle-orm'
 import type { Database } from '../client'
 import { batchEvents, batches, furnaceStations, furnaces, planRevisions, plans, quenchStations, users } from '../schema'
-import { summaryFromCases, type SummaryCases } from '../../utils/planSummary'
 import { bookBatch } from '../../utils/batches'
 import { deriveSlots, type BatchState } from '../../../shared/schedule'
+import type { ResolvedPlan } from '../../../shared/schemas/plan'
+import type { QuenchantKind } from '../../../shared/schemas/quenchant'
 import type { PlanSummary } from '../../../shared/types/plan'
+import { DEMO_PLANS } from './plans'
 
-const steel = { k: 40, rho: 7850, cp: 475 }
+export interface DemoPlanRevision {
+  planRevisionId: number
+  summary: PlanSummary
+  /** The first stage's medium: the kind of tank the load goes into. */
+  bathKind: QuenchantKind
+}
 
-/**
- * Demo plans for Kestrel Bay as engine cases. size_m is the half-thickness (slab)
- * or radius (rod); coefficients are the shop's invented calibration figures.
- */
-export const DEMO_PLANS: { name: string; cases: SummaryCases }[] = [
-  {
-    name: 'Drive pin Ø40 — oil, then still air',
-    cases: {
-      quench: {
-        geometry: 'rod', size_m: 0.02, material: steel, initial_C: 850,
-        stages: [{ surface: { h: 800, ambient_C: 60 }, duration_s: 180 }, { surface: { h: 15, ambient_C: 25 } }],
-        target: { at: 'centre', below_C: 100 },
-      },
-      heatUp: {
-        geometry: 'rod', size_m: 0.02, material: steel, initial_C: 20,
-        stages: [{ surface: { h: 120, ambient_C: 860 } }],
-        target: { at: 'centre', above_C: 850 },
-      },
-      furnace_C: 860,
-      minimumSoak_s: 1800,
-    },
-  },
-  {
-    name: 'Wear plate 30 mm — water, then still air',
-    cases: {
-      quench: {
-        geometry: 'slab', size_m: 0.015, material: steel, initial_C: 880,
-        stages: [{ surface: { h: 3000, ambient_C: 30 }, duration_s: 90 }, { surface: { h: 15, ambient_C: 25 } }],
-        target: { at: 'centre', below_C: 60 },
-      },
-      heatUp: {
-        geometry: 'slab', size_m: 0.015, material: steel, initial_C: 20,
-        stages: [{ surface: { h: 150, ambient_C: 890 } }],
-        target: { at: 'centre', above_C: 880 },
-      },
-      furnace_C: 890,
-      minimumSoak_s: 2400,
-    },
-  },
-  {
-    name: 'Flange Ø120 — polymer bath, no soak planning',
-    cases: {
-      quench: {
-        geometry: 'rod', size_m: 0.06, material: steel, initial_C: 860,
-        stages: [{ surface: { h: 1500, ambient_C: 40 }, duration_s: 600 }, { surface: { h: 15, ambient_C: 25 } }],
-        target: { at: 'centre', below_C: 80 },
-      },
-    },
-  },
-]
-
-/** Inserts a plan with one revision whose summary the engine computed. */
-export async function insertComputedPlan(db: Database, name: string, cases: SummaryCases, createdBy: number | null): Promise<{ planId: number; planRevisionId: number; summary: PlanSummary }> {
-  const summary = summaryFromCases(cases)
-  const [{ id: planId }] = await db.insert(plans).values({ name, createdBy }).$returningId()
-  const [{ id: planRevisionId }] = await db
-    .insert(planRevisions)
-    .values({ planId, revision: 1, spec: { cases }, summary: summary as unknown as Record<string, unknown>, note: 'Computed for the demo shop', createdBy })
-    .$returningId()
-  return { planId, planRevisionId, summary }
+/** The latest revisions of the seeded demo plans, in DEMO_PLANS order (for the demo schedule and the schedule benchmark). */
+export async function demoPlanRevisions(db: Database): Promise<DemoPlanRevision[]> {
+  const names = DEMO_PLANS.map((p) => p.name)
+  const rows = await db
+    .select({ name: plans.name, planRevisionId: planRevisions.id, spec: planRevisions.spec, summary: planRevisions.summary })
+    .from(plans)
+    .innerJoin(planRevisions, and(eq(planRevisions.planId, plans.id), eq(planRevisions.revision, plans.latestRevision)))
+    .where(inArray(plans.name, names))
+  return rows
+    .sort((a, b) => names.indexOf(a.name) - names.indexOf(b.name))
+    .map((row) => {
+      const spec = row.spec as ResolvedPlan
+      const first = spec.library.quenchants.find((q) => q.id === spec.stages[0]!.quenchantId)!
+      return { planRevisionId: row.planRevisionId, summary: row.summary as unknown as PlanSummary, bathKind: first.kind }
+    })
 }
 
 /**
@@ -80,7 +42,8 @@ export async function seedDemoSchedule(db: Database): Promise<boolean> {
   if (total > 0) return false
   const [metallurgist] = await db.select().from(users).where(eq(users.role, 'metallurgist'))
   const [operator] = await db.select().from(users).where(eq(users.role, 'operator'))
-  if (!metallurgist || !operator) return false
+  const demoPlans = await demoPlanRevisions(db)
+  if (!metallurgist || !operator || demoPlans.length === 0) return false
 
   const furnaceIds: number[] = []
   for (const f of [
@@ -91,19 +54,18 @@ export async function seedDemoSchedule(db: Database): Promise<boolean> {
     const [{ id }] = await db.insert(furnaces).values(f).$returningId()
     furnaceIds.push(id)
   }
-  const stationIds: number[] = []
+  const stations: { id: number; kind: QuenchantKind }[] = []
   for (const s of [
     { name: 'Oil tank A', kind: 'oil' as const, maxTemp_C: 90, capacity_kg: 3000 },
     { name: 'Water tank', kind: 'water' as const, maxTemp_C: 40, capacity_kg: 6000 },
     { name: 'Polymer tank', kind: 'polymer' as const, maxTemp_C: 50, capacity_kg: 6000 },
   ]) {
     const [{ id }] = await db.insert(quenchStations).values(s).$returningId()
-    stationIds.push(id)
+    stations.push({ id, kind: s.kind })
   }
-  await db.insert(furnaceStations).values(furnaceIds.flatMap((furnaceId) => stationIds.map((stationId) => ({ furnaceId, stationId }))))
-
-  const demoPlans = []
-  for (const plan of DEMO_PLANS) demoPlans.push(await insertComputedPlan(db, plan.name, plan.cases, metallurgist.id))
+  await db.insert(furnaceStations).values(furnaceIds.flatMap((furnaceId) => stations.map((station) => ({ furnaceId, stationId: station.id }))))
+  // Each load goes to the tank holding its plan's first quench medium (the oil tank when there is none).
+  const stationFor = (plan: DemoPlanRevision) => (stations.find((s) => s.kind === plan.bathKind) ?? stations[0]!).id
 
   const now = Date.now()
   const hour = 3600_000
@@ -112,7 +74,7 @@ export async function seedDemoSchedule(db: Database): Promise<boolean> {
     let charge = now - 14 * hour + f * 40 * 60_000
     while (charge < now + 36 * hour) {
       const plan = demoPlans[sequence % demoPlans.length]!
-      const stationId = stationIds[sequence % demoPlans.length]!
+      const stationId = stationFor(plan)
       sequence += 1
       const input = { planRevisionId: plan.planRevisionId, furnaceId, stationId, plannedCharge: new Date(charge).toISOString(), partCount: 12 + (sequence % 5) * 6, mass_kg: 150 + (sequence % 4) * 90, reference: `WO-${4100 + sequence}` }
       let booked
