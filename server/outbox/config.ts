@@ -23,7 +23,8 @@ function positive(value: string | undefined, fallback: number, name: string): nu
  * OUTBOX_RETRY_BASE_MS / OUTBOX_RETRY_MAX_MS / OUTBOX_MAX_ATTEMPTS  the retry schedule (10 s doubling to 10 min; 10 tries)
  * OUTBOX_LEASE_MS   how long a claimed message is held before another worker may retry it (5 min)
  */
-export function outboxConfigFromEnv(env: NodeJS.ProcessEnv = process.env): OutboxConfig {
+// Plain string variables: NodeJS.ProcessEnv would also demand NODE_ENV (declared by a dependency's typings).
+export function outboxConfigFromEnv(env: Readonly<Record<string, string | undefined>> = process.env): OutboxConfig {
   return {
     smtpUrl: env.SMTP_URL || 'smtp://127.0.0.1:1025',
     from: env.MAIL_FROM || 'Slakewise records <records@slakewise.localhost>',

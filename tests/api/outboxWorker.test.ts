@@ -28,7 +28,8 @@ function countingTransport(log: string[]) {
       // A slow server widens the window in which a second worker could grab the same row.
       await new Promise((resolve) => setTimeout(resolve, 5))
       log.push(message.subject!)
-      return {}
+      // What an SMTP server reports for an accepted message (the worker does not read it).
+      return { envelope: { from: 'test@slakewise.localhost', to: [] }, messageId: `<${log.length}@test>`, accepted: [], rejected: [], pending: [], response: '250 Accepted' }
     },
   }
 }
