@@ -6,6 +6,7 @@ import { pointValue } from '../../shared/pointSeries'
 import { DEMO_PLANS } from '../../server/db/demo/plans'
 import { anonymous, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
+import { bisect } from '../support/bisect'
 
 let metallurgist: Client
 let lib: LibraryFixture
@@ -42,19 +43,6 @@ function barCase(diameter_m: number, hOil: number, hAir: number) {
     ],
     target: { at: 'centre', below_C: 100 },
   }
-}
-
-function bisect(f: (x: number) => number, a: number, b: number): number {
-  let fa = f(a)
-  for (let i = 0; i < 200; i++) {
-    const c = 0.5 * (a + b)
-    const fc = f(c)
-    if (Math.sign(fc) === Math.sign(fa)) {
-      a = c
-      fa = fc
-    } else b = c
-  }
-  return 0.5 * (a + b)
 }
 
 describe('plans: compute and save', () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import bessel from 'bessel'
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
 import type { CooldownProblem, Geometry, PropertyPoint, Stage } from '../../../server/thermal/types'
+import { bisect } from '../../support/bisect'
 
 // Closed forms are written out here, independently of the eigenmode engine.
 
@@ -26,19 +27,6 @@ const fixedSurface = (T_C: number, duration_s?: number): Stage => ({
   inner: { type: 'symmetry' },
   duration_s,
 })
-
-function bisect(f: (x: number) => number, a: number, b: number): number {
-  let fa = f(a)
-  for (let i = 0; i < 200; i++) {
-    const c = 0.5 * (a + b)
-    const fc = f(c)
-    if (Math.sign(fc) === Math.sign(fa)) {
-      a = c
-      fa = fc
-    } else b = c
-  }
-  return 0.5 * (a + b)
-}
 
 // n-th zero of J0: one sign change within ±0.3 of (n − ¼)π (McMahon).
 const J0_ZEROS = Array.from({ length: 400 }, (_, i) =>

@@ -6,22 +6,10 @@ import {
   productTimeToCentre,
   type ProductCooling,
 } from '../../../server/thermal/productSolutions'
+import { bisect } from '../../support/bisect'
 
 // Reference values are computed here with their own root finding (bisection),
 // not through the engine's eigenvalue code that productSolutions uses.
-
-function bisect(f: (x: number) => number, a: number, b: number): number {
-  let fa = f(a)
-  for (let i = 0; i < 200; i++) {
-    const c = 0.5 * (a + b)
-    const fc = f(c)
-    if (Math.sign(fc) === Math.sign(fa)) {
-      a = c
-      fa = fc
-    } else b = c
-  }
-  return 0.5 * (a + b)
-}
 
 const J = (x: number, n: number) => bessel.besselj(x, n)
 
