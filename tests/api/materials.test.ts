@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { anonymous, signInDemo, type Client } from '../support/http'
+import { auditFor, latestAuditId } from '../support/audit'
+import { uniqueName } from '../support/library'
 
 let metallurgist: Client
 let admin: Client
@@ -9,8 +11,6 @@ beforeAll(async () => {
   admin = await signInDemo('admin')
 })
 
-const unique = (label: string) => `${label} ${Date.now()}-${Math.round(Math.random() * 1e6)}`
-
 const newMaterial = (name: string) => ({
   name,
   k_W_mK: 42.3,
@@ -19,16 +19,6 @@ const newMaterial = (name: string) => ({
   propertiesAt_C: 26.85,
   source: 'Incropera et al., Table A.1, 1 Cr–½ Mo, 300 K (from memory)',
 })
-
-async function auditFor(id: number) {
-  const response = await admin.request('/api/audit?entityType=material&limit=500')
-  expect(response.status).toBe(200)
-  return response.body.filter((entry: { entityId: string }) => entry.entityId === String(id))
-}
-
-async function latestAuditId(): Promise<number> {
-  return (await admin.request('/api/audit?limit=1')).body[0].id
-}
 
 describe('reading the materials library', () => {
   it.each(['admin', 'metallurgist', 'operator', 'qa'] as const)('%s reads the list with the seeded handbook values', async (role) => {
@@ -66,7 +56,7 @@ describe('reading the materials library', () => {
 
 describe('editing the materials library', () => {
   it('create, read, update round trip with audit rows of the changed fields', async () => {
-    const name = unique('Cr-Mo bar stock')
+    const name = uniqueName('Cr-Mo bar stock')
     const created = await metallurgist.request('/api/materials', { method: 'POST', body: newMaterial(name) })
     expect(created.status).toBe(201)
     expect(created.body).toMatchObject({ ...newMaterial(name), gradedProfile: null, notes: null })
@@ -79,7 +69,7 @@ describe('editing the materials library', () => {
     expect(updated.body).toMatchObject({ id, name, k_W_mK: 40.1, density_kg_m3: 7858, notes: 'Mill certificate heat 4471' })
     expect((await metallurgist.request(`/api/materials/${id}`)).body.k_W_mK).toBe(40.1)
 
-    const entries = await auditFor(id)
+    const entries = await auditFor(admin, 'material', id)
     expect(entries.map((entry: { action: string }) => entry.action)).toEqual(['material.update', 'material.create'])
     expect(entries[0].details).toEqual({ k_W_mK: { from: 42.3, to: 40.1 }, notes: { from: null, to: 'Mill certificate heat 4471' } })
     expect(entries[0].actorName).toBe('Mira Okonkwo')
@@ -87,16 +77,16 @@ describe('editing the materials library', () => {
   })
 
   it('an admin may edit too; a patch that changes nothing writes no audit row', async () => {
-    const created = await admin.request('/api/materials', { method: 'POST', body: newMaterial(unique('Admin steel')) })
+    const created = await admin.request('/api/materials', { method: 'POST', body: newMaterial(uniqueName('Admin steel')) })
     expect(created.status).toBe(201)
-    const before = await latestAuditId()
+    const before = await latestAuditId(admin)
     const same = await admin.request(`/api/materials/${created.body.id}`, { method: 'PATCH', body: { k_W_mK: 42.3 } })
     expect(same.status).toBe(200)
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 
   it('a graded profile can be set and cleared', async () => {
-    const created = await metallurgist.request('/api/materials', { method: 'POST', body: newMaterial(unique('Graded')) })
+    const created = await metallurgist.request('/api/materials', { method: 'POST', body: newMaterial(uniqueName('Graded')) })
     const profile = [
       { x: 0, k: 42.3, rhoCp: 3473236 },
       { x: 1, k: 38, rhoCp: 3473236 },
@@ -109,7 +99,7 @@ describe('editing the materials library', () => {
 
   it.each(['operator', 'qa'] as const)('%s gets 403 on POST and PATCH, and nothing changes', async (role) => {
     const client = await signInDemo(role)
-    const name = unique(`${role} steel`)
+    const name = uniqueName(`${role} steel`)
     const post = await client.request('/api/materials', { method: 'POST', body: newMaterial(name) })
     expect(post.status).toBe(403)
     const list = (await client.request('/api/materials')).body
@@ -121,7 +111,7 @@ describe('editing the materials library', () => {
   })
 
   it('401 signed out on POST and PATCH', async () => {
-    expect((await anonymous().request('/api/materials', { method: 'POST', body: newMaterial(unique('Anon')) })).status).toBe(401)
+    expect((await anonymous().request('/api/materials', { method: 'POST', body: newMaterial(uniqueName('Anon')) })).status).toBe(401)
     expect((await anonymous().request('/api/materials/1', { method: 'PATCH', body: { k_W_mK: 1 } })).status).toBe(401)
   })
 
@@ -134,13 +124,13 @@ describe('editing the materials library', () => {
     [{ gradedProfile: [{ x: 0, k: 40, rhoCp: 3e6 }] }, 'gradedProfile'],
     [{ diffusivity: 12 }, '(body)'],
   ])('POST %j is a 400 naming %s, and nothing is written', async (change, field) => {
-    const name = unique('Invalid')
-    const before = await latestAuditId()
+    const name = uniqueName('Invalid')
+    const before = await latestAuditId(admin)
     const response = await metallurgist.request('/api/materials', { method: 'POST', body: { ...newMaterial(name), ...change } })
     expect(response.status).toBe(400)
     expect(response.body.data.problems.map((problem: { field: string }) => problem.field)).toContain(field)
     expect((await metallurgist.request('/api/materials')).body.map((m: { name: string }) => m.name)).not.toContain(name)
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 
   it('PATCH with a bad value or nothing to change is a 400 naming the field; unknown id 404', async () => {
@@ -154,7 +144,7 @@ describe('editing the materials library', () => {
   })
 
   it('a duplicate name is a 409 naming name (also case-insensitively and on rename), with nothing half-written', async () => {
-    const before = await latestAuditId()
+    const before = await latestAuditId(admin)
     const count = (await metallurgist.request('/api/materials')).body.length
     const duplicate = await metallurgist.request('/api/materials', { method: 'POST', body: newMaterial('aisi 1010') })
     expect(duplicate.status).toBe(409)
@@ -167,6 +157,6 @@ describe('editing the materials library', () => {
     expect(rename.body.data.problems[0].field).toBe('name')
     // The k change in the same request rolled back with the failed rename.
     expect((await metallurgist.request(`/api/materials/${other.id}`)).body).toMatchObject({ name: 'AISI 302 stainless', k_W_mK: 15.1 })
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 })

@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { anonymous, signInDemo, type Client } from '../support/http'
+import { auditFor, latestAuditId } from '../support/audit'
+import { uniqueName } from '../support/library'
 
 let metallurgist: Client
 let admin: Client
@@ -8,8 +10,6 @@ beforeAll(async () => {
   metallurgist = await signInDemo('metallurgist')
   admin = await signInDemo('admin')
 })
-
-const unique = (label: string) => `${label} ${Date.now()}-${Math.round(Math.random() * 1e6)}`
 
 const newQuenchant = (name: string) => ({
   name,
@@ -20,10 +20,6 @@ const newQuenchant = (name: string) => ({
   bath_C: 35,
   source: 'Kestrel Bay probe test, tank 2',
 })
-
-async function latestAuditId(): Promise<number> {
-  return (await admin.request('/api/audit?limit=1')).body[0].id
-}
 
 async function seeded(name: string) {
   const found = (await metallurgist.request('/api/quenchants')).body.find((q: { name: string }) => q.name === name)
@@ -50,7 +46,7 @@ describe('reading the quench media', () => {
 
 describe('editing the quench media', () => {
   it('create, read, update round trip with audit rows of the changed fields', async () => {
-    const name = unique('PAG 12 %')
+    const name = uniqueName('PAG 12 %')
     const created = await metallurgist.request('/api/quenchants', { method: 'POST', body: newQuenchant(name) })
     expect(created.status).toBe(201)
     expect(created.body).toMatchObject({ ...newQuenchant(name), notes: null })
@@ -61,7 +57,7 @@ describe('editing the quench media', () => {
     expect(updated.status).toBe(200)
     expect(updated.body).toMatchObject({ id, hTypical_W_m2K: 2600, bath_C: 40, hLow_W_m2K: 1500 })
 
-    const audit = (await admin.request('/api/audit?entityType=quenchant&limit=500')).body.filter((entry: { entityId: string }) => entry.entityId === String(id))
+    const audit = await auditFor(admin, 'quenchant', id)
     expect(audit.map((entry: { action: string }) => entry.action)).toEqual(['quenchant.update', 'quenchant.create'])
     expect(audit[0].details).toEqual({ hTypical_W_m2K: { from: 2400, to: 2600 }, bath_C: { from: 35, to: 40 } })
     expect(audit[1].details).toMatchObject({ name, kind: 'polymer', hTypical_W_m2K: 2400 })
@@ -69,14 +65,14 @@ describe('editing the quench media', () => {
 
   it.each(['operator', 'qa'] as const)('%s gets 403 on POST and PATCH', async (role) => {
     const client = await signInDemo(role)
-    expect((await client.request('/api/quenchants', { method: 'POST', body: newQuenchant(unique(role)) })).status).toBe(403)
+    expect((await client.request('/api/quenchants', { method: 'POST', body: newQuenchant(uniqueName(role)) })).status).toBe(403)
     const water = await seeded('Water')
     expect((await client.request(`/api/quenchants/${water.id}`, { method: 'PATCH', body: { bath_C: 45 } })).status).toBe(403)
     expect((await seeded('Water')).bath_C).toBe(20)
   })
 
   it('401 signed out on POST and PATCH', async () => {
-    expect((await anonymous().request('/api/quenchants', { method: 'POST', body: newQuenchant(unique('anon')) })).status).toBe(401)
+    expect((await anonymous().request('/api/quenchants', { method: 'POST', body: newQuenchant(uniqueName('anon')) })).status).toBe(401)
     expect((await anonymous().request('/api/quenchants/1', { method: 'PATCH', body: { bath_C: 30 } })).status).toBe(401)
   })
 
@@ -89,28 +85,28 @@ describe('editing the quench media', () => {
     [{ bath_C: '35' }, 'bath_C'],
     [{ source: 'x' }, 'source'],
   ])('POST %j is a 400 naming %s, and nothing is written', async (change, field) => {
-    const name = unique('Invalid medium')
-    const before = await latestAuditId()
+    const name = uniqueName('Invalid medium')
+    const before = await latestAuditId(admin)
     const response = await metallurgist.request('/api/quenchants', { method: 'POST', body: { ...newQuenchant(name), ...change } })
     expect(response.status).toBe(400)
     expect(response.body.data.problems.map((problem: { field: string }) => problem.field)).toContain(field)
     expect((await metallurgist.request('/api/quenchants')).body.map((q: { name: string }) => q.name)).not.toContain(name)
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 
   it('a PATCH that breaks low ≤ typical ≤ high on the merged record is a 400 naming the field, and the row is unchanged', async () => {
     const oil = await seeded('Fast quench oil, still')
-    const before = await latestAuditId()
+    const before = await latestAuditId(admin)
     // Still oil spans 1000–1500 W/m²·K (Totten et al., from memory): a low of 1400 above the typical 1250 must be refused.
     const response = await metallurgist.request(`/api/quenchants/${oil.id}`, { method: 'PATCH', body: { hLow_W_m2K: 1400, notes: 'should not stick' } })
     expect(response.status).toBe(400)
     expect(response.body.data.problems).toEqual([{ field: 'hLow_W_m2K', message: 'The low coefficient cannot exceed the typical one' }])
     expect(await seeded('Fast quench oil, still')).toEqual(oil)
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 
   it('a duplicate name is a 409 naming name, with nothing half-written', async () => {
-    const before = await latestAuditId()
+    const before = await latestAuditId(admin)
     const count = (await metallurgist.request('/api/quenchants')).body.length
     const duplicate = await metallurgist.request('/api/quenchants', { method: 'POST', body: newQuenchant('WATER') })
     expect(duplicate.status).toBe(409)
@@ -122,6 +118,6 @@ describe('editing the quench media', () => {
     expect(rename.status).toBe(409)
     expect(rename.body.data.problems[0].field).toBe('name')
     expect(await seeded('Nitrate salt bath')).toEqual(salt)
-    expect(await latestAuditId()).toBe(before)
+    expect(await latestAuditId(admin)).toBe(before)
   })
 })

@@ -28,6 +28,9 @@ const VALUES = {
 
 const SOURCE = 'test fixture'
 
+/** A name no other run has used: library names are unique. */
+export const uniqueName = (label: string) => `${label} ${Date.now()}-${Math.round(Math.random() * 1e6)}`
+
 function materialBody(name: string) {
   const { k, rho, cp } = VALUES.steel
   return { name, k_W_mK: k, density_kg_m3: rho, specificHeat_J_kgK: cp, source: SOURCE }
