@@ -1,25 +1,21 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
+import { beforeAll, describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
 import { runCase } from '../../server/thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
 import type { PlanSpecInput } from '../../shared/schemas/plan'
 import { signInDemo, type Client } from '../support/http'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, THIN_SHEET_QUENCH_CASE, pinSpec, savePlan, thinSheetSpec } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
 
-let browser: Browser
+const browser = useBrowser()
 let admin: Client
 let metallurgist: Client
 let lib: LibraryFixture
 beforeAll(async () => {
-  browser = await launchBrowser()
   ;[admin, metallurgist] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist')])
   lib = await createLibraryFixture(metallurgist)
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 async function tapAndConfirm(page: Page, card: ReturnType<Page['getByTestId']>, label: string) {
@@ -42,7 +38,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     // Source: the engine called directly on the same pin written by hand.
     const engineHeatUp_s = runCase(PIN_HEAT_UP_CASE).targetTime_s!
     const engineToHandling_s = runCase(PIN_QUENCH_CASE).targetTime_s!
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator', '/floor')
     await page.getByRole('button', { name: line.furnace.name }).click()
     const card = page.getByTestId(`card-${batch.loadNumber}`)
@@ -88,7 +84,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib))
     expect(plan.summary.quenchToHandling_s).toBeCloseTo(runCase(THIN_SHEET_QUENCH_CASE).targetTime_s!, 6)
     expect(plan.summary.quenchToHandling_s).toBeLessThan(10)
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator', '/floor')
     await page.getByRole('button', { name: line.furnace.name }).click()
     const card = page.getByTestId(`card-${batch.loadNumber}`)
@@ -116,7 +112,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
 
   it('shows a lost connection and refuses a tap made offline without recording anything', async () => {
     const { line, batch } = await bookOnNewLine()
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator', '/floor')
     await page.getByRole('button', { name: line.furnace.name }).click()
     const card = page.getByTestId(`card-${batch.loadNumber}`)

@@ -1,21 +1,16 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser } from 'playwright-core'
+import { beforeAll, describe, expect, it } from 'vitest'
 import type { BatchView, FloorResponse } from '../../shared/types/schedule'
 import { signInDemo, type Client } from '../support/http'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture } from '../support/library'
 import { pinSpec, savePlan } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
 
-let browser: Browser
+const browser = useBrowser()
 let admin: Client
 let metallurgist: Client
 beforeAll(async () => {
-  browser = await launchBrowser()
   ;[admin, metallurgist] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist')])
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 const HOUR = 3600_000
@@ -28,7 +23,7 @@ describe('the shift overview per role', () => {
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 2 * HOUR, 'Shift overview') })
     expect(booked.status).toBe(201)
 
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'metallurgist')
     const recent = page.getByTestId('shift-recent-plans').getByRole('listitem')
     expect((await recent.first().textContent())!).toContain(saved.name)
@@ -40,7 +35,7 @@ describe('the shift overview per role', () => {
   })
 
   it('an operator sees the floor counts the floor API gives and a big link to the floor', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator')
     const floor = (await admin.request('/api/floor')).body as FloorResponse
     const count = (states: string[]) => String(floor.batches.filter((b) => states.includes(b.state)).length)
@@ -56,7 +51,7 @@ describe('the shift overview per role', () => {
   })
 
   it('QA sees the loads handed on in the last 48 hours, newest first', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'qa')
     const now = Date.now()
     const recent = (await admin.request(`/api/batches?from=${new Date(now - 48 * HOUR).toISOString()}&to=${new Date(now).toISOString()}`)).body.batches as BatchView[]
@@ -70,7 +65,7 @@ describe('the shift overview per role', () => {
   })
 
   it('an administrator sees active people per role and every furnace', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'admin')
     const users = (await admin.request('/api/users')).body as { role: string; active: boolean }[]
     const active = users.filter((u) => u.active)

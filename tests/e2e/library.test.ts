@@ -1,20 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 
-let browser: Browser
-beforeAll(async () => {
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-})
+const browser = useBrowser()
 
 const row = (page: Page, table: string, name: string) => page.getByTestId(table).locator(`tbody tr[data-name="${name}"]`)
 
 describe('quench media', () => {
   it('a metallurgist adds a medium: an inline error first, then the row in the table, in °C and °F', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'metallurgist', '/library/quenchants')
     await page.getByTestId('quenchants-table').waitFor()
     await page.getByRole('button', { name: 'Add quench medium' }).click()
@@ -58,7 +52,7 @@ describe('quench media', () => {
   })
 
   it('headers sort and the filter box narrows the table', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'qa', '/library/quenchants')
     const table = page.getByTestId('quenchants-table')
     await table.waitFor()
@@ -77,7 +71,7 @@ describe('quench media', () => {
 
 describe('materials', () => {
   it('shows the handbook values with the diffusivity column, sorts by it, filters', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'metallurgist', '/library/materials')
     const table = page.getByTestId('materials-table')
     await table.waitFor()
@@ -119,7 +113,7 @@ describe('materials', () => {
 
 describe('read-only roles', () => {
   it.each(['operator', 'qa'] as const)('%s sees both tables without edit controls', async (role) => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, role, '/library/materials')
     await page.getByTestId('materials-table').waitFor()
     expect(await page.getByTestId('materials-table').locator('tbody tr').count()).toBeGreaterThanOrEqual(11)

@@ -1,16 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser } from 'playwright-core'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { describe, expect, it } from 'vitest'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { signInDemo } from '../support/http'
 import { startMailCatcher, waitForMail } from '../support/mailCatcher'
 
-let browser: Browser
-beforeAll(async () => {
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-})
+const browser = useBrowser()
 
 describe('the outbox page', () => {
   it('shows a message the mail server refused, with its error, and sends it on retry', async () => {
@@ -29,7 +22,7 @@ describe('the outbox page', () => {
       await startMailCatcher()
     }
 
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'admin', '/admin/outbox')
     const row = page.locator(`tr[data-id="${id}"]`)
     await row.waitFor()
@@ -49,7 +42,7 @@ describe('the outbox page', () => {
   })
 
   it('mail recipients: an admin adds an address and sees who the sheets go to', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'admin', '/admin/mail-recipients')
     const form = page.locator('form[data-kind="daily_digest"]')
     await form.getByLabel('Further addresses, one per line').fill('plant.manager@kestrelbay.example\nnot an address')

@@ -1,18 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { beforeAll, describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { signInDemo } from '../support/http'
 import { runCase } from '../../server/thermal/runCase'
 
-let browser: Browser
+const browser = useBrowser()
 let lib: LibraryFixture
 beforeAll(async () => {
-  browser = await launchBrowser()
   lib = await createLibraryFixture(await signInDemo('metallurgist'))
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 /** Waits until the headline time is shown and differs from `previous`; returns it in seconds. */
@@ -31,7 +27,7 @@ async function headlineSeconds(page: Page, previous?: number): Promise<number> {
 
 describe('cooldown planner in the browser', () => {
   it('a metallurgist plans a bar quenched in oil then still air, thickens it, saves, and sees the same after a reload', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'metallurgist', '/plans/new')
     await page.getByLabel('Plan name').fill('Kestrel shaft, oil then air')
     await page.getByLabel('Shape').selectOption('round-bar')
@@ -80,7 +76,7 @@ describe('cooldown planner in the browser', () => {
   })
 
   it('an operator sees plans read-only: no save button, form disabled', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator', '/plans')
     await page.getByTestId('plans-table').waitFor()
     await page.getByTestId('plans-table').getByRole('link').first().click()

@@ -1,27 +1,22 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser } from 'playwright-core'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { signInDemo, type Client } from '../support/http'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture } from '../support/library'
 import { pinSpec, savePlan } from '../support/plans'
 import { createLine } from '../support/schedule'
 
-let browser: Browser
+const browser = useBrowser()
 let admin: Client
 let metallurgist: Client
 beforeAll(async () => {
-  browser = await launchBrowser()
   ;[admin, metallurgist] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist')])
-})
-afterAll(async () => {
-  await browser?.close()
 })
 
 describe('the schedule timeline', () => {
   it('a metallurgist clicks free time in a furnace lane and books a load there', async () => {
     const plan = await savePlan(metallurgist, pinSpec(await createLibraryFixture(metallurgist)))
     const line = await createLine(admin, 'Timeline')
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, 'metallurgist', '/schedule')
     // Show only the new furnace: lanes are then [its furnace, its station].
     const all = (await admin.request('/api/furnaces')).body as { name: string }[]

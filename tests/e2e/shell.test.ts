@@ -1,16 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Browser } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
 import { ROLE_LABELS, type Role } from '../../shared/roles'
 import { demoUser } from '../support/http'
-import { SCREENSHOT_DIR, launchBrowser, signInThroughPage, tabletPage } from '../support/browser'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 
-let browser: Browser
-beforeAll(async () => {
-  browser = await launchBrowser()
-})
-afterAll(async () => {
-  await browser?.close()
-})
+const browser = useBrowser()
 
 const expectedNavigation: Record<Role, string[]> = {
   admin: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Quench media', 'Furnaces', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
@@ -21,7 +14,7 @@ const expectedNavigation: Record<Role, string[]> = {
 
 describe('the signed-in shell', () => {
   it.each(Object.keys(expectedNavigation) as Role[])('%s signs in through the page, sees their navigation, is kept out of People, signs out', async (role) => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await signInThroughPage(page, role)
     await expect(page.getByTestId('user-name').textContent()).resolves.toBe(demoUser(role).displayName)
     await expect(page.getByTestId('user-role').textContent()).resolves.toBe(ROLE_LABELS[role])
@@ -46,7 +39,7 @@ describe('the signed-in shell', () => {
   })
 
   it('a wrong password shows a clear message and stays on the sign-in page', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await page.goto('/login')
     await page.getByLabel('E-mail').fill(demoUser('qa').email)
     await page.getByLabel('Password').fill('definitely-wrong')
@@ -57,7 +50,7 @@ describe('the signed-in shell', () => {
   })
 
   it('a signed-out visitor is sent to sign in and then back where they were going', async () => {
-    const page = await tabletPage(browser)
+    const page = await browser.tabletPage()
     await page.goto('/admin/audit')
     await page.waitForURL((url) => url.pathname === '/login')
     await page.getByLabel('E-mail').fill(demoUser('admin').email)

@@ -1,4 +1,5 @@
 import { mkdirSync } from 'node:fs'
+import { afterAll, beforeAll } from 'vitest'
 import { chromium, type Browser, type Page } from 'playwright-core'
 import { BASE_URL } from './stackConfig'
 import { demoUser } from './http'
@@ -7,7 +8,7 @@ import type { Role } from '../../shared/roles'
 export const SCREENSHOT_DIR = 'test-results/screenshots'
 
 /** Debian's Chromium, headless; background services off (this machine has no outside network). */
-export async function launchBrowser(): Promise<Browser> {
+async function launchBrowser(): Promise<Browser> {
   mkdirSync(SCREENSHOT_DIR, { recursive: true })
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
@@ -16,10 +17,26 @@ export async function launchBrowser(): Promise<Browser> {
   })
 }
 
-/** A 1280×800 landscape page: the shop-floor tablet size. */
-export async function tabletPage(browser: Browser): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: BASE_URL })
-  return context.newPage()
+/**
+ * One browser for a test file: launched before its tests, closed after them. Call it at
+ * the top level of the file; each `tabletPage()` is a fresh 1280×800 landscape page
+ * (the shop-floor tablet size) in a context of its own, so sign-ins never leak between tests.
+ */
+export function useBrowser(): { tabletPage: () => Promise<Page> } {
+  let browser: Browser | undefined
+  beforeAll(async () => {
+    browser = await launchBrowser()
+  })
+  afterAll(async () => {
+    await browser?.close()
+  })
+  return {
+    async tabletPage() {
+      if (!browser) throw new Error('no browser: call useBrowser() at the top level of the test file')
+      const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: BASE_URL })
+      return context.newPage()
+    },
+  }
 }
 
 export async function signInThroughPage(page: Page, role: Role, next = '/'): Promise<void> {
