@@ -6,7 +6,7 @@ import { LIBRARY_EDIT_ROLES } from '~~/shared/library'
  * otherwise the entry itself. `dataKey` is the page's useFetch key, refreshed on save.
  */
 export function useLibraryEditing<Entry>(dataKey: string) {
-  const { role } = useNavigation()
+  const { role } = useRole()
   const canEdit = computed(() => !!role.value && LIBRARY_EDIT_ROLES.includes(role.value))
   const editing = shallowRef<Entry | 'new' | null>(null)
   const saved = ref('')

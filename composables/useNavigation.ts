@@ -23,8 +23,7 @@ const NAV_ITEMS: NavItem[] = [
 
 /** Navigation entries the signed-in user's role may open. */
 export function useNavigation() {
-  const { data } = useAuth()
-  const role = computed(() => (data.value?.user as { role?: Role } | undefined)?.role)
+  const { role } = useRole()
   const items = computed(() => NAV_ITEMS.filter((item) => item.roles.length === 0 || (role.value && item.roles.includes(role.value))))
   return { items, role }
 }
