@@ -58,6 +58,8 @@ describe('the shift overview per role', () => {
     const expected = recent.filter((b) => b.state === 'released').sort((a, b) => b.handlingAt - a.handlingAt).map((b) => b.loadNumber)
     // The demo shop has loads released earlier today.
     expect(expected.length).toBeGreaterThan(0)
+    // The panel loads in the browser after sign-in: wait for its rows before reading them.
+    await page.getByTestId('shift-handed-on').locator('tbody tr').first().waitFor()
     const shown = await page.getByTestId('shift-handed-on').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-load')))
     expect(shown).toEqual(expected)
     await page.screenshot({ path: `${SCREENSHOT_DIR}/home-qa.png` })
