@@ -6,6 +6,7 @@ import { MAIL_RECIPIENT_KINDS } from '../../shared/schemas/mailRecipients'
 import { OUTBOX_STATUSES, type OutboxAttachment } from '../../shared/types/outbox'
 import { FURNACE_KINDS } from '../../shared/schemas/schedule'
 import { BATCH_STATES } from '../../shared/schedule'
+import { RECORD_STATES } from '../../shared/types/cooldownRecord'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -268,3 +269,32 @@ export type FurnaceRow = typeof furnaces.$inferSelect
 export type QuenchStationRow = typeof quenchStations.$inferSelect
 export type BatchRow = typeof batches.$inferSelect
 export type BatchEventRow = typeof batchEvents.$inferSelect
+
+/**
+ * The cooldown record of a released batch, written in the release transaction. The
+ * snapshot (shared/types/cooldownRecord.ts) is frozen: the app never updates it, and
+ * `hash` is recordHash(snapshot) at writing time, so any later change shows as a
+ * mismatch. The sign-off columns are written once; `signature_hash` binds the
+ * decision, signer and time to the record hash (server/records/signature.ts).
+ */
+export const cooldownRecords = mysqlTable(
+  'cooldown_records',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    batchId: int('batch_id').notNull().unique().references(() => batches.id),
+    snapshot: json('snapshot').$type<Record<string, unknown>>().notNull(),
+    hash: varchar('hash', { length: 64 }).notNull(),
+    /** Copied from the snapshot for lists and filters; the snapshot stays the authority. */
+    deviationCount: int('deviation_count').notNull(),
+    releasedAt: datetime('released_at', { mode: 'date', fsp: 3 }).notNull(),
+    state: mysqlEnum('state', RECORD_STATES).notNull().default('unsigned'),
+    signedBy: int('signed_by').references(() => users.id),
+    signedAt: datetime('signed_at', { mode: 'date', fsp: 3 }),
+    signComment: text('sign_comment'),
+    signatureHash: varchar('signature_hash', { length: 64 }),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (table) => [index('record_state_idx').on(table.state, table.createdAt), index('record_released_idx').on(table.releasedAt)],
+)
+
+export type CooldownRecordRow = typeof cooldownRecords.$inferSelect
