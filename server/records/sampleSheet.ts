@@ -1,6 +1,6 @@
 /**
  * A complete hold-time sheet for a fictional load at Kestrel Bay Heat Treat (the demo
- * shop), so the outbox and the renderers can be exercised before real batches exist.
+ * shop): the admin's test sheet, which checks the mail path without releasing a load.
  * The events are placed before `now`; the transfer to the quench is deliberately slow
  * so the sheet shows a deviation.
  */

@@ -82,6 +82,10 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
     ? `<p style="font-size:14px;color:${INK_600};margin:0;">${sheet.predictedCurve.length} predicted points from ${formatTemperature(sheet.predictedCurve[0]!.T_C)} at the quench to ${formatTemperature(last.T_C)} after ${formatSpan(last.t_s)}; the full curve is in the attached PDF and CSV.</p>`
     : ''
 
+  const signOff = sheet.signOffUrl
+    ? `<p style="margin:24px 0 0;"><a href="${escapeHtml(sheet.signOffUrl)}" data-role="sign-off" style="display:inline-block;background:${BATH_800};color:#ffffff;text-decoration:none;font-weight:600;padding:10px 18px;border-radius:6px;">Review and sign the record</a></p>`
+    : ''
+
   return `<!doctype html><html lang="en"><body style="margin:0;padding:0;background:${INK_50};">
 <div style="max-width:680px;margin:0 auto;padding:24px;font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${INK_900};">
 <div style="background:${INK_900};color:#ffffff;border-radius:8px 8px 0 0;padding:14px 20px;border-bottom:3px solid ${TEMPER_400};">
@@ -95,6 +99,7 @@ ${section('Deviations', deviations)}
 ${section('Predicted cooldown', curveNote)}
 ${section('Events', events)}
 <div style="margin-top:24px;">${cautions}</div>
+${signOff}
 </div>
 <p style="font-size:12px;color:${INK_600};margin:12px 4px;">Sent by Slakewise on ${escapeHtml(formatInstant(sheet.generatedAt))}. The PDF and the curve CSV are attached.</p>
 </div></body></html>`
@@ -125,6 +130,7 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     '',
     'Cautions:',
     ...sheet.cautions.map((caution) => `  - ${caution}`),
+    ...(sheet.signOffUrl ? ['', `Review and sign the record: ${sheet.signOffUrl}`] : []),
   ]
   return lines.join('\n') + '\n'
 }

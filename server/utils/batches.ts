@@ -23,6 +23,7 @@ import type { BatchDetail, BatchView, FloorBatch, PlanOption } from '../../share
 import type { SessionUser } from './auth'
 import { recordAudit } from './audit'
 import { readShopSettings } from './shopSettings'
+import { refuseIfRecordSigned, writeCooldownRecord } from './records'
 
 /** Load numbers start with the shop's initials (Kestrel Bay). */
 const LOAD_PREFIX = process.env.SLAKEWISE_LOAD_PREFIX || 'KB'
@@ -233,13 +234,14 @@ export async function bookBatch(input: Booking, actor: Pick<SessionUser, 'id' | 
  * (out of the bath, safe to handle) are written first at the times the plan gave
  * them, so the event log reads in order.
  */
-export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role'>, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
+export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
   const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
   if (!pre) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
   return await db.transaction(
     async (tx) => {
       await lockResources(tx, pre.furnaceId, pre.stationId)
       const [row] = await tx.select().from(batches).where(eq(batches.id, id)).for('update')
+      await refuseIfRecordSigned(tx, id)
       const settings = await readShopSettings(tx)
       const now = Date.now()
       const [already] = await tx.select().from(batchEvents).where(and(eq(batchEvents.batchId, id), eq(batchEvents.toState, to)))
@@ -289,11 +291,29 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
         entityId: id,
         details: { loadNumber: row!.loadNumber, from: state, to, at: at.toISOString(), ...(flagged.length ? { conflicts: flagged } : {}) },
       })
+      if (to === 'released') await releaseRecord(tx, id, actor)
       const [after] = await tx.select().from(batches).where(eq(batches.id, id))
       return { batch: toBatchView(after!, settings, now), repeated: false }
     },
     { isolationLevel: 'read committed' },
   )
+}
+
+/**
+ * The record and its sheet belong to the release: any failure here rolls the release
+ * back, and the operator is told why rather than seeing a release without a record.
+ */
+async function releaseRecord(tx: Transaction, id: number, actor: Pick<SessionUser, 'id' | 'displayName'>) {
+  try {
+    await writeCooldownRecord(tx, id, actor)
+  } catch (error) {
+    if ((error as { statusCode?: number }).statusCode) throw error
+    throw createError({
+      statusCode: 500,
+      statusMessage: 'Release not recorded: the cooldown record could not be written',
+      data: { reason: String((error as Error)?.message ?? error) },
+    })
+  }
 }
 
 /**

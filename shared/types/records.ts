@@ -89,4 +89,6 @@ export interface HoldTimeSheet {
   deviations: Deviation[]
   cautions: string[]
   generatedAt: string
+  /** Where QA signs the record off; absent on a sample sheet, which has no record. */
+  signOffUrl?: string
 }

@@ -1,7 +1,8 @@
 /**
  * The mail outbox end to end: HTTP → MariaDB outbox row → worker → SMTP → maildev, read
- * back through maildev's API. Until batches exist, POST /api/outbox/test-sheet is what
- * puts a hold-time sheet in the outbox.
+ * back through maildev's API. The admin's test sheet (POST /api/outbox/test-sheet) is the
+ * message here, so outages can be played without releasing loads; real releases are
+ * covered in tests/api/records.test.ts.
  */
 import { beforeAll, describe, expect, it } from 'vitest'
 import { anonymous, signInDemo, type Client } from '../support/http'

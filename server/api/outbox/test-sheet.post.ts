@@ -13,10 +13,10 @@ const Body = z.strictObject({
 })
 
 /**
- * Queues the hold-time sheet of a fictional Kestrel Bay load, PDF and CSV attached,
- * to the released-sheet recipients (or `to`). It exercises the whole mail path — render,
- * queue, worker, SMTP — until real batches produce sheets, and the API tests drive the
- * outbox through it.
+ * Admin "send a test sheet": queues the hold-time sheet of a fictional Kestrel Bay load,
+ * PDF and CSV attached, to the released-sheet recipients (or `to`), so an administrator
+ * can check the mail server and the recipients before a real release depends on them.
+ * Real sheets are queued by the release itself (server/utils/records.ts).
  */
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])

@@ -1,0 +1,247 @@
+/**
+ * The cooldown record of a released load, as pure functions: the frozen snapshot from
+ * what the batch, its plan revision and its events say at release; the hold-time sheet
+ * rendered from that snapshot; the sign-off signature; the integrity check.
+ *
+ * Quench delay. The floor records "quench started" but not the moment the furnace door
+ * opened, so the record derives that moment: the planned end of soak (the recorded
+ * "core at heat" plus the minimum soak, or the recorded charge plus the planned furnace
+ * time), or the quench itself when the quench came earlier. The delay is then the
+ * recorded quench start minus that moment, which is the same reading the floor's
+ * "late to quench" flag uses (shared/schedule.ts batchFlags), and the transfer from
+ * door to bath counts against the allowance. A soak cut short shows as a short soak and
+ * no delay; a load left in the furnace past its soak end shows as a quench delay. The
+ * derived moment is listed among the events with no person against it, so a reader
+ * never mistakes it for a floor entry.
+ */
+import { pointValue } from '../../shared/pointSeries'
+import { deriveSlots, type BatchState } from '../../shared/schedule'
+import type { PlanSummary } from '../../shared/types/plan'
+import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
+import type { CurvePoint, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
+import { canonicalJson, sha256Hex, verifyRecordHash } from './canonical'
+import { STANDARD_CAUTIONS } from './cautions'
+import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
+
+/** Who a derived or clock-written moment is attributed to on the sheet. */
+export const CLOCK_NAME = 'Slakewise (plan clock)'
+export const DERIVED_NAME = 'Slakewise (planned soak end)'
+
+const EVENT_TYPE: Partial<Record<BatchState, RecordEventType>> = {
+  charged: 'charged',
+  soaking: 'soaking',
+  quenched: 'quenched',
+  cooling: 'cooling',
+  ready: 'ready_to_handle',
+  released: 'released',
+}
+
+export interface SnapshotInput {
+  batch: {
+    id: number
+    loadNumber: string
+    reference: string
+    partCount: number
+    mass_kg: number
+    plannedCharge: Date
+    furnace_s: number
+    furnaceIsDefault: boolean
+    minimumSoak_s: number | null
+    transfer_s: number
+    quench_s: number
+    quenchToHandling_s: number
+    quenchDelayAllowance_s: number
+  }
+  furnace: { id: number; name: string }
+  station: { id: number; name: string }
+  plan: { id: number; name: string }
+  revision: { id: number; revision: number; spec: Record<string, unknown>; summary: PlanSummary }
+  events: { toState: BatchState; at: Date; actorId: number | null; actorName: string | null }[]
+  releasedBy: { id: number; name: string }
+}
+
+/** About 120 points over 1.25 × the predicted time to handling, at least one per second of span. */
+export function predictedCurve(summary: PlanSummary, quenchToHandling_s: number): CurvePoint[] {
+  const span = quenchToHandling_s * 1.25
+  const step = span / 120
+  const points: CurvePoint[] = []
+  for (let i = 0; i <= 120; i += 1) {
+    const t = i * step
+    // Rounded so the frozen JSON stays compact; far finer than any thermocouple reads.
+    points.push({ t_s: Math.round(t * 1000) / 1000, T_C: Math.round(pointValue(summary.handlingPointSeries, t) * 100) / 100 })
+  }
+  return points
+}
+
+export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
+  const { batch, revision } = input
+  const iso = (date: Date) => date.toISOString()
+  const floor = input.events.filter((event) => EVENT_TYPE[event.toState] !== undefined)
+  const firstAt = (state: BatchState) => floor.find((event) => event.toState === state)?.at.getTime() ?? null
+  const charged = firstAt('charged')
+  const soaking = firstAt('soaking')
+  const quenched = firstAt('quenched')
+  const released = firstAt('released')
+  if (quenched === null || released === null) throw new Error(`Load ${batch.loadNumber} has no recorded quench or release`)
+
+  const durations = {
+    furnace_s: batch.furnace_s,
+    furnaceIsDefault: batch.furnaceIsDefault,
+    minimumSoak_s: batch.minimumSoak_s,
+    transfer_s: batch.transfer_s,
+    quench_s: batch.quench_s,
+    quenchToHandling_s: batch.quenchToHandling_s,
+  }
+  const soakEnd = deriveSlots(batch.plannedCharge.getTime(), durations, { chargedAt: charged, soakingAt: soaking }).furnaceEnd
+  const handlingAt = deriveSlots(batch.plannedCharge.getTime(), durations, { chargedAt: charged, soakingAt: soaking, quenchedAt: quenched }).handlingAt
+
+  const events: SnapshotEvent[] = floor.map((event) => ({
+    type: EVENT_TYPE[event.toState]!,
+    at: iso(event.at),
+    by: event.actorName ?? CLOCK_NAME,
+    actorId: event.actorId,
+  }))
+  events.push({
+    type: 'furnace_opened',
+    at: new Date(Math.min(soakEnd, quenched)).toISOString(),
+    by: DERIVED_NAME,
+    actorId: null,
+    note: 'derived, not recorded on the floor: the planned end of soak, or the quench if that came first',
+  })
+  const order = ['charged', 'soaking', 'furnace_opened', 'quenched', 'cooling', 'ready_to_handle', 'released']
+  events.sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || order.indexOf(a.type) - order.indexOf(b.type))
+
+  const plan = deviationPlanFromSummary(revision.summary, batch.quenchDelayAllowance_s)
+  // The batch froze its own durations at booking; they are what the floor worked to.
+  plan.minimumSoak_s = batch.minimumSoak_s
+  plan.quenchToHandling_s = batch.quenchToHandling_s
+  const spec = revision.spec as { start_C?: number }
+  return {
+    format: 1,
+    batch: {
+      id: batch.id,
+      loadNumber: batch.loadNumber,
+      reference: batch.reference,
+      partCount: batch.partCount,
+      mass_kg: batch.mass_kg,
+      furnace: input.furnace,
+      station: input.station,
+      plannedCharge: iso(batch.plannedCharge),
+    },
+    plan: { planId: input.plan.id, name: input.plan.name, revisionId: revision.id, revision: revision.revision, spec: revision.spec },
+    predicted: {
+      handling_C: revision.summary.handling_C,
+      furnace_C: revision.summary.soak?.furnace_C ?? spec.start_C ?? 0,
+      heatUp_s: plan.heatUp_s,
+      minimumSoak_s: plan.minimumSoak_s,
+      furnace_s: batch.furnace_s,
+      transfer_s: batch.transfer_s,
+      quench_s: batch.quench_s,
+      quenchToHandling_s: batch.quenchToHandling_s,
+      quenchDelayAllowance_s: batch.quenchDelayAllowance_s,
+      soakEnd: new Date(soakEnd).toISOString(),
+      handlingAt: new Date(handlingAt).toISOString(),
+      curve: predictedCurve(revision.summary, batch.quenchToHandling_s),
+    },
+    events,
+    measured: measureTimes(plan, events),
+    deviations: findDeviations(plan, events),
+    releasedAt: new Date(released).toISOString(),
+    releasedBy: input.releasedBy,
+  }
+}
+
+type SpecView = {
+  part?: { shape?: string; thickness_m?: number; diameter_m?: number; length_m?: number; sides_m?: number[] }
+  stages?: { quenchantId: number }[]
+  library?: { material?: { name?: string }; quenchants?: { id: number; name: string; bath_C: number }[] }
+}
+
+const mm = (m: number | undefined) => `${Math.round((m ?? 0) * 10_000) / 10} mm`
+
+function section(part: SpecView['part']): string {
+  switch (part?.shape) {
+    case 'plate': return `plate ${mm(part.thickness_m)} thick`
+    case 'round-bar': return `bar Ø ${mm(part.diameter_m)}`
+    case 'sphere': return `sphere Ø ${mm(part.diameter_m)}`
+    case 'cylinder': return `Ø ${mm(part.diameter_m)} × ${mm(part.length_m)}`
+    case 'block': return (part.sides_m ?? []).map(mm).join(' × ')
+    default: return 'see plan'
+  }
+}
+
+/** The sheet mailed on release, rendered from the frozen snapshot only, so mail and record say the same. */
+export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, signOffUrl?: string): HoldTimeSheet {
+  const spec = snapshot.plan.spec as SpecView
+  const quenchants = (spec.stages ?? []).map((stage) => spec.library?.quenchants?.find((q) => q.id === stage.quenchantId))
+  const p = snapshot.predicted
+  return {
+    shopName,
+    loadNumber: snapshot.batch.loadNumber,
+    part: { name: snapshot.plan.name, number: snapshot.batch.reference, quantity: snapshot.batch.partCount, section: section(spec.part) },
+    material: spec.library?.material?.name ?? 'see plan',
+    furnace: snapshot.batch.furnace.name,
+    quenchStation: snapshot.batch.station.name,
+    quenchant: quenchants.map((q) => (q ? `${q.name} at ${q.bath_C} °C` : 'see plan')).join(', then '),
+    plan: { name: snapshot.plan.name, revision: snapshot.plan.revision },
+    planned: {
+      heatUp_s: p.heatUp_s,
+      minimumSoak_s: p.minimumSoak_s,
+      quenchDelayAllowance_s: p.quenchDelayAllowance_s,
+      quenchToHandling_s: p.quenchToHandling_s,
+      furnace_C: p.furnace_C,
+      handling_C: p.handling_C,
+    },
+    measured: snapshot.measured,
+    predictedCurve: p.curve,
+    events: snapshot.events.map(({ type, at, by, note }) => ({ type, at, by, ...(note ? { note } : {}) })),
+    deviations: snapshot.deviations,
+    cautions: [...STANDARD_CAUTIONS],
+    generatedAt: snapshot.releasedAt,
+    ...(signOffUrl ? { signOffUrl } : {}),
+  }
+}
+
+export type Decision = 'approved' | 'rejected'
+
+/** SHA-256 over the record hash, the decision, the signer and the time, in canonical JSON. */
+export function signatureHash(recordHash: string, decision: Decision, signerId: number, signedAt: Date): string {
+  return sha256Hex(canonicalJson({ decision, recordHash, signedAt: signedAt.toISOString(), signerId }))
+}
+
+export interface StoredRecord {
+  snapshot: unknown
+  hash: string
+  deviationCount: number
+  releasedAt: Date
+  state: 'unsigned' | Decision
+  signedBy: number | null
+  signedAt: Date | null
+  signatureHash: string | null
+}
+
+/**
+ * Re-hashes the stored snapshot and re-derives the signature. Any mismatch is
+ * "altered", with each problem named; the copied list columns are checked too, so a
+ * list can never disagree with the record silently.
+ */
+export function checkIntegrity(row: StoredRecord): { integrity: RecordIntegrity; problems: string[] } {
+  const problems: string[] = []
+  let snapshotOk = false
+  try {
+    snapshotOk = verifyRecordHash(row.snapshot, row.hash)
+  } catch {
+    snapshotOk = false
+  }
+  if (!snapshotOk) problems.push('The snapshot no longer matches the hash written at release')
+  const snapshot = row.snapshot as Partial<RecordSnapshot>
+  if (!Array.isArray(snapshot.deviations) || snapshot.deviations.length !== row.deviationCount) problems.push('The deviation count differs from the snapshot')
+  if (snapshot.releasedAt !== row.releasedAt.toISOString()) problems.push('The release time differs from the snapshot')
+  if (row.state !== 'unsigned') {
+    const expected = row.signedBy !== null && row.signedAt !== null ? signatureHash(row.hash, row.state, row.signedBy, row.signedAt) : null
+    if (expected === null || expected !== row.signatureHash) problems.push('The sign-off no longer matches its signature')
+  } else if (row.signedBy !== null || row.signedAt !== null || row.signatureHash !== null) {
+    problems.push('An unsigned record carries sign-off data')
+  }
+  return { integrity: problems.length ? 'altered' : 'intact', problems }
+}

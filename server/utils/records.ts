@@ -1,0 +1,311 @@
+import { and, asc, desc, eq, gte, lt, sql, type SQL } from 'drizzle-orm'
+import { createError } from 'h3'
+import type { Database, Transaction } from '../db/client'
+import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
+import { DEMO_SHOP_NAME } from '../db/demo/shop'
+import { recordHash } from '../records/canonical'
+import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureHash, type Decision } from '../records/cooldownRecord'
+import { escapeHtml } from '../records/sheetHtml'
+import { holdTimeSheetMail } from '../records/sheetMail'
+import { formatInstant } from '../records/format'
+import { BATCH_STATE_LABELS } from '../../shared/schedule'
+import type { RecordDetail, RecordListItem, RecordSnapshot } from '../../shared/types/cooldownRecord'
+import type { RecordListQuery } from '../../shared/schemas/records'
+import type { SessionUser } from './auth'
+import { recordAudit } from './audit'
+import { readSummary } from './batches'
+import { recipientsFor } from './mailRecipients'
+import { enqueueMail } from '../outbox/enqueue'
+
+const SHOP_NAME = process.env.SLAKEWISE_SHOP_NAME || DEMO_SHOP_NAME
+const DAY_MS = 24 * 3600_000
+
+/**
+ * The address people open links in mail at: PUBLIC_ORIGIN when set, else AUTH_ORIGIN
+ * without its /api/auth path (it must already be the address browsers use).
+ */
+export function publicOrigin(env: Readonly<Record<string, string | undefined>> = process.env): string {
+  if (env.PUBLIC_ORIGIN) return env.PUBLIC_ORIGIN.replace(/\/+$/, '')
+  if (env.AUTH_ORIGIN) return env.AUTH_ORIGIN.replace(/\/api\/auth\/?$/, '').replace(/\/+$/, '')
+  throw new Error('Neither PUBLIC_ORIGIN nor AUTH_ORIGIN is set, so mail cannot link to the record')
+}
+
+export const recordUrl = (id: number) => `${publicOrigin()}/records/${id}`
+
+/** 409 for a batch whose record is signed: its account is closed, nothing more may be added to it. */
+export async function refuseIfRecordSigned(tx: Transaction, batchId: number): Promise<void> {
+  const [record] = await tx.select({ id: cooldownRecords.id, state: cooldownRecords.state }).from(cooldownRecords).where(eq(cooldownRecords.batchId, batchId))
+  if (record && record.state !== 'unsigned') {
+    throw createError({
+      statusCode: 409,
+      statusMessage: `The cooldown record of this load is ${record.state}; its batch takes no more events`,
+      data: { recordId: record.id, recordState: record.state },
+    })
+  }
+}
+
+/**
+ * Writes the record of a batch released inside `tx` and queues its hold-time sheet in
+ * the same transaction, so a release without its record and mail never commits. The
+ * PDF is rendered here, not before: the sheet must show exactly the events this
+ * transaction sees, and pdfkit takes tens of milliseconds for one sheet.
+ */
+export async function writeCooldownRecord(tx: Transaction, batchId: number, releasedBy: Pick<SessionUser, 'id' | 'displayName'>): Promise<{ id: number; hash: string; outboxId: number }> {
+  const [found] = await tx
+    .select({ batch: batches, plan: { id: plans.id, name: plans.name }, revision: planRevisions, furnace: { id: furnaces.id, name: furnaces.name }, station: { id: quenchStations.id, name: quenchStations.name } })
+    .from(batches)
+    .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
+    .innerJoin(plans, eq(plans.id, planRevisions.planId))
+    .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
+    .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
+    .where(eq(batches.id, batchId))
+  if (!found) throw new Error(`Batch ${batchId} not found`)
+  const summary = readSummary(found.revision.summary)
+  if (!summary) throw new Error(`Plan revision ${found.revision.id} has no usable summary`)
+  const events = await tx
+    .select({ toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName })
+    .from(batchEvents)
+    .leftJoin(users, eq(users.id, batchEvents.actorId))
+    .where(eq(batchEvents.batchId, batchId))
+    .orderBy(asc(batchEvents.at), asc(batchEvents.id))
+
+  const snapshot = buildSnapshot({
+    batch: found.batch,
+    furnace: found.furnace,
+    station: found.station,
+    plan: found.plan,
+    revision: { id: found.revision.id, revision: found.revision.revision, spec: found.revision.spec, summary },
+    events,
+    releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
+  })
+  const hash = recordHash(snapshot)
+  const [{ id }] = await tx
+    .insert(cooldownRecords)
+    .values({ batchId, snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
+    .$returningId()
+
+  const to = await recipientsFor(tx, 'released_sheet')
+  if (to.length === 0) {
+    throw createError({ statusCode: 422, statusMessage: 'Release not recorded: nobody receives released-load sheets; an administrator must name recipients under Mail recipients' })
+  }
+  const mail = await holdTimeSheetMail(sheetFromSnapshot(snapshot, SHOP_NAME, recordUrl(id)), to, `sheet:record-${id}`)
+  const queued = await enqueueMail(tx, mail)
+  await recordAudit(tx, {
+    actorId: releasedBy.id,
+    action: 'record.create',
+    entityType: 'cooldown_record',
+    entityId: id,
+    details: { batchId, loadNumber: snapshot.batch.loadNumber, hash, deviations: snapshot.deviations.map((d) => d.rule), outboxId: queued.id, to },
+  })
+  return { id, hash, outboxId: queued.id }
+}
+
+const signer = sql<string | null>`(SELECT ${users.displayName} FROM ${users} WHERE ${users.id} = ${cooldownRecords.signedBy})`
+
+const listColumns = {
+  record: {
+    id: cooldownRecords.id,
+    batchId: cooldownRecords.batchId,
+    releasedAt: cooldownRecords.releasedAt,
+    state: cooldownRecords.state,
+    deviationCount: cooldownRecords.deviationCount,
+    signedAt: cooldownRecords.signedAt,
+    createdAt: cooldownRecords.createdAt,
+  },
+  loadNumber: batches.loadNumber,
+  planName: plans.name,
+  furnaceId: furnaces.id,
+  furnaceName: furnaces.name,
+  signedBy: signer,
+}
+
+function listQuery(db: Database | Transaction) {
+  return db
+    .select(listColumns)
+    .from(cooldownRecords)
+    .innerJoin(batches, eq(batches.id, cooldownRecords.batchId))
+    .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
+    .innerJoin(plans, eq(plans.id, planRevisions.planId))
+    .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
+}
+
+type ListRow = Awaited<ReturnType<ReturnType<typeof listQuery>['execute']>>[number]
+
+function toListItem(row: ListRow): RecordListItem {
+  return {
+    id: row.record.id,
+    batchId: row.record.batchId,
+    loadNumber: row.loadNumber,
+    planName: row.planName,
+    furnaceId: row.furnaceId,
+    furnaceName: row.furnaceName,
+    releasedAt: row.record.releasedAt.toISOString(),
+    state: row.record.state,
+    deviationCount: row.record.deviationCount,
+    signedBy: row.signedBy,
+    signedAt: row.record.signedAt?.toISOString() ?? null,
+  }
+}
+
+const SORTS = {
+  releasedAt: cooldownRecords.releasedAt,
+  loadNumber: batches.loadNumber,
+  furnace: furnaces.name,
+  deviations: cooldownRecords.deviationCount,
+  state: cooldownRecords.state,
+} as const
+
+export async function listRecords(query: RecordListQuery): Promise<RecordListItem[]> {
+  const conditions: SQL[] = []
+  if (query.state) conditions.push(eq(cooldownRecords.state, query.state))
+  if (query.furnaceId) conditions.push(eq(batches.furnaceId, query.furnaceId))
+  if (query.from) conditions.push(gte(cooldownRecords.releasedAt, new Date(query.from)))
+  if (query.to) conditions.push(lt(cooldownRecords.releasedAt, new Date(query.to)))
+  if (query.deviation === 'yes') conditions.push(sql`${cooldownRecords.deviationCount} > 0`)
+  if (query.deviation === 'no') conditions.push(eq(cooldownRecords.deviationCount, 0))
+  const column = SORTS[query.sort]
+  const rows = await listQuery(useDb())
+    .where(conditions.length ? and(...conditions) : undefined)
+    .orderBy(query.dir === 'asc' ? asc(column) : desc(column), query.dir === 'asc' ? asc(cooldownRecords.id) : desc(cooldownRecords.id))
+    .limit(query.limit)
+  return rows.map(toListItem)
+}
+
+/** Why `user` may not sign this record, or null when they may. */
+async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, user: Pick<SessionUser, 'id' | 'role'>, intact: boolean): Promise<{ status: 403 | 409; message: string } | null> {
+  if (user.role !== 'qa') return { status: 403, message: 'Only a QA lead signs cooldown records' }
+  if (row.state !== 'unsigned') return { status: 409, message: `This record is already ${row.state}; a signed record cannot be changed` }
+  if (!intact) return { status: 409, message: 'This record was altered after it was written; it cannot be signed' }
+  const own = await db
+    .select({ toState: batchEvents.toState })
+    .from(batchEvents)
+    .where(and(eq(batchEvents.batchId, row.batchId), eq(batchEvents.actorId, user.id)))
+    .orderBy(asc(batchEvents.at))
+  if (own.length) {
+    const moves = own.map((event) => (event.toState === 'planned' ? 'the booking' : BATCH_STATE_LABELS[event.toState])).join(', ')
+    return { status: 403, message: `You recorded events on this load (${moves}); another QA lead must sign its record` }
+  }
+  return null
+}
+
+export async function getRecord(id: number, viewer: Pick<SessionUser, 'id' | 'role'>): Promise<RecordDetail> {
+  const db = useDb()
+  const [row] = await db.select().from(cooldownRecords).where(eq(cooldownRecords.id, id))
+  if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
+  const [listed] = await listQuery(db).where(eq(cooldownRecords.id, id))
+  const { integrity, problems } = checkIntegrity(row)
+  const refusal = await signRefusal(db, row, viewer, integrity === 'intact')
+  return {
+    ...toListItem(listed!),
+    snapshot: row.snapshot as unknown as RecordSnapshot,
+    hash: row.hash,
+    integrity,
+    integrityProblems: problems,
+    signComment: row.signComment,
+    signatureHash: row.signatureHash,
+    canSign: { ok: refusal === null, reason: refusal?.message ?? null },
+  }
+}
+
+/**
+ * Approves or rejects a record, once. The row is locked, so of two QA leads signing at
+ * the same moment the second sees the first's decision and gets 409. A rejection mails
+ * the metallurgists (rejection recipients) with the comment, in the same transaction.
+ */
+export async function signRecord(id: number, decision: Decision, comment: string | null, user: SessionUser): Promise<RecordDetail> {
+  const action = decision === 'approved' ? 'record.approve' : 'record.reject'
+  const refused = await useDb().transaction(async (tx) => {
+    const [row] = await tx.select().from(cooldownRecords).where(eq(cooldownRecords.id, id)).for('update')
+    if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
+    const { integrity, problems } = checkIntegrity(row)
+    const refusal = await signRefusal(tx, row, user, integrity === 'intact')
+    if (refusal) return { ...refusal, state: row.state, integrity, problems }
+    const signedAt = new Date()
+    const signature = signatureHash(row.hash, decision, user.id, signedAt)
+    await tx.update(cooldownRecords).set({ state: decision, signedBy: user.id, signedAt, signComment: comment, signatureHash: signature }).where(and(eq(cooldownRecords.id, id), eq(cooldownRecords.state, 'unsigned')))
+    const snapshot = row.snapshot as unknown as RecordSnapshot
+    let outboxId: number | null = null
+    if (decision === 'rejected') {
+      const to = await recipientsFor(tx, 'rejection')
+      if (to.length === 0) throw createError({ statusCode: 422, statusMessage: 'Not rejected: nobody receives rejected records; an administrator must name recipients under Mail recipients' })
+      outboxId = (await enqueueMail(tx, rejectionMail(id, snapshot, comment!, user.displayName, signedAt, to))).id
+    }
+    await recordAudit(tx, {
+      actorId: user.id,
+      action,
+      entityType: 'cooldown_record',
+      entityId: id,
+      details: { loadNumber: snapshot.batch.loadNumber, recordHash: row.hash, signatureHash: signature, signedAt: signedAt.toISOString(), comment, ...(outboxId ? { outboxId } : {}) },
+    })
+    return null
+  })
+  if (refused) {
+    // A refused attempt at a signed or altered record is worth a trace of its own.
+    await recordAudit(useDb(), { actorId: user.id, action: `${action}_refused`, entityType: 'cooldown_record', entityId: id, details: { reason: refused.message, state: refused.state, integrity: refused.integrity, problems: refused.problems } })
+    throw createError({ statusCode: refused.status, statusMessage: refused.message, data: { recordState: refused.state, integrity: refused.integrity } })
+  }
+  return await getRecord(id, user)
+}
+
+function rejectionMail(id: number, snapshot: RecordSnapshot, comment: string, by: string, at: Date, to: string[]) {
+  const load = snapshot.batch.loadNumber
+  const url = recordUrl(id)
+  return {
+    dedupeKey: `rejection:record-${id}`,
+    to,
+    subject: `Cooldown record rejected · Load ${load} · ${snapshot.plan.name}`,
+    html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:#131b24;">
+<h1 style="font-size:20px;">Load ${escapeHtml(load)}: cooldown record rejected</h1>
+<p>${escapeHtml(by)} rejected the record on ${escapeHtml(formatInstant(at.toISOString()))}.</p>
+<blockquote style="border-left:4px solid #b42828;margin:12px 0;padding:6px 12px;background:#fdeeee;" data-role="comment">${escapeHtml(comment)}</blockquote>
+<p>Plan: ${escapeHtml(snapshot.plan.name)}, revision ${snapshot.plan.revision}. Deviations recorded: ${snapshot.deviations.length ? snapshot.deviations.map((d) => escapeHtml(d.message)).join('; ') : 'none'}.</p>
+<p><a href="${escapeHtml(url)}">Open the record</a></p>
+</body></html>`,
+    text: `Load ${load}: cooldown record rejected by ${by} on ${formatInstant(at.toISOString())}.\n\nComment: ${comment}\n\nPlan: ${snapshot.plan.name}, revision ${snapshot.plan.revision}\nRecord: ${url}\n`,
+  }
+}
+
+/** The UTC day the digest belongs to, as its dedupe key. */
+export const digestKey = (now: Date) => `digest:${now.toISOString().slice(0, 10)}`
+
+export interface DigestResult {
+  dedupeKey: string
+  queued: boolean
+  created: boolean
+  outboxId: number | null
+  to: string[]
+  records: { id: number; loadNumber: string; releasedAt: string }[]
+}
+
+/**
+ * Queues the day's digest of records released more than a day ago and still unsigned,
+ * oldest first. One per UTC day whoever asks (the worker's daily check or an admin):
+ * the dedupe key is the date, so a second call that day queues nothing. Nothing to
+ * list means no message.
+ */
+export async function queueDailyDigest(db: Database, now: Date, actorId: number | null = null): Promise<DigestResult> {
+  const dedupeKey = digestKey(now)
+  return await db.transaction(async (tx) => {
+    const rows = await listQuery(tx)
+      .where(and(eq(cooldownRecords.state, 'unsigned'), lt(cooldownRecords.createdAt, new Date(now.getTime() - DAY_MS))))
+      .orderBy(asc(cooldownRecords.createdAt), asc(cooldownRecords.id))
+      .limit(500)
+    const records = rows.map((row) => ({ id: row.record.id, loadNumber: row.loadNumber, releasedAt: row.record.releasedAt.toISOString(), plan: row.planName, furnace: row.furnaceName, deviations: row.record.deviationCount }))
+    const to = records.length ? await recipientsFor(tx, 'daily_digest') : []
+    if (records.length === 0 || to.length === 0) return { dedupeKey, queued: false, created: false, outboxId: null, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
+    const day = dedupeKey.slice('digest:'.length)
+    const line = (r: (typeof records)[number]) => `${r.loadNumber} · ${r.plan} · ${r.furnace} · released ${formatInstant(r.releasedAt)} · ${r.deviations} deviation${r.deviations === 1 ? '' : 's'}`
+    const queued = await enqueueMail(tx, {
+      dedupeKey,
+      to,
+      subject: `Records waiting for sign-off · ${day} · ${records.length}`,
+      html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:#131b24;">
+<h1 style="font-size:20px;">${records.length} cooldown record${records.length === 1 ? '' : 's'} unsigned for more than a day</h1>
+<ul>${records.map((r) => `<li data-load="${escapeHtml(r.loadNumber)}"><a href="${escapeHtml(recordUrl(r.id))}">${escapeHtml(line(r))}</a></li>`).join('')}</ul>
+</body></html>`,
+      text: `Cooldown records unsigned for more than a day (${day}):\n${records.map((r) => `  - ${line(r)}  ${recordUrl(r.id)}`).join('\n')}\n`,
+    })
+    if (queued.created) await recordAudit(tx, { actorId, action: 'record.digest', entityType: 'outbox_message', entityId: queued.id, details: { day, records: records.map((r) => r.loadNumber), to } })
+    return { dedupeKey, queued: true, created: queued.created, outboxId: queued.id, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
+  })
+}
