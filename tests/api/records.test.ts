@@ -1,0 +1,368 @@
+/**
+ * Cooldown records over HTTP: a plan booked through the API, driven through the floor
+ * moves by the operator, the record written on release (snapshot, hash, deviations),
+ * QA sign-off and its refusals, tampering in SQL, the mails (sheet, rejection, digest).
+ * Expected seconds are computed here by hand from the event times the batch API reports.
+ */
+import { execFileSync } from 'node:child_process'
+import { createHash } from 'node:crypto'
+import mysql from 'mysql2/promise'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { canonicalJson, recordHash } from '../../server/records/canonical'
+import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
+import { anonymous, demoUser, signInAs, signInDemo, type Client } from '../support/http'
+import { createLibraryFixture, type LibraryFixture } from '../support/library'
+import { caughtAttachment, caughtMail, waitForMail } from '../support/mailCatcher'
+import { savePlan, thinSheetSpec, type SavedPlan } from '../support/plans'
+import { booking, createLine } from '../support/schedule'
+import { BASE_URL } from '../support/stackConfig'
+
+let admin: Client
+let metallurgist: Client
+let operator: Client
+let qa: Client
+let lib: LibraryFixture
+let db: mysql.Connection
+const ids: Record<string, number> = {}
+const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
+
+/** The 2 mm water-quenched sheet (handling within seconds) with a 2 s minimum soak, so a test can run the whole floor sequence. */
+async function quickPlan(quenchDelayAllowance_s: number): Promise<SavedPlan> {
+  const spec = thinSheetSpec(lib)
+  return await savePlan(metallurgist, { ...spec, soak: { ...spec.soak!, minimumSoak_s: 2 }, quenchDelayAllowance_s })
+}
+
+interface Driven {
+  batchId: number
+  loadNumber: string
+  at: Record<string, number>
+  release: { status: number; body: any }
+}
+
+async function move(client: Client, batchId: number, to: string) {
+  return await client.request(`/api/batches/${batchId}/events`, { method: 'POST', body: { to } })
+}
+
+/**
+ * Books `plan` now on a fresh line and records charge, core at heat (then waits
+ * `soakWait_ms`) and quench as the operator, then releases as soon as the clock allows.
+ * Returns the recorded instants (ms) by state, as GET /api/batches/:id lists them.
+ */
+async function drive(plan: SavedPlan, soakWait_ms: number, recorder: Client = operator): Promise<Driven> {
+  const line = await createLine(admin, 'Rec')
+  const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-REC') })
+  expect(booked.status).toBe(201)
+  const batchId = booked.body.id
+  expect((await move(recorder, batchId, 'charged')).status).toBe(201)
+  expect((await move(recorder, batchId, 'soaking')).status).toBe(201)
+  await pause(soakWait_ms)
+  expect((await move(recorder, batchId, 'quenched')).status).toBe(201)
+  // Straight after the quench the core is still hot: release is refused and no record exists.
+  const early = await move(recorder, batchId, 'released')
+  expect(early.status).toBe(409)
+  let release = early
+  const deadline = Date.now() + 20_000
+  while (release.status === 409 && Date.now() < deadline) {
+    await pause(400)
+    release = await move(recorder, batchId, 'released')
+  }
+  expect(release.status).toBe(201)
+  const detail = await qa.request(`/api/batches/${batchId}`)
+  const at: Record<string, number> = {}
+  for (const event of detail.body.events) at[event.toState] = Date.parse(event.at)
+  return { batchId, loadNumber: booked.body.loadNumber, at, release }
+}
+
+async function recordOf(batchId: number, client: Client = qa) {
+  const list = await client.request('/api/records?limit=500')
+  expect(list.status).toBe(200)
+  const item = list.body.find((r: { batchId: number }) => r.batchId === batchId)
+  expect(item, `record of batch ${batchId}`).toBeDefined()
+  return (await client.request(`/api/records/${item.id}`)).body
+}
+
+let clean: Driven
+let cleanRecord: any
+let shortSoak: Driven
+let shortRecord: any
+let late: Driven
+let lateRecord: any
+let cleanPlan: SavedPlan
+let latePlan: SavedPlan
+let switcher: { id: number; email: string; password: string }
+
+beforeAll(async () => {
+  ;[admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+  const people = (await admin.request('/api/users')).body as { id: number; email: string }[]
+  for (const role of ['operator', 'qa', 'metallurgist', 'admin'] as const) ids[role] = people.find((p) => p.email === demoUser(role).email)!.id
+  lib = await createLibraryFixture(metallurgist)
+  cleanPlan = await quickPlan(60)
+  latePlan = await quickPlan(0)
+  const url = execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim()
+  db = await mysql.createConnection({ uri: url, timezone: 'Z' })
+
+  // A user who works the floor as an operator and is later made a QA lead.
+  switcher = { id: 0, email: `switcher-${Date.now()}@kestrelbay.example`, password: 'switcher-pass-1' }
+  const created = await admin.request('/api/users', { method: 'POST', body: { email: switcher.email, displayName: 'Ana Switcher', role: 'operator', password: switcher.password } })
+  expect(created.status).toBe(201)
+  switcher.id = created.body.id
+  const switcherClient = (await signInAs(switcher.email, switcher.password))!
+
+  // Released 2.5 s after core at heat: soak 2 s as planned, quench 0.5 s later, within the 60 s allowance.
+  clean = await drive(cleanPlan, 2500)
+  cleanRecord = await recordOf(clean.batchId)
+  // Quenched at once: the soak is cut short.
+  shortSoak = await drive(cleanPlan, 0)
+  shortRecord = await recordOf(shortSoak.batchId)
+  // 3 s after core at heat against a 2 s soak and a 0 s allowance: a quench delay of about 1 s; recorded by the future QA lead.
+  late = await drive(latePlan, 3000, switcherClient)
+  lateRecord = await recordOf(late.batchId)
+  expect((await admin.request(`/api/users/${switcher.id}`, { method: 'PATCH', body: { role: 'qa' } })).status).toBe(200)
+}, 120_000)
+
+afterAll(async () => {
+  await db?.end()
+})
+
+describe('the record written on release', () => {
+  it('freezes the plan revision with its copied library values, the batch, and the events with who and when', () => {
+    const s = cleanRecord.snapshot
+    expect(cleanRecord).toMatchObject({ state: 'unsigned', loadNumber: clean.loadNumber, deviationCount: 0, integrity: 'intact', integrityProblems: [] })
+    expect(s.batch).toMatchObject({ id: clean.batchId, loadNumber: clean.loadNumber, reference: 'PO-REC', partCount: 24, mass_kg: 320 })
+    expect(s.plan).toMatchObject({ planId: cleanPlan.planId, revisionId: cleanPlan.planRevisionId, revision: 1 })
+    // tests/support/library.ts: steel k 40, ρ 7850, cₚ 475; water h 3000 (2500–3500) at 30 °C.
+    expect(s.plan.spec.library.material).toMatchObject({ k_W_mK: 40, density_kg_m3: 7850, specificHeat_J_kgK: 475 })
+    expect(s.plan.spec.library.quenchants).toEqual([expect.objectContaining({ id: lib.waterId, hTypical_W_m2K: 3000, hLow_W_m2K: 2500, hHigh_W_m2K: 3500, bath_C: 30 })])
+    expect(s.plan.spec.soak).toMatchObject({ furnace_C: 860, minimumSoak_s: 2 })
+    expect(s.predicted).toMatchObject({
+      handling_C: 60,
+      furnace_C: 860,
+      minimumSoak_s: 2,
+      quenchDelayAllowance_s: 60,
+      quenchToHandling_s: cleanPlan.summary.quenchToHandling_s,
+      heatUp_s: cleanPlan.summary.soak!.heatUp_s,
+    })
+    // 121 points over 1.25 × the time to handling: point 96 is that time, where the core crosses the plan's 60 °C;
+    // the first is the 850 °C start within the series' truncation at the quench instant.
+    const qth = cleanPlan.summary.quenchToHandling_s
+    expect(s.predicted.curve).toHaveLength(121)
+    expect(s.predicted.curve[96].t_s).toBeCloseTo(qth, 3)
+    expect(s.predicted.curve[96].T_C).toBeCloseTo(60, 1)
+    expect(Math.abs(s.predicted.curve[0].T_C - 850)).toBeLessThan(1)
+    expect(s.predicted.curve.at(-1).T_C).toBeLessThan(60)
+    expect(s.predicted.soakEnd).toBe(new Date(clean.at.soaking! + 2000).toISOString())
+    expect(s.predicted.handlingAt).toBe(new Date(clean.at.quenched! + Math.round(cleanPlan.summary.quenchToHandling_s * 1000)).toISOString())
+
+    const operatorName = demoUser('operator').displayName
+    const iso = (state: string) => new Date(clean.at[state]!).toISOString()
+    expect(s.events).toEqual([
+      { type: 'charged', at: iso('charged'), by: operatorName, actorId: ids.operator },
+      { type: 'soaking', at: iso('soaking'), by: operatorName, actorId: ids.operator },
+      expect.objectContaining({ type: 'furnace_opened', at: new Date(clean.at.soaking! + 2000).toISOString(), by: 'Slakewise (planned soak end)', actorId: null }),
+      { type: 'quenched', at: iso('quenched'), by: operatorName, actorId: ids.operator },
+      { type: 'cooling', at: iso('cooling'), by: 'Slakewise (plan clock)', actorId: null },
+      { type: 'ready_to_handle', at: iso('ready'), by: 'Slakewise (plan clock)', actorId: null },
+      { type: 'released', at: iso('released'), by: operatorName, actorId: ids.operator },
+    ])
+    expect(s.releasedAt).toBe(iso('released'))
+    expect(s.releasedBy).toEqual({ id: ids.operator, name: operatorName })
+    expect(s.measured).toEqual({
+      soak_s: 2,
+      quenchDelay_s: (clean.at.quenched! - clean.at.soaking! - 2000) / 1000,
+      quenchToRelease_s: (clean.at.released! - clean.at.quenched!) / 1000,
+    })
+    expect(s.deviations).toEqual([])
+  })
+
+  it('stores recordHash of the snapshot beside it', () => {
+    expect(cleanRecord.hash).toMatch(/^[0-9a-f]{64}$/)
+    expect(recordHash(cleanRecord.snapshot)).toBe(cleanRecord.hash)
+  })
+
+  it('a soak cut short: one short_soak deviation with the seconds from the event times', () => {
+    const soak_s = (shortSoak.at.quenched! - shortSoak.at.soaking!) / 1000
+    expect(soak_s).toBeLessThan(2)
+    expect(shortRecord.deviationCount).toBe(1)
+    expect(shortRecord.snapshot.deviations).toEqual([expect.objectContaining({ rule: 'short_soak', planned_s: 2, actual_s: soak_s, excess_s: 2 - soak_s })])
+    // The door "opened" at the quench, so there is no quench delay.
+    expect(shortRecord.snapshot.measured.quenchDelay_s).toBe(0)
+  })
+
+  it('a quench after the soak end with a 0 s allowance: one quench_delay deviation of quench − (core at heat + 2 s)', () => {
+    const delay_s = (late.at.quenched! - late.at.soaking! - 2000) / 1000
+    expect(delay_s).toBeGreaterThan(0.9)
+    expect(lateRecord.snapshot.deviations).toEqual([expect.objectContaining({ rule: 'quench_delay', planned_s: 0, actual_s: delay_s, excess_s: delay_s })])
+    expect(lateRecord.snapshot.measured.soak_s).toBe(2)
+  })
+
+  it('release before the predicted handling time is refused (409) and writes no record; the release after it did', async () => {
+    // drive() asserted the early 409; here: exactly one record per released batch.
+    const list = (await qa.request('/api/records?limit=500')).body as { batchId: number }[]
+    for (const batchId of [clean.batchId, shortSoak.batchId, late.batchId]) expect(list.filter((r) => r.batchId === batchId)).toHaveLength(1)
+    expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.quenchToHandling_s * 1000))
+  })
+})
+
+describe('lists and filters', () => {
+  it('filters by state, furnace and deviation; sorts by release time', async () => {
+    const withDeviation = (await qa.request('/api/records?deviation=yes&limit=500')).body as { batchId: number; deviationCount: number }[]
+    expect(withDeviation.every((r) => r.deviationCount > 0)).toBe(true)
+    expect(withDeviation.map((r) => r.batchId)).toEqual(expect.arrayContaining([shortSoak.batchId, late.batchId]))
+    expect(withDeviation.map((r) => r.batchId)).not.toContain(clean.batchId)
+    const byFurnace = (await qa.request(`/api/records?furnaceId=${cleanRecord.furnaceId}`)).body
+    expect(byFurnace.map((r: { batchId: number }) => r.batchId)).toEqual([clean.batchId])
+    const ascending = (await qa.request('/api/records?sort=releasedAt&dir=asc&limit=500')).body as { releasedAt: string }[]
+    expect(ascending.map((r) => r.releasedAt)).toEqual([...ascending.map((r) => r.releasedAt)].sort())
+    const bad = await qa.request('/api/records?state=maybe')
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems[0].field).toBe('state')
+  })
+
+  it('401 signed out, 403 for operators', async () => {
+    expect((await anonymous().request('/api/records')).status).toBe(401)
+    expect((await operator.request('/api/records')).status).toBe(403)
+    expect((await operator.request(`/api/records/${cleanRecord.id}`)).status).toBe(403)
+    expect((await metallurgist.request(`/api/records/${cleanRecord.id}`)).status).toBe(200)
+  })
+})
+
+describe('the hold-time sheet by e-mail on release', () => {
+  it('reaches the QA leads with the load number, the sign-off link, the PDF and the curve CSV', async () => {
+    const [mail] = await waitForMail((m) => m.subject.includes(clean.loadNumber), 1)
+    expect(mail!.subject).toBe(`Hold-time sheet · Load ${clean.loadNumber} · ${cleanRecord.planName}`)
+    expect(mail!.to.map((t) => t.address)).toContain('qa@kestrelbay.example')
+    expect(mail!.html).toContain(`Load ${clean.loadNumber}`)
+    expect(mail!.html).toContain(`href="${BASE_URL}/records/${cleanRecord.id}"`)
+    expect(mail!.text).toContain(`Review and sign the record: ${BASE_URL}/records/${cleanRecord.id}`)
+    const files = Object.fromEntries((mail!.attachments ?? []).map((file) => [file.filename, file]))
+    expect(Object.keys(files).sort()).toEqual([`cooldown-curve-${clean.loadNumber}.csv`, `hold-time-sheet-${clean.loadNumber}.pdf`])
+    const pdf = await caughtAttachment(mail!, files[`hold-time-sheet-${clean.loadNumber}.pdf`]!.generatedFileName)
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-')
+    expect(pdf.toString('latin1')).toContain(`(Hold-time sheet, load ${clean.loadNumber})`)
+    const csv = (await caughtAttachment(mail!, files[`cooldown-curve-${clean.loadNumber}.csv`]!.generatedFileName)).toString('utf8')
+    expect(csv.split('\r\n')[0]).toBe(CURVE_CSV_HEADER)
+    const first = cleanRecord.snapshot.predicted.curve[0]
+    expect(csv.split('\r\n')[1]).toBe(`0.0,0.00,${first.T_C.toFixed(1)}`)
+    expect(csv.trimEnd().split('\r\n')).toHaveLength(1 + cleanRecord.snapshot.predicted.curve.length)
+
+    const [deviating] = await waitForMail((m) => m.subject.includes(late.loadNumber), 1)
+    expect(deviating!.subject).toBe(`Hold-time sheet · Load ${late.loadNumber} · ${lateRecord.planName} · 1 deviation`)
+    expect(deviating!.html).toContain('data-rule="quench_delay"')
+  })
+})
+
+describe('sign-off', () => {
+  it('operators and metallurgists cannot sign (403); a QA lead who recorded events on the load cannot either, with the reason', async () => {
+    for (const client of [operator, metallurgist, admin]) {
+      const response = await client.request(`/api/records/${lateRecord.id}/approve`, { method: 'POST', body: {} })
+      expect(response.status).toBe(403)
+      expect(response.body.statusMessage).toBe('Not allowed for your role')
+    }
+    const former = (await signInAs(switcher.email, switcher.password))!
+    const refused = await former.request(`/api/records/${lateRecord.id}/approve`, { method: 'POST', body: {} })
+    expect(refused.status).toBe(403)
+    expect(refused.body.statusMessage).toBe('You recorded events on this load (In furnace, Holding at heat, In the bath, Handed on); another QA lead must sign its record')
+    const view = (await former.request(`/api/records/${lateRecord.id}`)).body
+    expect(view.canSign).toEqual({ ok: false, reason: refused.body.statusMessage })
+    expect((await qa.request(`/api/records/${lateRecord.id}`)).body.canSign).toEqual({ ok: true, reason: null })
+  })
+
+  it('reject without a comment is 400 naming comment', async () => {
+    const response = await qa.request(`/api/records/${lateRecord.id}/reject`, { method: 'POST', body: {} })
+    expect(response.status).toBe(400)
+    expect(response.body.data.problems).toEqual([{ field: 'comment', message: 'A rejection needs a comment saying why' }])
+  })
+
+  it('approve by QA: who, when and the signature hash over record hash, decision, signer and time; then every change is 409', async () => {
+    const approved = await qa.request(`/api/records/${cleanRecord.id}/approve`, { method: 'POST', body: { comment: 'Soak and quench as planned' } })
+    expect(approved.status).toBe(200)
+    expect(approved.body).toMatchObject({ state: 'approved', signedBy: demoUser('qa').displayName, signComment: 'Soak and quench as planned', integrity: 'intact', hash: cleanRecord.hash })
+    const expected = createHash('sha256')
+      .update(canonicalJson({ decision: 'approved', recordHash: cleanRecord.hash, signedAt: approved.body.signedAt, signerId: ids.qa }))
+      .digest('hex')
+    expect(approved.body.signatureHash).toBe(expected)
+    expect(Math.abs(Date.parse(approved.body.signedAt) - Date.now())).toBeLessThan(10_000)
+
+    const again = await qa.request(`/api/records/${cleanRecord.id}/approve`, { method: 'POST', body: {} })
+    expect(again.status).toBe(409)
+    expect(again.body.statusMessage).toBe('This record is already approved; a signed record cannot be changed')
+    expect((await qa.request(`/api/records/${cleanRecord.id}/reject`, { method: 'POST', body: { comment: 'Second thoughts' } })).status).toBe(409)
+    // The batch of a signed record takes no more events, not even a repeated tap.
+    const tap = await move(operator, clean.batchId, 'released')
+    expect(tap.status).toBe(409)
+    expect(tap.body.statusMessage).toBe('The cooldown record of this load is approved; its batch takes no more events')
+    expect((await metallurgist.request(`/api/batches/${clean.batchId}/events`, { method: 'POST', body: { to: 'cancelled' } })).status).toBe(409)
+  })
+
+  it('reject by QA mails the metallurgist recipients with the comment', async () => {
+    const comment = 'Quench delay over the allowance; re-temper and re-test hardness'
+    const rejected = await qa.request(`/api/records/${lateRecord.id}/reject`, { method: 'POST', body: { comment } })
+    expect(rejected.status).toBe(200)
+    expect(rejected.body).toMatchObject({ state: 'rejected', signComment: comment })
+    const [mail] = await waitForMail((m) => m.subject === `Cooldown record rejected · Load ${late.loadNumber} · ${lateRecord.planName}`, 1)
+    expect(mail!.to.map((t) => t.address)).toContain('metallurgist@kestrelbay.example')
+    expect(mail!.html).toContain(comment)
+    expect(mail!.text).toContain(`Comment: ${comment}`)
+    expect(mail!.text).toContain(`${BASE_URL}/records/${lateRecord.id}`)
+  })
+
+  it('a snapshot altered in SQL shows as altered and can no longer be signed; so does a sign-off altered in SQL', async () => {
+    await db.query("UPDATE cooldown_records SET snapshot = JSON_SET(snapshot, '$.batch.partCount', 23) WHERE id = ?", [shortRecord.id])
+    const altered = (await qa.request(`/api/records/${shortRecord.id}`)).body
+    expect(altered.integrity).toBe('altered')
+    expect(altered.integrityProblems).toEqual(['The snapshot no longer matches the hash written at release'])
+    expect(altered.snapshot.batch.partCount).toBe(23)
+    const sign = await qa.request(`/api/records/${shortRecord.id}/approve`, { method: 'POST', body: {} })
+    expect(sign.status).toBe(409)
+    expect(sign.body.statusMessage).toBe('This record was altered after it was written; it cannot be signed')
+
+    await db.query("UPDATE cooldown_records SET sign_comment = 'fine', state = 'approved' WHERE id = ?", [lateRecord.id])
+    const forged = (await qa.request(`/api/records/${lateRecord.id}`)).body
+    expect(forged.integrity).toBe('altered')
+    expect(forged.integrityProblems).toEqual(['The sign-off no longer matches its signature'])
+    const listed = (await qa.request('/api/records?limit=500')).body.find((r: { id: number }) => r.id === lateRecord.id)
+    expect(listed.state).toBe('approved')
+  })
+
+  it('every sign-off action is in the audit trail', async () => {
+    const audit = (await admin.request('/api/audit?entityType=cooldown_record&limit=500')).body as { action: string; entityId: string; actorId: number; details: any }[]
+    const of = (id: number) => audit.filter((row) => row.entityId === String(id)).map((row) => [row.action, row.actorId]).reverse()
+    expect(of(cleanRecord.id)).toEqual([
+      ['record.create', ids.operator],
+      ['record.approve', ids.qa],
+      ['record.approve_refused', ids.qa],
+      ['record.reject_refused', ids.qa],
+    ])
+    expect(of(lateRecord.id)).toEqual([
+      ['record.create', switcher.id],
+      ['record.approve_refused', switcher.id],
+      ['record.reject', ids.qa],
+    ])
+    expect(of(shortRecord.id)).toEqual([['record.create', ids.operator], ['record.approve_refused', ids.qa]])
+    const create = audit.find((row) => row.entityId === String(cleanRecord.id) && row.action === 'record.create')!
+    expect(create.details).toMatchObject({ loadNumber: clean.loadNumber, hash: cleanRecord.hash, deviations: [] })
+  })
+})
+
+describe('the daily digest', () => {
+  it('lists an unsigned record older than a day, once per day', async () => {
+    await db.query('UPDATE cooldown_records SET created_at = NOW(3) - INTERVAL 2 DAY WHERE id = ?', [shortRecord.id])
+    const day = new Date().toISOString().slice(0, 10)
+    expect((await qa.request('/api/records/digest', { method: 'POST' })).status).toBe(403)
+    const first = await admin.request('/api/records/digest', { method: 'POST' })
+    expect(first.status).toBe(201)
+    expect(first.body).toMatchObject({ dedupeKey: `digest:${day}`, queued: true, created: true })
+    expect(first.body.records).toEqual([{ id: shortRecord.id, loadNumber: shortSoak.loadNumber, releasedAt: shortRecord.releasedAt }])
+    expect(first.body.to).toContain('qa@kestrelbay.example')
+    const second = await admin.request('/api/records/digest', { method: 'POST' })
+    expect(second.status).toBe(200)
+    expect(second.body).toMatchObject({ created: false, outboxId: first.body.outboxId })
+
+    const subject = `Records waiting for sign-off · ${day} · 1`
+    const [mail] = await waitForMail((m) => m.subject === subject, 1)
+    expect(mail!.html).toContain(`data-load="${shortSoak.loadNumber}"`)
+    expect(mail!.text.split(shortSoak.loadNumber)).toHaveLength(2)
+    await pause(1500)
+    expect((await caughtMail()).filter((m) => m.subject.startsWith(`Records waiting for sign-off · ${day}`))).toHaveLength(1)
+  })
+})
