@@ -12,6 +12,7 @@ const NAV_ITEMS: NavItem[] = [
   { to: '/plans', label: 'Plans', roles: [] },
   { to: '/schedule', label: 'Schedule', roles: [] },
   { to: '/floor', label: 'Floor', roles: ['operator', 'admin', 'metallurgist'] },
+  { to: '/records', label: 'Records', roles: ['qa', 'metallurgist', 'admin'] },
   { to: '/library/materials', label: 'Materials', roles: [] },
   { to: '/library/quenchants', label: 'Quench media', roles: [] },
   { to: '/admin/furnaces', label: 'Furnaces', roles: ['admin'] },

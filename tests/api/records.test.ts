@@ -13,8 +13,8 @@ import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
 import { anonymous, demoUser, signInAs, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { caughtAttachment, caughtMail, waitForMail } from '../support/mailCatcher'
-import { savePlan, thinSheetSpec, type SavedPlan } from '../support/plans'
-import { booking, createLine } from '../support/schedule'
+import type { SavedPlan } from '../support/plans'
+import { move, quickPlan, releaseLoad, type Released } from '../support/records'
 import { BASE_URL } from '../support/stackConfig'
 
 let admin: Client
@@ -26,53 +26,6 @@ let db: mysql.Connection
 const ids: Record<string, number> = {}
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
-/** The 2 mm water-quenched sheet (handling within seconds) with a 2 s minimum soak, so a test can run the whole floor sequence. */
-async function quickPlan(quenchDelayAllowance_s: number): Promise<SavedPlan> {
-  const spec = thinSheetSpec(lib)
-  return await savePlan(metallurgist, { ...spec, soak: { ...spec.soak!, minimumSoak_s: 2 }, quenchDelayAllowance_s })
-}
-
-interface Driven {
-  batchId: number
-  loadNumber: string
-  at: Record<string, number>
-  release: { status: number; body: any }
-}
-
-async function move(client: Client, batchId: number, to: string) {
-  return await client.request(`/api/batches/${batchId}/events`, { method: 'POST', body: { to } })
-}
-
-/**
- * Books `plan` now on a fresh line and records charge, core at heat (then waits
- * `soakWait_ms`) and quench as the operator, then releases as soon as the clock allows.
- * Returns the recorded instants (ms) by state, as GET /api/batches/:id lists them.
- */
-async function drive(plan: SavedPlan, soakWait_ms: number, recorder: Client = operator): Promise<Driven> {
-  const line = await createLine(admin, 'Rec')
-  const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-REC') })
-  expect(booked.status).toBe(201)
-  const batchId = booked.body.id
-  expect((await move(recorder, batchId, 'charged')).status).toBe(201)
-  expect((await move(recorder, batchId, 'soaking')).status).toBe(201)
-  await pause(soakWait_ms)
-  expect((await move(recorder, batchId, 'quenched')).status).toBe(201)
-  // Straight after the quench the core is still hot: release is refused and no record exists.
-  const early = await move(recorder, batchId, 'released')
-  expect(early.status).toBe(409)
-  let release = early
-  const deadline = Date.now() + 20_000
-  while (release.status === 409 && Date.now() < deadline) {
-    await pause(400)
-    release = await move(recorder, batchId, 'released')
-  }
-  expect(release.status).toBe(201)
-  const detail = await qa.request(`/api/batches/${batchId}`)
-  const at: Record<string, number> = {}
-  for (const event of detail.body.events) at[event.toState] = Date.parse(event.at)
-  return { batchId, loadNumber: booked.body.loadNumber, at, release }
-}
-
 async function recordOf(batchId: number, client: Client = qa) {
   const list = await client.request('/api/records?limit=500')
   expect(list.status).toBe(200)
@@ -81,11 +34,11 @@ async function recordOf(batchId: number, client: Client = qa) {
   return (await client.request(`/api/records/${item.id}`)).body
 }
 
-let clean: Driven
+let clean: Released
 let cleanRecord: any
-let shortSoak: Driven
+let shortSoak: Released
 let shortRecord: any
-let late: Driven
+let late: Released
 let lateRecord: any
 let cleanPlan: SavedPlan
 let latePlan: SavedPlan
@@ -96,8 +49,8 @@ beforeAll(async () => {
   const people = (await admin.request('/api/users')).body as { id: number; email: string }[]
   for (const role of ['operator', 'qa', 'metallurgist', 'admin'] as const) ids[role] = people.find((p) => p.email === demoUser(role).email)!.id
   lib = await createLibraryFixture(metallurgist)
-  cleanPlan = await quickPlan(60)
-  latePlan = await quickPlan(0)
+  cleanPlan = await quickPlan(metallurgist, lib, 60)
+  latePlan = await quickPlan(metallurgist, lib, 0)
   const url = execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim()
   db = await mysql.createConnection({ uri: url, timezone: 'Z' })
 
@@ -109,13 +62,13 @@ beforeAll(async () => {
   const switcherClient = (await signInAs(switcher.email, switcher.password))!
 
   // Released 2.5 s after core at heat: soak 2 s as planned, quench 0.5 s later, within the 60 s allowance.
-  clean = await drive(cleanPlan, 2500)
+  clean = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, cleanPlan, 2500)
   cleanRecord = await recordOf(clean.batchId)
   // Quenched at once: the soak is cut short.
-  shortSoak = await drive(cleanPlan, 0)
+  shortSoak = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, cleanPlan, 0)
   shortRecord = await recordOf(shortSoak.batchId)
   // 3 s after core at heat against a 2 s soak and a 0 s allowance: a quench delay of about 1 s; recorded by the future QA lead.
-  late = await drive(latePlan, 3000, switcherClient)
+  late = await releaseLoad({ admin, metallurgist, recorder: switcherClient, reader: qa }, latePlan, 3000)
   lateRecord = await recordOf(late.batchId)
   expect((await admin.request(`/api/users/${switcher.id}`, { method: 'PATCH', body: { role: 'qa' } })).status).toBe(200)
 }, 120_000)
@@ -196,7 +149,7 @@ describe('the record written on release', () => {
   })
 
   it('release before the predicted handling time is refused (409) and writes no record; the release after it did', async () => {
-    // drive() asserted the early 409; here: exactly one record per released batch.
+    // releaseLoad() asserted the early 409; here: exactly one record per released batch.
     const list = (await qa.request('/api/records?limit=500')).body as { batchId: number }[]
     for (const batchId of [clean.batchId, shortSoak.batchId, late.batchId]) expect(list.filter((r) => r.batchId === batchId)).toHaveLength(1)
     expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.quenchToHandling_s * 1000))

@@ -1,10 +1,11 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import type { BatchView, FloorResponse } from '../../shared/types/schedule'
+import type { FloorResponse } from '../../shared/types/schedule'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture } from '../support/library'
 import { pinSpec, savePlan } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
+import { quickPlan, releaseLoad } from '../support/records'
 
 const browser = useBrowser()
 let admin: Client
@@ -50,18 +51,21 @@ describe('the shift overview per role', () => {
     await page.context().close()
   })
 
-  it('QA sees the loads handed on in the last 48 hours, newest first', async () => {
+  it('QA sees the unsigned records waiting, oldest first, as the records API lists them', async () => {
+    const lib = await createLibraryFixture(metallurgist)
+    const plan = await quickPlan(metallurgist, lib, 60)
+    const [operator, qa] = await Promise.all([signInDemo('operator'), signInDemo('qa')])
+    const released = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, plan, 2500)
+
     const page = await browser.tabletPage()
     await signInThroughPage(page, 'qa')
-    const now = Date.now()
-    const recent = (await admin.request(`/api/batches?from=${new Date(now - 48 * HOUR).toISOString()}&to=${new Date(now).toISOString()}`)).body.batches as BatchView[]
-    const expected = recent.filter((b) => b.state === 'released').sort((a, b) => b.handlingAt - a.handlingAt).map((b) => b.loadNumber)
-    // The demo shop has loads released earlier today.
-    expect(expected.length).toBeGreaterThan(0)
+    const waiting = (await qa.request('/api/records?state=unsigned&sort=releasedAt&dir=asc&limit=50')).body as { loadNumber: string; releasedAt: string }[]
+    expect(waiting.at(-1)!.loadNumber).toBe(released.loadNumber)
+    expect(waiting.map((r) => r.releasedAt)).toEqual(waiting.map((r) => r.releasedAt).sort())
     // The panel loads in the browser after sign-in: wait for its rows before reading them.
-    await page.getByTestId('shift-handed-on').locator('tbody tr').first().waitFor()
-    const shown = await page.getByTestId('shift-handed-on').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-load')))
-    expect(shown).toEqual(expected)
+    await page.getByTestId('shift-unsigned').locator('tbody tr').first().waitFor()
+    const shown = await page.getByTestId('shift-unsigned').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-load')))
+    expect(shown).toEqual(waiting.map((r) => r.loadNumber))
     await page.screenshot({ path: `${SCREENSHOT_DIR}/home-qa.png` })
     await page.context().close()
   })
