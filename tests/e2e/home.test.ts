@@ -62,8 +62,8 @@ describe('the shift overview per role', () => {
     const waiting = (await qa.request('/api/records?state=unsigned&sort=releasedAt&dir=asc&limit=50')).body as { loadNumber: string; releasedAt: string }[]
     expect(waiting.at(-1)!.loadNumber).toBe(released.loadNumber)
     expect(waiting.map((r) => r.releasedAt)).toEqual(waiting.map((r) => r.releasedAt).sort())
-    // The panel loads in the browser after sign-in: wait for its rows before reading them.
-    await page.getByTestId('shift-unsigned').locator('tbody tr').first().waitFor()
+    // The panel fetches after the client-side move from the sign-in page.
+    await page.getByTestId('shift-unsigned').locator(`tr[data-load="${released.loadNumber}"]`).waitFor()
     const shown = await page.getByTestId('shift-unsigned').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-load')))
     expect(shown).toEqual(waiting.map((r) => r.loadNumber))
     await page.screenshot({ path: `${SCREENSHOT_DIR}/home-qa.png` })
