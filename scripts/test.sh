@@ -21,7 +21,13 @@ fi
 
 build_if_stale
 status=0
-npx vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json "$@" || status=$?
+# A full run also type-checks the app, server and tests (vue-tsc); a run of chosen files skips it.
+if [ $# -eq 0 ]; then
+  echo "[check] type-checking (nuxt typecheck)…"
+  npx nuxt typecheck > .data/typecheck.log 2>&1 && echo "[check] types: no errors" || { cat .data/typecheck.log; echo "[check] types: errors above" >&2; status=1; }
+fi
+rm -f test-results/vitest.json
+npx vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json "$@" || status=1
 # One plain closing line that any CI can read, from vitest's own JSON report.
 if [ -f test-results/vitest.json ]; then
   node -e "const r=require('./test-results/vitest.json'); console.log('Summary: ' + r.numPassedTests + ' passed, ' + r.numFailedTests + ' failed' + (r.numPendingTests ? ', ' + r.numPendingTests + ' skipped' : ''))"
