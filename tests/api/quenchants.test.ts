@@ -23,7 +23,7 @@ const newQuenchant = (name: string) => ({
 
 async function seeded(name: string) {
   const found = (await metallurgist.request('/api/quenchants')).body.find((q: { name: string }) => q.name === name)
-  expect(found, name).toBeTruthy()
+  expect(found?.name, `seeded quench medium ${name}`).toBe(name)
   return found
 }
 

@@ -4,7 +4,7 @@ import { rodRoot, slabRoot, sphereRoot, symmetricRoot, uniformInitialCoefficient
 import type { Geometry } from '../../../server/thermal/types'
 
 describe('Bessel functions', () => {
-  // Abramowitz & Stegun, Handbook of Mathematical Functions, Table 9.1.
+  // Abramowitz & Stegun (NBS Applied Mathematics Series 55), Table 9.1.
   it.each([
     [0, 1, 0.7651976866, 'A&S Table 9.1'],
     [1, 1, 0.4400505857, 'A&S Table 9.1'],
