@@ -71,27 +71,59 @@ export interface SeriesInput {
 
 const LOOKAHEAD = 4
 
+/** Tail allowed at the earliest time: 0.01 K, or 80 % of a caller's accuracy_K. */
+export function truncationTolerance(accuracy_K: number | undefined): number {
+  return accuracy_K === undefined ? TRUNCATION_TOLERANCE_K : 0.8 * accuracy_K
+}
+
+/** First guess at the mode count: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)². */
+export function firstModeGuess(tauMin: number, minModes: number, maxModes: number): number {
+  const n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI) + 1
+  return Math.min(Math.max(n, minModes, 4), maxModes)
+}
+
+/** Modes to compute for a guess n: a few past it, so the tail beyond the cut is bounded by computed terms. */
+export function modesToCompute(n: number, maxModes: number): number {
+  return Math.min(n + LOOKAHEAD, maxModes)
+}
+
+/**
+ * Where to cut the first `computed` terms (each |a_n| max|f_n| e^{−μ_n τ_min}) and the
+ * tail left out, or null when fewer than three computed terms lie past the cut and
+ * more modes are needed (double the guess and compute again).
+ */
+export function truncate(
+  terms: ArrayLike<number>,
+  computed: number,
+  minModes: number,
+  maxModes: number,
+  tolerance_K: number,
+): { cut: number; truncationError_K: number } | null {
+  let cut = computed
+  let tail = 0
+  while (cut > minModes && tail + terms[cut - 1] < tolerance_K) {
+    tail += terms[cut - 1]
+    cut--
+  }
+  if (computed - cut >= 3) return { cut, truncationError_K: tail }
+  // At the mode cap with too few terms past the cut, the last computed term stands in for the tail.
+  if (computed >= maxModes) return { cut, truncationError_K: tail + terms[computed - 1] }
+  return null
+}
+
 export function buildStageSeries(input: SeriesInput): StageSeries {
   const { domain, family } = input
   const tauMin = Math.max(input.earliest_s, 0) / domain.timeScale_s
-  // Guess: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)².
-  let n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI) + 1
-  n = Math.min(Math.max(n, input.minModes, 4), input.maxModes)
+  let n = firstModeGuess(tauMin, input.minModes, input.maxModes)
   const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
   for (;;) {
-    const computed = Math.min(n + LOOKAHEAD, input.maxModes)
+    const computed = modesToCompute(n, input.maxModes)
     const modes = Array.from({ length: computed }, (_, i) => family.mode(i + 1))
     const closed = closedFormProjection(input, modes, tauMin)
     const { amplitudes, means, terms, steadyMean } = closed ?? quadratureProjection(input, modes, tauMin, maxRatio)
-    let cut = computed
-    let tail = 0
-    while (cut > input.minModes && tail + terms[cut - 1] < (input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)) {
-      tail += terms[cut - 1]
-      cut--
-    }
-    if (computed - cut >= 3 || computed >= input.maxModes) {
-      // At the mode cap with too few terms past the cut, the last computed term stands in for the tail.
-      const truncation = computed - cut >= 3 ? tail : tail + terms[computed - 1]
+    const kept = truncate(terms, computed, input.minModes, input.maxModes, input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)
+    if (kept) {
+      const { cut } = kept
       return {
         start_s: input.start_s,
         end_s: input.end_s,
@@ -102,7 +134,7 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
         amplitudes_K: amplitudes.slice(0, cut),
         shapes: modes.slice(0, cut).map((m) => m.shape),
         modeMeans: means.slice(0, cut),
-        truncationError_K: truncation,
+        truncationError_K: kept.truncationError_K,
         ...(modes.every((m) => m.surface) ? { surfaces: modes.slice(0, cut).map((m) => m.surface as SurfaceValues) } : {}),
       }
     }
