@@ -12,11 +12,12 @@ import { pointValue } from '../../shared/pointSeries'
 import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
 import { compositeRule } from './quadrature'
 import type { SurfaceValues } from './eigenRoots'
-import { buildStageSeries, seriesValue, TRUNCATION_TOLERANCE_K, type ModalStart, type StageSeries } from './series'
+import { buildStageSeries, seriesValue, truncationTolerance, type ModalStart, type StageSeries } from './series'
 import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { Boundary, CooldownProblem, TemperaturePoint } from './types'
+import { solveUniformSymmetric } from './uniformSolution'
 
 /** Where a temperature is read: a named place, or x as a fraction of length_m. */
 export type PointRef = 'centre' | 'surface' | 'mean' | { x: number }
@@ -90,7 +91,18 @@ export function profileAt(points: TemperaturePoint[], x: number): number {
   return a.T_C + ((Math.min(Math.max(x, a.x), b.x) - a.x) / (b.x - a.x)) * (b.T_C - a.T_C)
 }
 
+/**
+ * Uniform bodies with a symmetric centre and a uniform start take the fast path
+ * (uniformSolution.ts), which gives the same result with less set-up; every other
+ * body the general one below.
+ */
 export function solveCooldown(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
+  const accuracy = options.accuracy_K
+  if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
+  return solveUniformSymmetric(problem, options, MAX_MODES_ANALYTIC) ?? solveBySeries(problem, options)
+}
+
+function solveBySeries(problem: CooldownProblem, options: SolveOptions): CooldownSolution {
   const domain = scaleDomain(problem.domain)
   const geometry = problem.domain.geometry
   const initial = problem.initial
@@ -98,7 +110,6 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
   const stages: StageSeries[] = []
   const summaries: StageSummary[] = []
   const accuracy = options.accuracy_K
-  if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
   const shooting = accuracy === undefined ? FINE_SHOOTING : shootingAccuracy(accuracy)
   let start_s = 0
   problem.stages.forEach((stage, i) => {
@@ -124,7 +135,7 @@ export function solveCooldown(problem: CooldownProblem, options: SolveOptions = 
       symmetricUniformSteady: inner.biot === 0,
       earliest_s: earliest ?? 0.01 * domain.timeScale_s,
       minModes: options.minModes ?? 1,
-      truncationTolerance_K: accuracy === undefined ? TRUNCATION_TOLERANCE_K : 0.8 * accuracy,
+      truncationTolerance_K: truncationTolerance(accuracy),
       maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,
       start_s,
       end_s,
