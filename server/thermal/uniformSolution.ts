@@ -98,6 +98,8 @@ class UniformStage {
   /** f(1) and f′(1), for the closed-form integrals. */
   readonly f1: number[] = []
   readonly df1: number[] = []
+  /** Σ_{k ≥ j} |a_k| over the kept modes: with |f| ≤ 1 and rates rising, e^{−μ_j τ} times it bounds what is left of a sum. */
+  readonly ampTail: number[] = []
   truncationError_K = 0
 
   constructor(start_s: number, end_s: number, summaryEnd_s: number | null, steady_C: number, biot: number) {
@@ -162,6 +164,8 @@ class UniformStage {
       if (kept) {
         this.count = kept.cut
         this.truncationError_K = kept.truncationError_K
+        let tail = 0
+        for (let j = kept.cut - 1; j >= 0; j--) this.ampTail[j] = tail += Math.abs(this.amp[j])
         return
       }
       n = Math.min(2 * n, maxModes)
@@ -250,18 +254,25 @@ function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number
     }
     const newton = g / dg
     const halley = 1 - (0.5 * newton * d2g) / dg
-    const d = halley > 0.5 ? newton / halley : newton
-    // Halley triples the digits, so after a step this small the root is exact to rounding,
-    // and f(1), f′(1) at it follow from the values at x to first order in d.
-    if (Math.abs(d) <= 1e-13 * x) {
+    const cubic = halley > 0.5
+    const d = cubic ? newton / halley : newton
+    // A Halley step triples the digits: after one of 1e-7 relative the root x − d is exact
+    // to rounding, and f(1), f′(1) there follow from the values at x to second order in d
+    // (the neglected d³ is below rounding too). That saves the rod a pair of J0, J1 calls.
+    if (Math.abs(d) <= (cubic ? 1e-7 : 1e-13) * x) {
       const lam = x - d
-      if (m === 0) return surfaceAt(m, lam)
-      if (m === 1) {
-        rootF1 = a + b * d
-        rootDf1 = -lam * (b - (a - b / x) * d)
+      const h = 0.5 * d * d
+      if (m === 0) {
+        // At the root tan(λ − (n − 1)π) = Bi/λ, so cos λ and sin λ are (−1)^(n−1) (λ, Bi)/√(λ² + Bi²).
+        const r = (n % 2 === 1 ? 1 : -1) / Math.sqrt(lam * lam + bi * bi)
+        rootF1 = lam * r
+        rootDf1 = -lam * bi * r
+      } else if (m === 1) {
+        rootF1 = a + b * d + (-a + b / x) * h
+        rootDf1 = -lam * (b - (a - b / x) * d + (-b - a / x + (2 * b) / (x * x)) * h)
       } else {
-        rootF1 = c - e * d
-        rootDf1 = b + a * d - rootF1
+        rootF1 = c - e * d + (-c - (2 * e) / x) * h
+        rootDf1 = b + a * d - b * h - rootF1
       }
       return lam
     }
@@ -368,7 +379,12 @@ class UniformSolution implements CooldownSolution {
     }
     const tau = (t_s - s.start_s) / this.timeScale_s
     let T = s.steady_C
-    for (let j = 0; j < s.count; j++) T += s.amp[j] * shapeAt(this.m, s.lam[j], x) * Math.exp(-s.rate[j] * tau)
+    for (let j = 0; j < s.count; j++) {
+      const decay = Math.exp(-s.rate[j] * tau)
+      // The terms left add less than 1e-15 K, below rounding: most readings need a mode or two.
+      if (decay * s.ampTail[j] < 1e-15) break
+      T += s.amp[j] * shapeAt(this.m, s.lam[j], x) * decay
+    }
     return T
   }
 
