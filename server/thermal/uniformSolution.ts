@@ -91,9 +91,8 @@ class UniformStage {
   readonly biot: number
   /** Modes kept; the arrays also hold the few computed past the cut. */
   count = 0
+  /** Roots λ; the dimensionless decay rates are λ², squared where used (one array fewer to allocate). */
   readonly lam: number[] = []
-  /** Dimensionless decay rates λ². */
-  readonly rate: number[] = []
   readonly amp: number[] = []
   /** f(1) and f′(1), for the closed-form integrals. */
   readonly f1: number[] = []
@@ -128,7 +127,7 @@ class UniformStage {
     if (typeof start !== 'number') {
       const tau = (start.end_s - start.start_s) / timeScale_s
       carried = []
-      for (let j = 0; j < start.count; j++) carried.push(start.amp[j] * Math.exp(-start.rate[j] * tau))
+      for (let j = 0; j < start.count; j++) carried.push(start.amp[j] * Math.exp(-start.lam[j] * start.lam[j] * tau))
     }
     let computedSoFar = 0
     let n = firstModeGuess(tauMin, minModes, maxModes)
@@ -152,7 +151,6 @@ class UniformStage {
         }
         const a = projection / normOf(m, lam, f1, df1)
         this.lam.push(lam)
-        this.rate.push(lam * lam)
         this.amp.push(a)
         this.f1.push(f1)
         this.df1.push(df1)
@@ -338,7 +336,7 @@ class UniformSolution implements CooldownSolution {
         timeScale_s: this.timeScale_s,
         steady: () => steady_C,
         steadyMean_C: steady_C,
-        rates: s.rate.slice(0, s.count),
+        rates: lam.map((l) => l * l),
         amplitudes_K: s.amp.slice(0, s.count),
         shapes: lam.map((l) => uniformShape(this.geometry, l, 0)),
         modeMeans: lam.map((l, j) => (this.m + 1) * massOf(l, s.df1[j])),
@@ -350,7 +348,7 @@ class UniformSolution implements CooldownSolution {
 
   get summaries(): StageSummary[] {
     return (this.stageSummaries ??= this.modes.map((s) => {
-      const rates = s.rate.slice(0, s.count).map((r) => r / this.timeScale_s)
+      const rates = s.lam.slice(0, s.count).map((l) => (l * l) / this.timeScale_s)
       return {
         start_s: s.start_s,
         end_s: s.summaryEnd_s,
@@ -380,7 +378,7 @@ class UniformSolution implements CooldownSolution {
     const tau = (t_s - s.start_s) / this.timeScale_s
     let T = s.steady_C
     for (let j = 0; j < s.count; j++) {
-      const decay = Math.exp(-s.rate[j] * tau)
+      const decay = Math.exp(-s.lam[j] * s.lam[j] * tau)
       // The terms left add less than 1e-15 K, below rounding: most readings need a mode or two.
       if (decay * s.ampTail[j] < 1e-15) break
       T += s.amp[j] * shapeAt(this.m, s.lam[j], x) * decay
@@ -402,7 +400,7 @@ class UniformSolution implements CooldownSolution {
       const terms = []
       for (let j = 0; j < s.count; j++) {
         const weight = at === 'mean' ? (this.m + 1) * massOf(s.lam[j], s.df1[j]) : shapeAt(this.m, s.lam[j], x)
-        terms.push({ amplitude_K: s.amp[j] * weight, decayRate_per_s: s.rate[j] / this.timeScale_s })
+        terms.push({ amplitude_K: s.amp[j] * weight, decayRate_per_s: (s.lam[j] * s.lam[j]) / this.timeScale_s })
       }
       return { start_s: s.start_s, ...(Number.isFinite(s.end_s) ? { end_s: s.end_s } : {}), steady_C: s.steady_C, terms }
     })
