@@ -37,7 +37,11 @@ export function firstCrossing(stages: PointStage[], start_C: number, target: Tar
       const g = gap(pointStageValue(stage, t))
       if (g <= 0) {
         const f = (s: number) => gap(pointStageValue(stage, s))
-        return brent(f, prevT, t, { fa: prevGap, fb: g, rtol: 1e-13 })
+        // At a stage start the carried-over value is exact but the stage's truncated series
+        // may already disagree (a fixed surface jumps at once): bracket with the series itself.
+        const fa = prevT > stage.start_s ? prevGap : f(prevT)
+        if (fa <= 0) return prevT
+        return brent(f, prevT, t, { fa, fb: g, rtol: 1e-13 })
       }
       prevT = t
       prevGap = g

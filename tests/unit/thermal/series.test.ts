@@ -127,3 +127,18 @@ describe('time to target', () => {
     expect(sol.evaluate(20000, 1)).toBeLessThan(target)
   })
 })
+
+describe('time to target at a stage start', () => {
+  it.each(['slab', 'rod', 'sphere'] as const)(
+    '%s: a surface held at 20 °C is below 100 °C from the first instant (the closed-form surface value), without a search failure',
+    (geometry) => {
+      // A fixed surface temperature is the boundary condition itself: T(R, t) = 20 °C for every t > 0.
+      const problem = uniformProblem(geometry, 0.02, K, RHOCP, 850, [{ outer: fixed(20) }])
+      const sol = solveCooldown(problem, { earliest_s: 1 })
+      const t = sol.targetTime('surface', { below_C: 100 }) as number
+      expect(t).toBeGreaterThanOrEqual(0)
+      expect(t).toBeLessThan(1)
+      expect(sol.evaluate(1, 1)).toBeCloseTo(20, 6)
+    },
+  )
+})
