@@ -3,26 +3,17 @@
  * so every style is inline and the layout is tables; colours are the app's palette.
  */
 import { RECORD_EVENT_LABELS, type HoldTimeSheet } from '../../shared/types/records'
+import { palette, white } from '../../shared/palette'
 import { formatInstant, formatSpan, formatTemperature } from './format'
 
-const INK_900 = '#131b24'
-const INK_600 = '#4a5a6b'
-const INK_200 = '#cbd3dc'
-const INK_50 = '#f5f7f9'
-const TEMPER_400 = '#f0a53a'
-const TEMPER_50 = '#fff6e8'
-const TEMPER_800 = '#7a420a'
-const BATH_800 = '#114c48'
-const BATH_50 = '#e9f7f6'
-const ALARM_50 = '#fdeeee'
-const ALARM_800 = '#6e1717'
+const { ink, temper, bath, alarm } = palette
 
 export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
 }
 
-const cell = `padding:6px 10px;border-bottom:1px solid ${INK_200};text-align:left;vertical-align:top;`
-const headCell = `${cell}font-size:11px;text-transform:uppercase;letter-spacing:0.04em;color:${INK_600};`
+const cell = `padding:6px 10px;border-bottom:1px solid ${ink[200]};text-align:left;vertical-align:top;`
+const headCell = `${cell}font-size:11px;text-transform:uppercase;letter-spacing:0.04em;color:${ink[600]};`
 
 function rows(pairs: [string, string][]): string {
   return pairs
@@ -31,7 +22,7 @@ function rows(pairs: [string, string][]): string {
 }
 
 function section(title: string, body: string): string {
-  return `<h2 style="margin:24px 0 8px;font-size:16px;color:${INK_900};">${escapeHtml(title)}</h2>${body}`
+  return `<h2 style="margin:24px 0 8px;font-size:16px;color:${ink[900]};">${escapeHtml(title)}</h2>${body}`
 }
 
 const table = (inner: string) => `<table role="presentation" cellspacing="0" cellpadding="0" style="width:100%;border-collapse:collapse;font-size:14px;">${inner}</table>`
@@ -61,10 +52,10 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
   )
 
   const deviations = sheet.deviations.length
-    ? `<div style="background:${ALARM_50};border:1px solid #e26262;border-radius:6px;padding:10px 14px;color:${ALARM_800};font-size:14px;"><ul style="margin:0;padding-left:18px;">${sheet.deviations
+    ? `<div style="background:${alarm[50]};border:1px solid ${alarm[400]};border-radius:6px;padding:10px 14px;color:${alarm[800]};font-size:14px;"><ul style="margin:0;padding-left:18px;">${sheet.deviations
         .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
         .join('')}</ul></div>`
-    : `<p style="background:${BATH_50};border-radius:6px;padding:10px 14px;color:${BATH_800};font-size:14px;margin:0;">No deviations from the plan.</p>`
+    : `<p style="background:${bath[50]};border-radius:6px;padding:10px 14px;color:${bath[800]};font-size:14px;margin:0;">No deviations from the plan.</p>`
 
   const events = table(
     `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
@@ -73,26 +64,26 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
         .join(''),
   )
 
-  const cautions = `<div style="background:${TEMPER_50};border-left:4px solid ${TEMPER_400};padding:10px 14px;color:${TEMPER_800};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions
+  const cautions = `<div style="background:${temper[50]};border-left:4px solid ${temper[400]};padding:10px 14px;color:${temper[800]};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions
     .map((caution) => `<li>${escapeHtml(caution)}</li>`)
     .join('')}</ul></div>`
 
   const last = sheet.predictedCurve.at(-1)
   const curveNote = last
-    ? `<p style="font-size:14px;color:${INK_600};margin:0;">${sheet.predictedCurve.length} predicted points from ${formatTemperature(sheet.predictedCurve[0]!.T_C)} at the quench to ${formatTemperature(last.T_C)} after ${formatSpan(last.t_s)}; the full curve is in the attached PDF and CSV.</p>`
+    ? `<p style="font-size:14px;color:${ink[600]};margin:0;">${sheet.predictedCurve.length} predicted points from ${formatTemperature(sheet.predictedCurve[0]!.T_C)} at the quench to ${formatTemperature(last.T_C)} after ${formatSpan(last.t_s)}; the full curve is in the attached PDF and CSV.</p>`
     : ''
 
   const signOff = sheet.signOffUrl
-    ? `<p style="margin:24px 0 0;"><a href="${escapeHtml(sheet.signOffUrl)}" data-role="sign-off" style="display:inline-block;background:${BATH_800};color:#ffffff;text-decoration:none;font-weight:600;padding:10px 18px;border-radius:6px;">Review and sign the record</a></p>`
+    ? `<p style="margin:24px 0 0;"><a href="${escapeHtml(sheet.signOffUrl)}" data-role="sign-off" style="display:inline-block;background:${bath[800]};color:${white};text-decoration:none;font-weight:600;padding:10px 18px;border-radius:6px;">Review and sign the record</a></p>`
     : ''
 
-  return `<!doctype html><html lang="en"><body style="margin:0;padding:0;background:${INK_50};">
-<div style="max-width:680px;margin:0 auto;padding:24px;font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${INK_900};">
-<div style="background:${INK_900};color:#ffffff;border-radius:8px 8px 0 0;padding:14px 20px;border-bottom:3px solid ${TEMPER_400};">
-<div style="font-size:12px;letter-spacing:0.06em;text-transform:uppercase;color:${INK_200};">${escapeHtml(sheet.shopName)} · Hold-time sheet</div>
+  return `<!doctype html><html lang="en"><body style="margin:0;padding:0;background:${ink[50]};">
+<div style="max-width:680px;margin:0 auto;padding:24px;font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${ink[900]};">
+<div style="background:${ink[900]};color:${white};border-radius:8px 8px 0 0;padding:14px 20px;border-bottom:3px solid ${temper[400]};">
+<div style="font-size:12px;letter-spacing:0.06em;text-transform:uppercase;color:${ink[200]};">${escapeHtml(sheet.shopName)} · Hold-time sheet</div>
 <div style="font-size:22px;font-weight:600;margin-top:4px;">Load ${escapeHtml(sheet.loadNumber)}</div>
 </div>
-<div style="background:#ffffff;border:1px solid ${INK_200};border-top:0;border-radius:0 0 8px 8px;padding:8px 20px 20px;">
+<div style="background:${white};border:1px solid ${ink[200]};border-top:0;border-radius:0 0 8px 8px;padding:8px 20px 20px;">
 ${section('Load', identity)}
 ${section('Times', times)}
 ${section('Deviations', deviations)}
@@ -101,7 +92,7 @@ ${section('Events', events)}
 <div style="margin-top:24px;">${cautions}</div>
 ${signOff}
 </div>
-<p style="font-size:12px;color:${INK_600};margin:12px 4px;">Sent by Slakewise on ${escapeHtml(formatInstant(sheet.generatedAt))}. The PDF and the curve CSV are attached.</p>
+<p style="font-size:12px;color:${ink[600]};margin:12px 4px;">Sent by Slakewise on ${escapeHtml(formatInstant(sheet.generatedAt))}. The PDF and the curve CSV are attached.</p>
 </div></body></html>`
 }
 

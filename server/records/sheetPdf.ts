@@ -6,15 +6,10 @@
  */
 import PDFDocument from 'pdfkit'
 import { RECORD_EVENT_LABELS, type CurvePoint, type HoldTimeSheet } from '../../shared/types/records'
+import { palette } from '../../shared/palette'
 import { formatInstant, formatSpan, formatTemperature } from './format'
 
-const INK_900 = '#131b24'
-const INK_600 = '#4a5a6b'
-const INK_200 = '#cbd3dc'
-const TEMPER_400 = '#f0a53a'
-const TEMPER_800 = '#7a420a'
-const BATH_600 = '#1d7f77'
-const ALARM_600 = '#b42828'
+const { ink, temper, bath, alarm } = palette
 
 const MARGIN = 50
 
@@ -27,7 +22,7 @@ type Doc = InstanceType<typeof PDFDocument>
 
 function heading(doc: Doc, text: string) {
   ensureRoom(doc, 60)
-  doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor(INK_900).text(text, MARGIN)
+  doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor(ink[900]).text(text, MARGIN)
   doc.moveDown(0.3)
 }
 
@@ -45,10 +40,10 @@ function drawTable(doc: Doc, widths: number[], rows: string[][]) {
     const top = doc.y
     let x = MARGIN
     row.forEach((text, column) => {
-      doc.fillColor(index === 0 ? INK_600 : INK_900).text(text, x + 4, top + 4, { width: widths[column]! - 8 })
+      doc.fillColor(index === 0 ? ink[600] : ink[900]).text(text, x + 4, top + 4, { width: widths[column]! - 8 })
       x += widths[column]!
     })
-    doc.moveTo(MARGIN, top + height).lineTo(MARGIN + width, top + height).lineWidth(0.5).strokeColor(INK_200).stroke()
+    doc.moveTo(MARGIN, top + height).lineTo(MARGIN + width, top + height).lineWidth(0.5).strokeColor(ink[200]).stroke()
     doc.x = MARGIN
     doc.y = top + height
   })
@@ -78,7 +73,7 @@ function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, q
   const x = (t_s: number) => left + (t_s / 60 / (Math.ceil(minutes / stepMin) * stepMin)) * width
   const y = (T_C: number) => top + height - ((T_C - TMin) / (TMax - TMin)) * height
 
-  doc.lineWidth(0.5).strokeColor(INK_200).font('Helvetica').fontSize(8).fillColor(INK_600)
+  doc.lineWidth(0.5).strokeColor(ink[200]).font('Helvetica').fontSize(8).fillColor(ink[600])
   for (let T = TMin; T <= TMax + 1e-9; T += stepT) {
     doc.moveTo(left, y(T)).lineTo(left + width, y(T)).stroke()
     doc.text(`${T.toFixed(0)}`, MARGIN, y(T) - 4, { width: 34, align: 'right' })
@@ -91,14 +86,14 @@ function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, q
   doc.text('minutes after the quench starts', left, top + height + 16, { width, align: 'center' })
 
   // The handling temperature and the predicted handling time, dashed, so the reader sees where the curve crosses.
-  doc.lineWidth(1).strokeColor(BATH_600).dash(4, { space: 3 })
+  doc.lineWidth(1).strokeColor(bath[600]).dash(4, { space: 3 })
   doc.moveTo(left, y(handling_C)).lineTo(left + width, y(handling_C)).stroke()
   doc.moveTo(x(quenchToHandling_s), top).lineTo(x(quenchToHandling_s), top + height).stroke()
   doc.undash()
-  doc.fillColor(BATH_600).text(`handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, x(quenchToHandling_s) + 4, y(handling_C) - 12)
+  doc.fillColor(bath[600]).text(`handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, x(quenchToHandling_s) + 4, y(handling_C) - 12)
 
   if (curve.length > 1) {
-    doc.lineWidth(1.6).strokeColor(TEMPER_400).lineJoin('round')
+    doc.lineWidth(1.6).strokeColor(temper[400]).lineJoin('round')
     doc.moveTo(x(curve[0]!.t_s), y(curve[0]!.T_C))
     for (const point of curve.slice(1)) doc.lineTo(x(point.t_s), y(point.T_C))
     doc.stroke()
@@ -123,10 +118,10 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
   const contentWidth = doc.page.width - 2 * MARGIN
   const { planned, measured } = sheet
 
-  doc.rect(0, 0, doc.page.width, 6).fill(TEMPER_400)
-  doc.font('Helvetica').fontSize(9).fillColor(INK_600).text(`${sheet.shopName} · Hold-time sheet`, MARGIN, MARGIN)
-  doc.font('Helvetica-Bold').fontSize(20).fillColor(INK_900).text(`Load ${sheet.loadNumber}`)
-  doc.font('Helvetica').fontSize(9).fillColor(INK_600).text(`Generated ${formatInstant(sheet.generatedAt)}`)
+  doc.rect(0, 0, doc.page.width, 6).fill(temper[400])
+  doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(`${sheet.shopName} · Hold-time sheet`, MARGIN, MARGIN)
+  doc.font('Helvetica-Bold').fontSize(20).fillColor(ink[900]).text(`Load ${sheet.loadNumber}`)
+  doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(`Generated ${formatInstant(sheet.generatedAt)}`)
 
   heading(doc, 'Load')
   drawTable(doc, [150, contentWidth - 150], [
@@ -150,9 +145,9 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {
-    doc.font('Helvetica').fontSize(10).fillColor(BATH_600).text('No deviations from the plan.')
+    doc.font('Helvetica').fontSize(10).fillColor(bath[600]).text('No deviations from the plan.')
   } else {
-    doc.font('Helvetica').fontSize(10).fillColor(ALARM_600)
+    doc.font('Helvetica').fontSize(10).fillColor(alarm[600])
     for (const deviation of sheet.deviations) doc.text(`•  ${deviation.message}`, { width: contentWidth })
   }
 
@@ -166,7 +161,7 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
   ])
 
   heading(doc, 'Cautions')
-  doc.font('Helvetica').fontSize(9).fillColor(TEMPER_800)
+  doc.font('Helvetica').fontSize(9).fillColor(temper[800])
   for (const caution of sheet.cautions) {
     ensureRoom(doc, 30)
     doc.text(`•  ${caution}`, MARGIN, doc.y, { width: contentWidth })

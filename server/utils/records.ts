@@ -9,6 +9,7 @@ import { escapeHtml } from '../records/sheetHtml'
 import { holdTimeSheetMail } from '../records/sheetMail'
 import { formatInstant } from '../records/format'
 import { BATCH_STATE_LABELS } from '../../shared/schedule'
+import { palette } from '../../shared/palette'
 import type { RecordDetail, RecordListItem, RecordSnapshot } from '../../shared/types/cooldownRecord'
 import type { RecordListQuery } from '../../shared/schemas/records'
 import type { SessionUser } from './auth'
@@ -254,10 +255,10 @@ function rejectionMail(id: number, snapshot: RecordSnapshot, comment: string, by
     dedupeKey: `rejection:record-${id}`,
     to,
     subject: `Cooldown record rejected · Load ${load} · ${snapshot.plan.name}`,
-    html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:#131b24;">
+    html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
 <h1 style="font-size:20px;">Load ${escapeHtml(load)}: cooldown record rejected</h1>
 <p>${escapeHtml(by)} rejected the record on ${escapeHtml(formatInstant(at.toISOString()))}.</p>
-<blockquote style="border-left:4px solid #b42828;margin:12px 0;padding:6px 12px;background:#fdeeee;" data-role="comment">${escapeHtml(comment)}</blockquote>
+<blockquote style="border-left:4px solid ${palette.alarm[600]};margin:12px 0;padding:6px 12px;background:${palette.alarm[50]};" data-role="comment">${escapeHtml(comment)}</blockquote>
 <p>Plan: ${escapeHtml(snapshot.plan.name)}, revision ${snapshot.plan.revision}. Deviations recorded: ${snapshot.deviations.length ? snapshot.deviations.map((d) => escapeHtml(d.message)).join('; ') : 'none'}.</p>
 <p><a href="${escapeHtml(url)}">Open the record</a></p>
 </body></html>`,
@@ -299,7 +300,7 @@ export async function queueDailyDigest(db: Database, now: Date, actorId: number 
       dedupeKey,
       to,
       subject: `Records waiting for sign-off · ${day} · ${records.length}`,
-      html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:#131b24;">
+      html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
 <h1 style="font-size:20px;">${records.length} cooldown record${records.length === 1 ? '' : 's'} unsigned for more than a day</h1>
 <ul>${records.map((r) => `<li data-load="${escapeHtml(r.loadNumber)}"><a href="${escapeHtml(recordUrl(r.id))}">${escapeHtml(line(r))}</a></li>`).join('')}</ul>
 </body></html>`,
