@@ -28,3 +28,9 @@ export function useLibraryEditing<Entry>(dataKey: string) {
 
   return { canEdit, editing, saved, formAnchor, open, onSaved }
 }
+
+/** Saves a library entry: a PATCH of the existing one, or a POST of a new one. */
+export async function saveLibraryEntry(collection: 'materials' | 'quenchants', id: number | undefined, body: object): Promise<void> {
+  if (id === undefined) await $fetch(`/api/${collection}`, { method: 'POST', body })
+  else await $fetch(`/api/${collection}/${id}`, { method: 'PATCH', body })
+}

@@ -45,6 +45,21 @@ export const useUnitsStore = defineStore('units', () => {
 
   watch([temperature, length], save)
 
+  /** A stored °C as an edit field shows it: in the user's unit, to 0.01. */
+  function temperatureForEditing(value_C: number | null | undefined): number | '' {
+    return value_C == null ? '' : Math.round(temperatureFromC(value_C, temperature.value) * 100) / 100
+  }
+
+  /**
+   * The °C an edit field means. An untouched field keeps the stored °C exactly:
+   * converting the rounded °F back would add rounding noise to the audit trail.
+   */
+  function temperatureFromEditing(entered: number | '', stored_C: number | null | undefined): number | '' {
+    if (entered === '') return ''
+    if (stored_C != null && entered === temperatureForEditing(stored_C)) return stored_C
+    return temperatureToC(entered, temperature.value)
+  }
+
   const temperatureLabel = computed(() => TEMPERATURE_LABEL[temperature.value])
   const lengthLabel = computed(() => LENGTH_LABEL[length.value])
 
@@ -54,6 +69,8 @@ export const useUnitsStore = defineStore('units', () => {
     temperatureLabel,
     lengthLabel,
     load,
+    temperatureForEditing,
+    temperatureFromEditing,
     showTemperature: (value_C: number) => temperatureFromC(value_C, temperature.value),
     readTemperature: (value: number) => temperatureToC(value, temperature.value),
     showTemperatureDifference: (value_K: number) => temperatureDifferenceFromK(value_K, temperature.value),
