@@ -15,7 +15,7 @@
  * never mistakes it for a floor entry.
  */
 import { pointValue } from '../../shared/pointSeries'
-import { deriveSlots, type BatchState } from '../../shared/schedule'
+import { deriveSlots, type BatchState, type SlotDurations } from '../../shared/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
 import type { CurvePoint, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
@@ -44,14 +44,8 @@ export interface SnapshotInput {
     partCount: number
     mass_kg: number
     plannedCharge: Date
-    furnace_s: number
-    furnaceIsDefault: boolean
-    minimumSoak_s: number | null
-    transfer_s: number
-    quench_s: number
-    quenchToHandling_s: number
     quenchDelayAllowance_s: number
-  }
+  } & SlotDurations
   furnace: { id: number; name: string }
   station: { id: number; name: string }
   plan: { id: number; name: string }
