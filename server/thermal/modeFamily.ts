@@ -33,6 +33,18 @@ export interface ModeFamily {
 const uniformModes = new Map<string, Mode[]>()
 const UNIFORM_CACHE_SIZE = 64
 
+/**
+ * Shot modes of recent graded families, shared the same way. Each shot mode costs
+ * a few integrations (tens of microseconds each), and one plan solves the same
+ * families several times: runCase's two passes, the plan's headline and detailed
+ * runs, every re-solve after an edit of anything but the size, material or
+ * coefficients. The families are extended lazily, so a later solve that needs
+ * more modes adds to the same list. A hit is exact: the modes depend on nothing
+ * else than the key (scaled properties, Biot numbers, shooting accuracy).
+ */
+const gradedModes = new Map<string, (n: number) => Mode>()
+const GRADED_CACHE_SIZE = 32
+
 export function modeFamily(
   geometry: Geometry,
   domain: ScaledDomain,
@@ -68,5 +80,15 @@ export function modeFamily(
       },
     }
   }
-  return { analytic: false, mode: shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }, shooting) }
+  const key = [domain.m, innerBiot, outerBiot, shooting.rateRtol, shooting.fine.rtol, shooting.fine.atol, ...domain.pieces.flatMap((p) => [p.x0, p.x1, p.k0, p.k1, p.c0, p.c1])].join(' ')
+  let mode = gradedModes.get(key)
+  if (mode) {
+    // Most recently used last, so the oldest entry is the one evicted.
+    gradedModes.delete(key)
+  } else {
+    mode = shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }, shooting)
+    if (gradedModes.size >= GRADED_CACHE_SIZE) gradedModes.delete(gradedModes.keys().next().value as string)
+  }
+  gradedModes.set(key, mode)
+  return { analytic: false, mode }
 }

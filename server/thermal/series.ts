@@ -69,7 +69,8 @@ export interface SeriesInput {
   end_s: number
 }
 
-const LOOKAHEAD = 4
+/** Terms computed past the guess: the three truncate() needs to bound the tail. */
+const LOOKAHEAD = 3
 
 /** Tail allowed at the earliest time: 0.01 K, or 80 % of a caller's accuracy_K. */
 export function truncationTolerance(accuracy_K: number | undefined): number {
@@ -78,8 +79,8 @@ export function truncationTolerance(accuracy_K: number | undefined): number {
 
 /** First guess at the mode count: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)². */
 export function firstModeGuess(tauMin: number, minModes: number, maxModes: number): number {
-  const n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI) + 1
-  return Math.min(Math.max(n, minModes, 4), maxModes)
+  const n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI)
+  return Math.min(Math.max(n, minModes), maxModes)
 }
 
 /** Modes to compute for a guess n: a few past it, so the tail beyond the cut is bounded by computed terms. */

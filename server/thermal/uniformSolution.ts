@@ -123,11 +123,19 @@ class UniformStage {
     tolerance_K: number,
   ): void {
     // The previous stage's amplitudes at its end (series.ts, modalEnd).
+    // Amplitudes below rounding of the largest are dropped: |∫x^m g f| ≤ 1, so their
+    // share of any projection is too, and after a long stage most of them are.
     let carried: number[] | null = null
     if (typeof start !== 'number') {
       const tau = (start.end_s - start.start_s) / timeScale_s
       carried = []
-      for (let j = 0; j < start.count; j++) carried.push(start.amp[j] * Math.exp(-start.lam[j] * start.lam[j] * tau))
+      let largest = 0
+      for (let j = 0; j < start.count; j++) {
+        const a = start.amp[j] * Math.exp(-start.lam[j] * start.lam[j] * tau)
+        carried.push(a)
+        largest = Math.max(largest, Math.abs(a))
+      }
+      while (carried.length > 1 && Math.abs(carried[carried.length - 1]) < 1e-17 * largest) carried.pop()
     }
     let computedSoFar = 0
     let n = firstModeGuess(tauMin, minModes, maxModes)
@@ -147,7 +155,7 @@ class UniformStage {
         let projection = ((typeof start === 'number' ? start : start.steady_C) - this.steady_C) * massOf(lam, df1)
         if (carried !== null) {
           const from = start as UniformStage
-          for (let i = 0; i < from.count; i++) projection += carried[i] * overlapOf(m, from.lam[i], from.f1[i], from.df1[i], lam, f1, df1)
+          for (let i = 0; i < carried.length; i++) projection += carried[i] * overlapOf(m, from.lam[i], from.f1[i], from.df1[i], lam, f1, df1)
         }
         const a = projection / normOf(m, lam, f1, df1)
         this.lam.push(lam)

@@ -5,7 +5,8 @@ import { discreteRates } from '../../../server/thermal/discreteModes'
 import { rodRoot, slabRoot, sphereRoot, surfaceValues, uniformMass, uniformNorm, uniformOverlap } from '../../../server/thermal/eigenRoots'
 import { scaleDomain, type PropertyPiece } from '../../../server/thermal/properties'
 import { gaussLegendre } from '../../../server/thermal/quadrature'
-import { shootingModes } from '../../../server/thermal/shooting'
+import { modeFamily } from '../../../server/thermal/modeFamily'
+import { shootingAccuracy, shootingModes } from '../../../server/thermal/shooting'
 import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import type { CooldownProblem, Geometry, PropertyPoint } from '../../../server/thermal/types'
 
@@ -160,5 +161,26 @@ describe('Crank–Nicolson step growth option', () => {
   })
   it.each([0, -0.1, 1, Number.NaN])('rejects rampRate %f', (rampRate) => {
     expect(() => solveCrankNicolson(problem, { times_s: times, points: [0], rampRate })).toThrow(/rampRate/)
+  })
+})
+
+describe('graded mode cache', () => {
+  const domain = scaleDomain({ geometry: 'rod', length_m: 0.025, properties: casedRod })
+  it('a family asked again is the same family, extended lazily, with the rates a fresh shooting gives', () => {
+    const first = modeFamily('rod', domain, 0, 0.8)
+    const firstRates = [1, 2, 3].map((n) => first.mode(n).rate)
+    const again = modeFamily('rod', domain, 0, 0.8)
+    for (const n of [1, 2, 3]) expect(again.mode(n)).toBe(first.mode(n))
+    const fresh = shootingModes({ m: 1, pieces: domain.pieces, innerBiot: 0, outerBiot: 0.8 })
+    for (let n = 1; n <= 8; n++) expect(Math.abs(again.mode(n).rate / fresh(n).rate - 1)).toBeLessThan(1e-9)
+    firstRates.forEach((rate, i) => expect(Math.abs(rate / fresh(i + 1).rate - 1)).toBeLessThan(1e-9))
+  })
+
+  it('a different surface Biot number or shooting accuracy is a different family', () => {
+    const base = modeFamily('rod', domain, 0, 0.8).mode(1).rate
+    expect(modeFamily('rod', domain, 0, 0.9).mode(1).rate).toBeGreaterThan(base)
+    const loose = modeFamily('rod', domain, 0, 0.8, shootingAccuracy(0.05)).mode(1)
+    expect(loose).not.toBe(modeFamily('rod', domain, 0, 0.8).mode(1))
+    expect(Math.abs(loose.rate / base - 1)).toBeLessThan(1e-6)
   })
 })
