@@ -348,33 +348,48 @@ export async function listBatches(from: Date, to: Date, furnaceId?: number, db: 
   return { serverNow: now, batches: rows.map((row) => toBatchView(row, settings, now)) }
 }
 
-export async function getBatch(id: number): Promise<BatchDetail> {
-  const db = useDb()
-  const [found] = await db
-    .select({ batch: batches, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary, furnaceName: furnaces.name, stationName: quenchStations.name })
+/** Batches with the plan, revision summary, furnace and station they were booked on: the detail, the floor and the record read these. */
+export function selectBatchesInContext(db: Database | Transaction) {
+  return db
+    .select({
+      batch: batches,
+      plan: { id: plans.id, name: plans.name },
+      revision: { id: planRevisions.id, revision: planRevisions.revision, summary: planRevisions.summary },
+      furnace: { id: furnaces.id, name: furnaces.name },
+      station: { id: quenchStations.id, name: quenchStations.name },
+    })
     .from(batches)
     .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
     .innerJoin(plans, eq(plans.id, planRevisions.planId))
     .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
     .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
-    .where(eq(batches.id, id))
-  if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
-  const events = await db
-    .select({ id: batchEvents.id, fromState: batchEvents.fromState, toState: batchEvents.toState, at: batchEvents.at, actorName: users.displayName })
+}
+
+/** A batch's recorded moves in the order they happened, each with who made it. */
+export function batchEventsOf(db: Database | Transaction, batchId: number) {
+  return db
+    .select({ id: batchEvents.id, fromState: batchEvents.fromState, toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName })
     .from(batchEvents)
     .leftJoin(users, eq(users.id, batchEvents.actorId))
-    .where(eq(batchEvents.batchId, id))
+    .where(eq(batchEvents.batchId, batchId))
     .orderBy(asc(batchEvents.at), asc(batchEvents.id))
+}
+
+export async function getBatch(id: number): Promise<BatchDetail> {
+  const db = useDb()
+  const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
+  if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  const events = await batchEventsOf(db, id)
   const b = found.batch
   return {
     ...toBatchView(b, await readShopSettings()),
-    planName: found.planName,
-    revision: found.revision,
-    furnaceName: found.furnaceName,
-    stationName: found.stationName,
-    summary: readSummary(found.summary)!,
+    planName: found.plan.name,
+    revision: found.revision.revision,
+    furnaceName: found.furnace.name,
+    stationName: found.station.name,
+    summary: readSummary(found.revision.summary)!,
     durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
-    events: events.map((event) => ({ ...event, at: event.at.toISOString() })),
+    events: events.map(({ id: eventId, fromState, toState, at, actorName }) => ({ id: eventId, fromState, toState, at: at.toISOString(), actorName })),
   }
 }
 
@@ -387,22 +402,16 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
   const now = Date.now()
   const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, new Date(now + aheadHours * 3600_000))]
   if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
-  const rows = await useDb()
-    .select({ batch: batches, planName: plans.name, summary: planRevisions.summary, furnaceName: furnaces.name, stationName: quenchStations.name })
-    .from(batches)
-    .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
-    .innerJoin(plans, eq(plans.id, planRevisions.planId))
-    .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
-    .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
+  const rows = await selectBatchesInContext(useDb())
     .where(and(...conditions))
     .orderBy(asc(batches.furnaceStart))
     .limit(200)
   const list: FloorBatch[] = rows.map((r) => ({
     ...toBatchView(r.batch, settings, now),
-    planName: r.planName,
-    furnaceName: r.furnaceName,
-    stationName: r.stationName,
-    summary: readSummary(r.summary)!,
+    planName: r.plan.name,
+    furnaceName: r.furnace.name,
+    stationName: r.station.name,
+    summary: readSummary(r.revision.summary)!,
     minimumSoak_s: r.batch.minimumSoak_s,
     quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
   }))

@@ -14,7 +14,7 @@ import type { RecordDetail, RecordListItem, RecordSnapshot } from '../../shared/
 import type { RecordListQuery } from '../../shared/schemas/records'
 import type { SessionUser } from './auth'
 import { recordAudit } from './audit'
-import { readSummary } from './batches'
+import { batchEventsOf, readSummary, selectBatchesInContext } from './batches'
 import { recipientsFor } from './mailRecipients'
 import { enqueueMail } from '../outbox/enqueue'
 
@@ -52,30 +52,19 @@ export async function refuseIfRecordSigned(tx: Transaction, batchId: number): Pr
  * transaction sees, and pdfkit takes tens of milliseconds for one sheet.
  */
 export async function writeCooldownRecord(tx: Transaction, batchId: number, releasedBy: Pick<SessionUser, 'id' | 'displayName'>): Promise<{ id: number; hash: string; outboxId: number }> {
-  const [found] = await tx
-    .select({ batch: batches, plan: { id: plans.id, name: plans.name }, revision: planRevisions, furnace: { id: furnaces.id, name: furnaces.name }, station: { id: quenchStations.id, name: quenchStations.name } })
-    .from(batches)
-    .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
-    .innerJoin(plans, eq(plans.id, planRevisions.planId))
-    .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
-    .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
-    .where(eq(batches.id, batchId))
+  const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
   if (!found) throw new Error(`Batch ${batchId} not found`)
   const summary = readSummary(found.revision.summary)
   if (!summary) throw new Error(`Plan revision ${found.revision.id} has no usable summary`)
-  const events = await tx
-    .select({ toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName })
-    .from(batchEvents)
-    .leftJoin(users, eq(users.id, batchEvents.actorId))
-    .where(eq(batchEvents.batchId, batchId))
-    .orderBy(asc(batchEvents.at), asc(batchEvents.id))
+  const [{ spec }] = await tx.select({ spec: planRevisions.spec }).from(planRevisions).where(eq(planRevisions.id, found.revision.id))
+  const events = await batchEventsOf(tx, batchId)
 
   const snapshot = buildSnapshot({
     batch: found.batch,
     furnace: found.furnace,
     station: found.station,
     plan: found.plan,
-    revision: { id: found.revision.id, revision: found.revision.revision, spec: found.revision.spec, summary },
+    revision: { id: found.revision.id, revision: found.revision.revision, spec, summary },
     events,
     releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
   })
