@@ -62,9 +62,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
 
   const centre = solution.pointSeries('centre')
   const surface = solution.pointSeries('surface')
-  const curveTimes = [...Array.from({ length: CURVE_POINTS + 1 }, (_, i) => (end_s * i) / CURVE_POINTS), ...starts.slice(1).filter((s) => s < end_s)]
-  if (targetTime !== null) curveTimes.push(targetTime)
-  const tCurve = [...new Set(curveTimes)].sort((a, b) => a - b)
+  const tCurve = curveTimes(end_s, [...starts.slice(1).filter((s) => s < end_s), ...(targetTime === null ? [] : [targetTime])])
   // t = 0 reads the start itself; the series is not converged there.
   const curveOf = (series: PointStage[], initial_C: number) => {
     const values = pointValues(series, tCurve)
@@ -112,6 +110,18 @@ function firstGuess(problem: ReturnType<typeof caseToProblem>, c: Case): number 
  * target, until the centre is within 1 K of the last stage's steady value or five
  * of its slowest time constants, whichever comes first.
  */
+/**
+ * The curve's sample times: CURVE_POINTS equal steps from 0 to end_s, plus the
+ * moments the curve must show exactly (stage starts, the target time). A grid time
+ * within rounding of one of those gives way to it, so no two samples sit a
+ * floating-point hair apart.
+ */
+export function curveTimes(end_s: number, exact: number[]): number[] {
+  const tolerance = 1e-9 * end_s
+  const grid = Array.from({ length: CURVE_POINTS + 1 }, (_, i) => (end_s * i) / CURVE_POINTS).filter((t) => exact.every((e) => Math.abs(t - e) > tolerance))
+  return [...new Set([...grid, ...exact])].sort((a, b) => a - b)
+}
+
 function curveEnd(solution: CooldownSolution, c: Case, targetTime: number | null): number {
   const starts = stageStarts(c)
   const lastStart = starts[starts.length - 1]

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { CaseError } from '../../../server/thermal/caseSchema'
-import { runCase } from '../../../server/thermal/runCase'
+import { curveTimes, runCase } from '../../../server/thermal/runCase'
 
 const example = JSON.parse(readFileSync('scripts/examples/oil-then-air-bar.json', 'utf8'))
 
@@ -58,6 +58,20 @@ describe('runCase on the example case', () => {
   })
   it('the finite-difference check agrees within 0.05 K', () => {
     expect(runCase(example, { check: 'finite-difference' }).check?.maxDifference_K).toBeLessThan(0.05)
+  })
+})
+
+describe('curve sample times', () => {
+  it('601 equal steps, stage starts and the target in order; a grid time a rounding hair from one of them gives way to it', () => {
+    const hair = 60 + 1e-12
+    const times = curveTimes(600, [180, hair])
+    expect(times).toHaveLength(601)
+    expect(times).toContain(hair)
+    expect(times).not.toContain(60)
+    expect(times.filter((t) => t === 180)).toHaveLength(1)
+    expect(times.every((t, i) => i === 0 || t > times[i - 1])).toBe(true)
+    expect(times[0]).toBe(0)
+    expect(times.at(-1)).toBe(600)
   })
 })
 
