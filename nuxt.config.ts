@@ -35,6 +35,7 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     authSecret: '', // NUXT_AUTH_SECRET
+    recordSealKey: '', // NUXT_RECORD_SEAL_KEY: seals cooldown records and sign-offs (HMAC-SHA-256)
     databaseUrl: '', // NUXT_DATABASE_URL (DATABASE_URL is read too)
     public: { appVersion: version },
   },

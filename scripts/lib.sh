@@ -9,10 +9,11 @@ ensure_node_modules() {
 }
 
 # A stable secret for signing sessions, kept in the ignored .data folder.
-ensure_auth_secret() {
+# Prints the secret kept in .data/<name>, making a random one the first time.
+ensure_secret() {
   mkdir -p .data
-  [ -s .data/auth-secret ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > .data/auth-secret
-  cat .data/auth-secret
+  [ -s ".data/$1" ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > ".data/$1"
+  cat ".data/$1"
 }
 
 # Rebuilds the app when any source is newer than the last build.

@@ -273,9 +273,10 @@ export type BatchEventRow = typeof batchEvents.$inferSelect
 /**
  * The cooldown record of a released batch, written in the release transaction. The
  * snapshot (shared/types/cooldownRecord.ts) is frozen: the app never updates it, and
- * `hash` is recordHash(snapshot) at writing time, so any later change shows as a
- * mismatch. The sign-off columns are written once; `signature_hash` binds the
- * decision, signer and time to the record hash (server/records/signature.ts).
+ * `hash` is recordSeal(snapshot) at writing time (HMAC-SHA-256 under the server's
+ * seal key), so any later change shows as a mismatch and cannot be re-sealed from
+ * the database alone. The sign-off columns are written once; `signature_hash` seals
+ * the decision, signer and time to the record's seal (server/records/cooldownRecord.ts).
  */
 export const cooldownRecords = mysqlTable(
   'cooldown_records',

@@ -1,13 +1,13 @@
 /**
- * Canonical serialisation and SHA-256 of a record snapshot, so a signed record can be
- * checked later for tampering: the same content always gives the same bytes, whatever
- * order its keys were built in. Rules: object keys sorted by UTF-16 code units (as
+ * Canonical serialisation and the keyed seal of a record snapshot, so a signed record
+ * can be checked later for tampering: the same content always gives the same bytes,
+ * whatever order its keys were built in. Rules: object keys sorted by UTF-16 code units (as
  * Array.prototype.sort does), no whitespace, strings and numbers exactly as
  * JSON.stringify writes them (-0 becomes 0), undefined object members left out.
  * Non-finite numbers, undefined array items and values JSON has no form for are
  * refused rather than silently changed, since a hash over a lossy form proves little.
  */
-import { createHash, timingSafeEqual } from 'node:crypto'
+import { createHmac, timingSafeEqual } from 'node:crypto'
 
 export function canonicalJson(value: unknown): string {
   return write(value, '$')
@@ -45,18 +45,23 @@ function write(value: unknown, path: string): string {
   }
 }
 
-export function sha256Hex(text: string): string {
-  return createHash('sha256').update(text, 'utf8').digest('hex')
+/** Hex HMAC-SHA-256 (RFC 2104) of the UTF-8 text under the key. */
+export function hmacSha256Hex(key: string | Buffer, text: string): string {
+  return createHmac('sha256', key).update(text, 'utf8').digest('hex')
 }
 
-/** Hex SHA-256 of the snapshot's canonical JSON. */
-export function recordHash(snapshot: unknown): string {
-  return sha256Hex(canonicalJson(snapshot))
+/**
+ * The record's seal: HMAC-SHA-256 of the snapshot's canonical JSON under the shop's
+ * seal key. A plain hash could be recomputed by anyone who can edit the database; the
+ * seal cannot without the key, which lives with the server, not in the database.
+ */
+export function recordSeal(snapshot: unknown, key: string | Buffer): string {
+  return hmacSha256Hex(key, canonicalJson(snapshot))
 }
 
-/** True when the snapshot still hashes to `expectedHex` (compared in constant time). */
-export function verifyRecordHash(snapshot: unknown, expectedHex: string): boolean {
+/** True when the snapshot still carries the seal `expectedHex` under the key (compared in constant time). */
+export function verifyRecordSeal(snapshot: unknown, expectedHex: string, key: string | Buffer): boolean {
   if (!/^[0-9a-f]{64}$/i.test(expectedHex)) return false
-  const actual = Buffer.from(recordHash(snapshot), 'hex')
+  const actual = Buffer.from(recordSeal(snapshot, key), 'hex')
   return timingSafeEqual(actual, Buffer.from(expectedHex, 'hex'))
 }

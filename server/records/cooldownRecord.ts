@@ -19,7 +19,7 @@ import { deriveSlots, type BatchState, type SlotDurations } from '../../shared/s
 import type { PlanSummary } from '../../shared/types/plan'
 import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
 import type { CurvePoint, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
-import { canonicalJson, sha256Hex, verifyRecordHash } from './canonical'
+import { canonicalJson, hmacSha256Hex, verifyRecordSeal } from './canonical'
 import { STANDARD_CAUTIONS } from './cautions'
 import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
 
@@ -198,9 +198,9 @@ export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, si
 
 export type Decision = 'approved' | 'rejected'
 
-/** SHA-256 over the record hash, the decision, the signer and the time, in canonical JSON. */
-export function signatureHash(recordHash: string, decision: Decision, signerId: number, signedAt: Date): string {
-  return sha256Hex(canonicalJson({ decision, recordHash, signedAt: signedAt.toISOString(), signerId }))
+/** The sign-off's seal: HMAC-SHA-256 under the seal key of the record's seal, the decision, the signer and the time, in canonical JSON. */
+export function signatureSeal(recordSeal: string, decision: Decision, signerId: number, signedAt: Date, key: string | Buffer): string {
+  return hmacSha256Hex(key, canonicalJson({ decision, recordHash: recordSeal, signedAt: signedAt.toISOString(), signerId }))
 }
 
 export interface StoredRecord {
@@ -215,24 +215,24 @@ export interface StoredRecord {
 }
 
 /**
- * Re-hashes the stored snapshot and re-derives the signature. Any mismatch is
+ * Re-seals the stored snapshot and re-derives the signature under the seal key. Any mismatch is
  * "altered", with each problem named; the copied list columns are checked too, so a
  * list can never disagree with the record silently.
  */
-export function checkIntegrity(row: StoredRecord): { integrity: RecordIntegrity; problems: string[] } {
+export function checkIntegrity(row: StoredRecord, key: string | Buffer): { integrity: RecordIntegrity; problems: string[] } {
   const problems: string[] = []
   let snapshotOk = false
   try {
-    snapshotOk = verifyRecordHash(row.snapshot, row.hash)
+    snapshotOk = verifyRecordSeal(row.snapshot, row.hash, key)
   } catch {
     snapshotOk = false
   }
-  if (!snapshotOk) problems.push('The snapshot no longer matches the hash written at release')
+  if (!snapshotOk) problems.push('The snapshot no longer matches the seal written at release')
   const snapshot = row.snapshot as Partial<RecordSnapshot>
   if (!Array.isArray(snapshot.deviations) || snapshot.deviations.length !== row.deviationCount) problems.push('The deviation count differs from the snapshot')
   if (snapshot.releasedAt !== row.releasedAt.toISOString()) problems.push('The release time differs from the snapshot')
   if (row.state !== 'unsigned') {
-    const expected = row.signedBy !== null && row.signedAt !== null ? signatureHash(row.hash, row.state, row.signedBy, row.signedAt) : null
+    const expected = row.signedBy !== null && row.signedAt !== null ? signatureSeal(row.hash, row.state, row.signedBy, row.signedAt, key) : null
     if (expected === null || expected !== row.signatureHash) problems.push('The sign-off no longer matches its signature')
   } else if (row.signedBy !== null || row.signedAt !== null || row.signatureHash !== null) {
     problems.push('An unsigned record carries sign-off data')

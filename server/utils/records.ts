@@ -3,8 +3,8 @@ import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
 import { DEMO_SHOP_NAME } from '../db/demo/shop'
-import { recordHash } from '../records/canonical'
-import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureHash, type Decision } from '../records/cooldownRecord'
+import { recordSeal } from '../records/canonical'
+import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from '../records/cooldownRecord'
 import { escapeHtml } from '../records/sheetHtml'
 import { holdTimeSheetMail } from '../records/sheetMail'
 import { formatInstant } from '../records/format'
@@ -29,6 +29,19 @@ export function publicOrigin(env: Readonly<Record<string, string | undefined>> =
   if (env.PUBLIC_ORIGIN) return env.PUBLIC_ORIGIN.replace(/\/+$/, '')
   if (env.AUTH_ORIGIN) return env.AUTH_ORIGIN.replace(/\/api\/auth\/?$/, '').replace(/\/+$/, '')
   throw new Error('Neither PUBLIC_ORIGIN nor AUTH_ORIGIN is set, so mail cannot link to the record')
+}
+
+/**
+ * The key that seals records and sign-offs (NUXT_RECORD_SEAL_KEY). Keep it with the
+ * server and its backups, apart from the database: with the database alone nobody
+ * can re-seal an edited record, and without the key no record can be checked.
+ */
+function sealKey(): string {
+  const key = useRuntimeConfig().recordSealKey
+  if (typeof key !== 'string' || key.length < 32) {
+    throw createError({ statusCode: 503, statusMessage: 'Records cannot be sealed or checked: NUXT_RECORD_SEAL_KEY is not set to a secret of at least 32 characters' })
+  }
+  return key
 }
 
 export const recordUrl = (id: number) => `${publicOrigin()}/records/${id}`
@@ -68,7 +81,7 @@ export async function writeCooldownRecord(tx: Transaction, batchId: number, rele
     events,
     releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
   })
-  const hash = recordHash(snapshot)
+  const hash = recordSeal(snapshot, sealKey())
   const [{ id }] = await tx
     .insert(cooldownRecords)
     .values({ batchId, snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
@@ -183,7 +196,7 @@ export async function getRecord(id: number, viewer: Pick<SessionUser, 'id' | 'ro
   const [row] = await db.select().from(cooldownRecords).where(eq(cooldownRecords.id, id))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
   const [listed] = await listQuery(db).where(eq(cooldownRecords.id, id))
-  const { integrity, problems } = checkIntegrity(row)
+  const { integrity, problems } = checkIntegrity(row, sealKey())
   const refusal = await signRefusal(db, row, viewer, integrity === 'intact')
   return {
     ...toListItem(listed!),
@@ -207,11 +220,11 @@ export async function signRecord(id: number, decision: Decision, comment: string
   const refused = await useDb().transaction(async (tx) => {
     const [row] = await tx.select().from(cooldownRecords).where(eq(cooldownRecords.id, id)).for('update')
     if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
-    const { integrity, problems } = checkIntegrity(row)
+    const { integrity, problems } = checkIntegrity(row, sealKey())
     const refusal = await signRefusal(tx, row, user, integrity === 'intact')
     if (refusal) return { ...refusal, state: row.state, integrity, problems }
     const signedAt = new Date()
-    const signature = signatureHash(row.hash, decision, user.id, signedAt)
+    const signature = signatureSeal(row.hash, decision, user.id, signedAt, sealKey())
     await tx.update(cooldownRecords).set({ state: decision, signedBy: user.id, signedAt, signComment: comment, signatureHash: signature }).where(and(eq(cooldownRecords.id, id), eq(cooldownRecords.state, 'unsigned')))
     const snapshot = row.snapshot as unknown as RecordSnapshot
     let outboxId: number | null = null

@@ -1,21 +1,24 @@
 /**
  * Cooldown records over HTTP: a plan booked through the API, driven through the floor
- * moves by the operator, the record written on release (snapshot, hash, deviations),
+ * moves by the operator, the record written on release (snapshot, seal, deviations),
  * QA sign-off and its refusals, tampering in SQL, the mails (sheet, rejection, digest).
  * Expected seconds are computed here by hand from the event times the batch API reports.
  */
 import { execFileSync } from 'node:child_process'
-import { createHash } from 'node:crypto'
+import { createHash, createHmac } from 'node:crypto'
 import mysql from 'mysql2/promise'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { canonicalJson, recordHash } from '../../server/records/canonical'
+import { canonicalJson } from '../../server/records/canonical'
 import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
 import { anonymous, demoUser, signInAs, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { caughtAttachment, caughtMail, waitForMail } from '../support/mailCatcher'
 import type { SavedPlan } from '../support/plans'
 import { move, quickPlan, releaseLoad, type Released } from '../support/records'
-import { BASE_URL } from '../support/stackConfig'
+import { BASE_URL, RECORD_SEAL_KEY } from '../support/stackConfig'
+
+/** HMAC-SHA-256 under the test stack's seal key, from node:crypto directly. */
+const sealOf = (value: unknown) => createHmac('sha256', RECORD_SEAL_KEY).update(canonicalJson(value), 'utf8').digest('hex')
 
 let admin: Client
 let metallurgist: Client
@@ -127,9 +130,9 @@ describe('the record written on release', () => {
     expect(s.deviations).toEqual([])
   })
 
-  it('stores recordHash of the snapshot beside it', () => {
+  it('stores the seal of the snapshot beside it: HMAC-SHA-256 of its canonical JSON under the server key', () => {
     expect(cleanRecord.hash).toMatch(/^[0-9a-f]{64}$/)
-    expect(recordHash(cleanRecord.snapshot)).toBe(cleanRecord.hash)
+    expect(sealOf(cleanRecord.snapshot)).toBe(cleanRecord.hash)
   })
 
   it('a soak cut short: one short_soak deviation with the seconds from the event times', () => {
@@ -226,14 +229,11 @@ describe('sign-off', () => {
     expect(response.body.data.problems).toEqual([{ field: 'comment', message: 'A rejection needs a comment saying why' }])
   })
 
-  it('approve by QA: who, when and the signature hash over record hash, decision, signer and time; then every change is 409', async () => {
+  it('approve by QA: who, when and the signature sealed over record seal, decision, signer and time; then every change is 409', async () => {
     const approved = await qa.request(`/api/records/${cleanRecord.id}/approve`, { method: 'POST', body: { comment: 'Soak and quench as planned' } })
     expect(approved.status).toBe(200)
     expect(approved.body).toMatchObject({ state: 'approved', signedBy: demoUser('qa').displayName, signComment: 'Soak and quench as planned', integrity: 'intact', hash: cleanRecord.hash })
-    const expected = createHash('sha256')
-      .update(canonicalJson({ decision: 'approved', recordHash: cleanRecord.hash, signedAt: approved.body.signedAt, signerId: ids.qa }))
-      .digest('hex')
-    expect(approved.body.signatureHash).toBe(expected)
+    expect(approved.body.signatureHash).toBe(sealOf({ decision: 'approved', recordHash: cleanRecord.hash, signedAt: approved.body.signedAt, signerId: ids.qa }))
     expect(Math.abs(Date.parse(approved.body.signedAt) - Date.now())).toBeLessThan(10_000)
 
     const again = await qa.request(`/api/records/${cleanRecord.id}/approve`, { method: 'POST', body: {} })
@@ -263,8 +263,13 @@ describe('sign-off', () => {
     await db.query("UPDATE cooldown_records SET snapshot = JSON_SET(snapshot, '$.batch.partCount', 23) WHERE id = ?", [shortRecord.id])
     const altered = (await qa.request(`/api/records/${shortRecord.id}`)).body
     expect(altered.integrity).toBe('altered')
-    expect(altered.integrityProblems).toEqual(['The snapshot no longer matches the hash written at release'])
+    expect(altered.integrityProblems).toEqual(['The snapshot no longer matches the seal written at release'])
     expect(altered.snapshot.batch.partCount).toBe(23)
+    // Re-hashing the altered snapshot in SQL without the key does not make it intact.
+    const rehashed = createHash('sha256').update(canonicalJson(altered.snapshot), 'utf8').digest('hex')
+    await db.query('UPDATE cooldown_records SET hash = ? WHERE id = ?', [rehashed, shortRecord.id])
+    const stillAltered = (await qa.request(`/api/records/${shortRecord.id}`)).body
+    expect(stillAltered).toMatchObject({ hash: rehashed, integrity: 'altered', integrityProblems: ['The snapshot no longer matches the seal written at release'] })
     const sign = await qa.request(`/api/records/${shortRecord.id}/approve`, { method: 'POST', body: {} })
     expect(sign.status).toBe(409)
     expect(sign.body.statusMessage).toBe('This record was altered after it was written; it cannot be signed')

@@ -1,11 +1,12 @@
 import { describe, expect, it } from 'vitest'
-import { recordHash } from '../../server/records/canonical'
+import { createHmac } from 'node:crypto'
+import { canonicalJson } from '../../server/records/canonical'
 import { SCREENSHOT_DIR, useBrowser } from '../support/browser'
 import { demoUser, signInDemo } from '../support/http'
 import { createLibraryFixture } from '../support/library'
 import { waitForMail } from '../support/mailCatcher'
 import { quickPlan, releaseLoad } from '../support/records'
-import { BASE_URL } from '../support/stackConfig'
+import { BASE_URL, RECORD_SEAL_KEY } from '../support/stackConfig'
 
 const browser = useBrowser()
 
@@ -46,7 +47,7 @@ describe('signing a record from the e-mailed link', () => {
     const id = Number(path.split('/').at(-1))
     const stored = (await qa.request(`/api/records/${id}`)).body
     expect(stored).toMatchObject({ state: 'approved', integrity: 'intact', signedBy: user.displayName })
-    expect(recordHash(stored.snapshot)).toBe(stored.hash)
+    expect(createHmac('sha256', RECORD_SEAL_KEY).update(canonicalJson(stored.snapshot), 'utf8').digest('hex')).toBe(stored.hash)
 
     // The records list shows it approved and filters it out of the unsigned ones.
     await page.goto('/records')

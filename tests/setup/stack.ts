@@ -5,7 +5,7 @@
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
-import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_SMTP_PORT } from '../support/stackConfig'
+import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_SMTP_PORT, RECORD_SEAL_KEY } from '../support/stackConfig'
 import { startMailCatcher, stopMailCatcher } from '../support/mailCatcher'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
@@ -52,6 +52,7 @@ async function startStack(): Promise<Stack> {
       NITRO_HOST: '127.0.0.1',
       AUTH_ORIGIN: `${BASE_URL}/api/auth`,
       NUXT_AUTH_SECRET: AUTH_SECRET,
+      NUXT_RECORD_SEAL_KEY: RECORD_SEAL_KEY,
       SMTP_URL: `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
       // A quick outbox so mail tests take seconds: poll every 0.3 s, retry after 0.3 s doubling to 1.5 s.
       OUTBOX_POLL_MS: '300',

@@ -5,3 +5,4 @@ export const MAIL_SMTP_PORT = Number(process.env.SLAKEWISE_TEST_SMTP_PORT ?? 102
 export const MAIL_WEB_PORT = Number(process.env.SLAKEWISE_TEST_MAIL_WEB_PORT ?? 1081)
 export const MAIL_API = `http://127.0.0.1:${MAIL_WEB_PORT}`
 export const AUTH_SECRET = 'slakewise-test-secret-not-for-production'
+export const RECORD_SEAL_KEY = 'slakewise-test-record-seal-key-not-for-production'

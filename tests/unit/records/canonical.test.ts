@@ -1,13 +1,14 @@
+import { createHash } from 'node:crypto'
 import { describe, expect, it } from 'vitest'
-import { canonicalJson, recordHash, sha256Hex, verifyRecordHash } from '../../../server/records/canonical'
+import { canonicalJson, hmacSha256Hex, recordSeal, verifyRecordSeal } from '../../../server/records/canonical'
 
-describe('sha256Hex', () => {
+describe('hmacSha256Hex', () => {
   it.each([
-    ['FIPS 180-2 appendix B.1, one block', 'abc', 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad'],
-    ['FIPS 180-2 appendix B.2, two blocks', 'abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq', '248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1'],
-    ['empty message (NIST example values)', '', 'e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855'],
-  ])('%s', (_source, message, digest) => {
-    expect(sha256Hex(message)).toBe(digest)
+    ['RFC 4231 test case 1', Buffer.alloc(20, 0x0b), 'Hi There', 'b0344c61d8db38535ca8afceaf0bf12b881dc200c9833da726e9376c2e32cff7'],
+    ['RFC 4231 test case 2 (key shorter than the output)', 'Jefe', 'what do ya want for nothing?', '5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843'],
+    ['RFC 4231 test case 6 (key longer than a block)', Buffer.alloc(131, 0xaa), 'Test Using Larger Than Block-Size Key - Hash Key First', '60e431591ee0b67f0d8a26aacbf5b77f8e0bc6213728c5140546040f0ee37f54'],
+  ])('%s', (_source, key, message, digest) => {
+    expect(hmacSha256Hex(key, message)).toBe(digest)
   })
 })
 
@@ -39,7 +40,8 @@ describe('canonicalJson', () => {
   })
 })
 
-describe('recordHash and verifyRecordHash', () => {
+describe('recordSeal and verifyRecordSeal', () => {
+  const key = 'a-seal-key-of-at-least-thirty-two-characters'
   const snapshot = {
     loadNumber: 'KB-24-0117',
     events: [
@@ -49,10 +51,18 @@ describe('recordHash and verifyRecordHash', () => {
     planned: { quenchToHandling_s: 979.5, handling_C: 120 },
   }
 
-  it('is the SHA-256 of the canonical text', () => {
-    expect(recordHash({ b: 'abc' })).toBe(sha256Hex('{"b":"abc"}'))
+  it('is the HMAC-SHA-256 of the canonical text under the key', () => {
+    expect(recordSeal({ b: 'abc' }, key)).toBe(hmacSha256Hex(key, '{"b":"abc"}'))
     // The bare string "abc" canonicalises to "\"abc\"" (with quotes), not to abc.
-    expect(recordHash('abc')).toBe(sha256Hex('"abc"'))
+    expect(recordSeal('abc', key)).toBe(hmacSha256Hex(key, '"abc"'))
+  })
+
+  it('cannot be reproduced without the key: another key, or a plain SHA-256 of the same text, is refused', () => {
+    const seal = recordSeal(snapshot, key)
+    expect(verifyRecordSeal(snapshot, seal, key)).toBe(true)
+    expect(verifyRecordSeal(snapshot, seal, `${key}!`)).toBe(false)
+    expect(verifyRecordSeal(snapshot, recordSeal(snapshot, 'another-key-of-at-least-thirty-two-chars'), key)).toBe(false)
+    expect(verifyRecordSeal(snapshot, createHash('sha256').update(canonicalJson(snapshot)).digest('hex'), key)).toBe(false)
   })
 
   it('does not depend on key order', () => {
@@ -61,8 +71,8 @@ describe('recordHash and verifyRecordHash', () => {
       events: snapshot.events.map(({ by, at, type }) => ({ by, at, type })),
       loadNumber: 'KB-24-0117',
     }
-    expect(recordHash(reordered)).toBe(recordHash(snapshot))
-    expect(verifyRecordHash(reordered, recordHash(snapshot))).toBe(true)
+    expect(recordSeal(reordered, key)).toBe(recordSeal(snapshot, key))
+    expect(verifyRecordSeal(reordered, recordSeal(snapshot, key), key)).toBe(true)
   })
 
   it.each([
@@ -76,14 +86,14 @@ describe('recordHash and verifyRecordHash', () => {
   ])('changes when %s changes', (_what, tamper) => {
     const copy = structuredClone(snapshot)
     tamper(copy)
-    expect(recordHash(copy)).not.toBe(recordHash(snapshot))
-    expect(verifyRecordHash(copy, recordHash(snapshot))).toBe(false)
+    expect(recordSeal(copy, key)).not.toBe(recordSeal(snapshot, key))
+    expect(verifyRecordSeal(copy, recordSeal(snapshot, key), key)).toBe(false)
   })
 
-  it('accepts the hash in either case and rejects anything that is not 64 hex digits', () => {
-    const hash = recordHash(snapshot)
-    expect(verifyRecordHash(snapshot, hash.toUpperCase())).toBe(true)
-    expect(verifyRecordHash(snapshot, hash.slice(0, 63))).toBe(false)
-    expect(verifyRecordHash(snapshot, 'z'.repeat(64))).toBe(false)
+  it('accepts the seal in either case and rejects anything that is not 64 hex digits', () => {
+    const seal = recordSeal(snapshot, key)
+    expect(verifyRecordSeal(snapshot, seal.toUpperCase(), key)).toBe(true)
+    expect(verifyRecordSeal(snapshot, seal.slice(0, 63), key)).toBe(false)
+    expect(verifyRecordSeal(snapshot, 'z'.repeat(64), key)).toBe(false)
   })
 })
