@@ -40,6 +40,16 @@ export const auditLog = mysqlTable(
 )
 
 export type UserRow = typeof users.$inferSelect
+
+/**
+ * Recent failed sign-ins per e-mail address (server/utils/signInThrottle.ts), kept in
+ * the database so that neither a restart nor a second server process resets the brake.
+ */
+export const signInFailures = mysqlTable('sign_in_failures', {
+  email: varchar('email', { length: 190 }).primaryKey(),
+  count: int('count').notNull(),
+  lastAt: datetime('last_at', { mode: 'date', fsp: 3 }).notNull(),
+})
 export type AuditRow = typeof auditLog.$inferSelect
 
 

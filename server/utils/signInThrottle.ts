@@ -1,28 +1,41 @@
 /**
  * Slows repeated failed sign-ins per e-mail address: after three failures each
- * further attempt waits longer (0.5 s doubling, at most 8 s). Kept in memory: a
- * restart forgets, which is acceptable for a brake that only has to make guessing slow.
+ * further attempt waits longer (0.5 s doubling, at most 8 s); a quiet quarter of an
+ * hour forgets them, a successful sign-in clears them. The counts live in the
+ * database (sign_in_failures), so a restart or a second server process does not
+ * reset the brake. It only has to make guessing slow: every attempt still gets the
+ * same answer for an unknown address, a wrong password and an inactive account.
  */
+import { eq, sql } from 'drizzle-orm'
+import type { Database } from '../db/client'
+import { signInFailures } from '../db/schema'
+
 const FREE_ATTEMPTS = 3
 const BASE_DELAY_MS = 500
 const MAX_DELAY_MS = 8000
 const FORGET_AFTER_MS = 15 * 60 * 1000
 
-const failures = new Map<string, { count: number; last: number }>()
-
-export function signInDelayMs(key: string, now = Date.now()): number {
-  const entry = failures.get(key)
-  if (!entry || now - entry.last > FORGET_AFTER_MS) return 0
-  const extra = entry.count - FREE_ATTEMPTS
+/** The wait before the next attempt after `count` failures, the last at `lastAt`. */
+export function throttleDelayMs(count: number, lastAt: Date, now: Date): number {
+  if (now.getTime() - lastAt.getTime() > FORGET_AFTER_MS) return 0
+  const extra = count - FREE_ATTEMPTS
   return extra < 0 ? 0 : Math.min(MAX_DELAY_MS, BASE_DELAY_MS * 2 ** extra)
 }
 
-export function noteSignInFailure(key: string, now = Date.now()): void {
-  const entry = failures.get(key)
-  const count = entry && now - entry.last <= FORGET_AFTER_MS ? entry.count + 1 : 1
-  failures.set(key, { count, last: now })
+export async function signInDelayMs(email: string, db: Database = useDb(), now = new Date()): Promise<number> {
+  const [entry] = await db.select().from(signInFailures).where(eq(signInFailures.email, email))
+  return entry ? throttleDelayMs(entry.count, entry.lastAt, now) : 0
 }
 
-export function clearSignInFailures(key: string): void {
-  failures.delete(key)
+export async function noteSignInFailure(email: string, db: Database = useDb(), now = new Date()): Promise<void> {
+  const forgotten = new Date(now.getTime() - FORGET_AFTER_MS)
+  // MariaDB applies the assignments in order, so the count still sees the old last_at.
+  await db
+    .insert(signInFailures)
+    .values({ email, count: 1, lastAt: now })
+    .onDuplicateKeyUpdate({ set: { count: sql`IF(${signInFailures.lastAt} < ${forgotten}, 1, ${signInFailures.count} + 1)`, lastAt: now } })
+}
+
+export async function clearSignInFailures(email: string, db: Database = useDb()): Promise<void> {
+  await db.delete(signInFailures).where(eq(signInFailures.email, email))
 }

@@ -1,3 +1,5 @@
+import { execFileSync } from 'node:child_process'
+import mysql from 'mysql2/promise'
 import { describe, expect, it } from 'vitest'
 import { ROLES } from '../../shared/roles'
 import { anonymous, demoUser, signInAs, signInDemo } from '../support/http'
@@ -24,6 +26,26 @@ describe('sign-in through the real auth endpoints', () => {
     await signInAs(email, 'wrong-password')
     // After three free failures the fifth attempt waits at least 2 × 0.5 s.
     expect(Date.now() - started).toBeGreaterThanOrEqual(900)
+  })
+
+  it('keeps the failure count in the database (a restart does not reset it) and clears it on a good sign-in', async () => {
+    const db = await mysql.createConnection({ uri: execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim(), timezone: 'Z' })
+    const countOf = async (email: string) => {
+      const [rows] = await db.query('SELECT count FROM sign_in_failures WHERE email = ?', [email])
+      return (rows as { count: number }[])[0]?.count ?? null
+    }
+    try {
+      const probe = 'stored-failures-probe@kestrelbay.example'
+      for (let attempt = 0; attempt < 2; attempt++) await signInAs(probe, 'wrong-password')
+      expect(await countOf(probe)).toBe(2)
+      const { email, password } = demoUser('metallurgist')
+      await signInAs(email, 'wrong-password')
+      expect(await countOf(email)).toBe(1)
+      expect(await signInAs(email, password)).not.toBeNull()
+      expect(await countOf(email)).toBeNull()
+    } finally {
+      await db.end()
+    }
   })
 
   it('answers API calls without a session with 401 JSON', async () => {

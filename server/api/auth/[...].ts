@@ -13,16 +13,16 @@ async function authorize(credentials: Record<string, string> | undefined) {
   const parsed = signInSchema.safeParse(credentials ?? {})
   if (!parsed.success) return null
   const { email, password } = parsed.data
-  const delay = signInDelayMs(email)
+  const delay = await signInDelayMs(email)
   if (delay > 0) await new Promise((resolve) => setTimeout(resolve, delay))
   const [user] = await useDb().select().from(users).where(eq(users.email, email))
   // The same answer for an unknown e-mail, a wrong password and an inactive account.
   const ok = user ? await verifyPassword(password, user.passwordHash) : false
   if (!user || !ok || !user.active) {
-    noteSignInFailure(email)
+    await noteSignInFailure(email)
     return null
   }
-  clearSignInFailures(email)
+  await clearSignInFailures(email)
   await recordAudit(useDb(), { actorId: user.id, action: 'session.sign-in', entityType: 'user', entityId: user.id })
   return { id: String(user.id), email: user.email, name: user.displayName, role: user.role }
 }
