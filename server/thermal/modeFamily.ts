@@ -45,6 +45,17 @@ const UNIFORM_CACHE_SIZE = 64
 const gradedModes = new Map<string, (n: number) => Mode>()
 const GRADED_CACHE_SIZE = 32
 
+/**
+ * The graded cache key: every number the modes depend on, bit for bit (their bytes as
+ * latin1 text); formatting them as decimals cost more than the rest of a cached re-solve.
+ */
+function gradedKey(domain: ScaledDomain, innerBiot: number, outerBiot: number, shooting: ShootingAccuracy): string {
+  const values = new Float64Array(6 + 6 * domain.pieces.length)
+  values.set([domain.m, innerBiot, outerBiot, shooting.rateRtol, shooting.fine.rtol, shooting.fine.atol])
+  domain.pieces.forEach((p, i) => values.set([p.x0, p.x1, p.k0, p.k1, p.c0, p.c1], 6 + 6 * i))
+  return Buffer.from(values.buffer).toString('latin1')
+}
+
 export function modeFamily(
   geometry: Geometry,
   domain: ScaledDomain,
@@ -80,7 +91,7 @@ export function modeFamily(
       },
     }
   }
-  const key = [domain.m, innerBiot, outerBiot, shooting.rateRtol, shooting.fine.rtol, shooting.fine.atol, ...domain.pieces.flatMap((p) => [p.x0, p.x1, p.k0, p.k1, p.c0, p.c1])].join(' ')
+  const key = gradedKey(domain, innerBiot, outerBiot, shooting)
   let mode = gradedModes.get(key)
   if (mode) {
     // Most recently used last, so the oldest entry is the one evicted.

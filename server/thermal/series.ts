@@ -17,6 +17,7 @@
 import type { Mode, ModeFamily } from './modeFamily'
 import type { ScaledDomain } from './properties'
 import { breakpointsOf, propertiesAt } from './properties'
+import { heatCapacity, modeIntegrals, modeOverlap } from './modeIntegrals'
 import { compositeRule } from './quadrature'
 import { uniformInitialCoefficient, uniformMass, uniformNorm, uniformOverlap, type SurfaceValues } from './eigenRoots'
 import type { Geometry } from './types'
@@ -37,14 +38,14 @@ export interface StageSeries {
   /** ∫ w f_n / ∫ w: each mode's contribution to the heat-content mean. */
   modeMeans: number[]
   truncationError_K: number
-  /** Surface values of the modes used, when they are symmetric uniform modes. */
-  surfaces?: SurfaceValues[]
+  /** The modes used (rates and shapes above are theirs), for projecting the next stage. */
+  modes: Mode[]
 }
 
-/** A start given as a symmetric uniform stage's modes: T = steady_C + Σ amplitude_K f_j. */
+/** A start given as a previous stage's modes over its uniform steady state: T = steady_C + Σ amplitude_K f_j. */
 export interface ModalStart {
   steady_C: number
-  terms: { amplitude_K: number; surface: SurfaceValues }[]
+  terms: { amplitude_K: number; mode: Mode }[]
 }
 
 export interface SeriesInput {
@@ -54,7 +55,7 @@ export interface SeriesInput {
   steady: (x: number) => number
   /** Temperature at the stage start: a function of x, or a uniform value. */
   start: number | ((x: number) => number)
-  /** The same start as modes, when the previous stage is symmetric and uniform (closed-form projection). */
+  /** The same start as modes, when the previous stage has a symmetric centre (a uniform steady state). */
   startModes?: ModalStart
   /** Extra quadrature breakpoints (kinks of an initial profile). */
   breakpoints: number[]
@@ -120,8 +121,8 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
   for (;;) {
     const computed = modesToCompute(n, input.maxModes)
     const modes = Array.from({ length: computed }, (_, i) => family.mode(i + 1))
-    const closed = closedFormProjection(input, modes, tauMin)
-    const { amplitudes, means, terms, steadyMean } = closed ?? quadratureProjection(input, modes, tauMin, maxRatio)
+    const { amplitudes, means, terms, steadyMean } =
+      closedFormProjection(input, modes, tauMin) ?? cachedIntegralProjection(input, modes, tauMin) ?? quadratureProjection(input, modes, tauMin, maxRatio)
     const kept = truncate(terms, computed, input.minModes, input.maxModes, input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)
     if (kept) {
       const { cut } = kept
@@ -136,7 +137,7 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
         shapes: modes.slice(0, cut).map((m) => m.shape),
         modeMeans: means.slice(0, cut),
         truncationError_K: kept.truncationError_K,
-        ...(modes.every((m) => m.surface) ? { surfaces: modes.slice(0, cut).map((m) => m.surface as SurfaceValues) } : {}),
+        modes: modes.slice(0, cut),
       }
     }
     n = Math.min(2 * n, input.maxModes)
@@ -160,7 +161,7 @@ interface Projection {
  */
 function closedFormProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection | null {
   if (!input.symmetricUniformSteady || !modes.every((mode) => mode.surface)) return null
-  if (typeof input.start !== 'number' && !input.startModes) return null
+  if (typeof input.start !== 'number' && !input.startModes?.terms.every((term) => term.mode.surface)) return null
   const m = input.domain.m
   const steady = input.steady(0)
   const amplitudes: number[] = []
@@ -173,12 +174,41 @@ function closedFormProjection(input: SeriesInput, modes: Mode[], tauMin: number)
     else {
       const start = input.startModes as ModalStart
       let projection = (start.steady_C - steady) * uniformMass(surface)
-      for (const term of start.terms) projection += term.amplitude_K * uniformOverlap(m, term.surface, surface)
+      for (const term of start.terms) projection += term.amplitude_K * uniformOverlap(m, term.mode.surface as SurfaceValues, surface)
       a = projection / uniformNorm(m, surface)
     }
     amplitudes.push(a)
     means.push((m + 1) * uniformMass(surface))
     terms.push(Math.abs(a) * Math.exp(-mode.rate * tauMin))
+  }
+  return { amplitudes, means, terms, steadyMean: steady }
+}
+
+/**
+ * Any modes over a uniform steady state (a symmetric centre), from a uniform start or
+ * from a previous stage's modes, through the start-independent integrals of
+ * modeIntegrals.ts (kept with the modes, so a re-solve of the same families reuses them):
+ *     a_n = ((T_start − T_ss) ∫w f_n + Σ_j A_j ∫w g_j f_n) / ∫w f_n².
+ * Null when the start is a profile table or the steady state is not uniform.
+ */
+function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection | null {
+  if (!input.symmetricUniformSteady) return null
+  if (typeof input.start !== 'number' && !input.startModes) return null
+  const { domain } = input
+  const steady = input.steady(0)
+  const capacity = heatCapacity(domain)
+  const startSteady = typeof input.start === 'number' ? input.start : (input.startModes as ModalStart).steady_C
+  const amplitudes: number[] = []
+  const means: number[] = []
+  const terms: number[] = []
+  for (const mode of modes) {
+    const { mass, norm, peak } = modeIntegrals(domain, mode)
+    let projection = (startSteady - steady) * mass
+    if (typeof input.start !== 'number') for (const term of (input.startModes as ModalStart).terms) projection += term.amplitude_K * modeOverlap(domain, term.mode, mode)
+    const a = projection / norm
+    amplitudes.push(a)
+    means.push(mass / capacity)
+    terms.push(Math.abs(a) * peak * Math.exp(-mode.rate * tauMin))
   }
   return { amplitudes, means, terms, steadyMean: steady }
 }

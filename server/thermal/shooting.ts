@@ -298,6 +298,7 @@ function shapeOf(shot: Shot, delta: number): (x: number) => number {
   let last = 0
   return (x: number): number => {
     if (x < xStart) {
+      if (x === 0) return centre[0]
       let f = 0
       for (let j = centre.length - 1; j >= 0; j--) f = f * x + centre[j]
       return f

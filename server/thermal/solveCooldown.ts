@@ -72,12 +72,12 @@ export function scaledEnd(boundary: Boundary, domain: ScaledDomain): ScaledEnd {
   return { biot: (boundary.h_W_m2K * domain.length_m) / domain.kRef_W_mK, temperature_C: boundary.ambient_C }
 }
 
-/** A symmetric uniform stage's state at its end, as its own modes. */
-function modalEnd(stage: StageSeries, surfaces: SurfaceValues[]): ModalStart {
+/** The state at its end of a stage with a symmetric centre (so a uniform steady state), as its own modes. */
+function modalEnd(stage: StageSeries): ModalStart {
   const tau = (stage.end_s - stage.start_s) / stage.timeScale_s
   return {
     steady_C: stage.steady(0),
-    terms: surfaces.map((surface, j) => ({ amplitude_K: stage.amplitudes_K[j] * Math.exp(-stage.rates[j] * tau), surface })),
+    terms: stage.modes.map((mode, j) => ({ amplitude_K: stage.amplitudes_K[j] * Math.exp(-stage.rates[j] * tau), mode })),
   }
 }
 
@@ -130,7 +130,7 @@ function solveBySeries(problem: CooldownProblem, options: SolveOptions): Cooldow
         : typeof initial === 'number'
           ? initial
           : initialAt,
-      ...(previous?.surfaces ? { startModes: modalEnd(previous, previous.surfaces) } : {}),
+      ...(previous && problem.stages[i - 1].inner.type === 'symmetry' ? { startModes: modalEnd(previous) } : {}),
       breakpoints: i === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [],
       symmetricUniformSteady: inner.biot === 0,
       earliest_s: earliest ?? 0.01 * domain.timeScale_s,

@@ -338,6 +338,7 @@ class UniformSolution implements CooldownSolution {
     return (this.series ??= this.modes.map((s): StageSeries => {
       const lam = s.lam.slice(0, s.count)
       const steady_C = s.steady_C
+      const shapes = lam.map((l) => uniformShape(this.geometry, l, 0))
       return {
         start_s: s.start_s,
         end_s: s.end_s,
@@ -346,10 +347,10 @@ class UniformSolution implements CooldownSolution {
         steadyMean_C: steady_C,
         rates: lam.map((l) => l * l),
         amplitudes_K: s.amp.slice(0, s.count),
-        shapes: lam.map((l) => uniformShape(this.geometry, l, 0)),
+        shapes,
         modeMeans: lam.map((l, j) => (this.m + 1) * massOf(l, s.df1[j])),
         truncationError_K: s.truncationError_K,
-        surfaces: lam.map((l) => surfaceValues(this.geometry, l)),
+        modes: lam.map((l, j) => ({ rate: l * l, shape: shapes[j], surface: surfaceValues(this.geometry, l) })),
       }
     }))
   }

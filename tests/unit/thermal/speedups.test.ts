@@ -3,10 +3,12 @@ import { pointValue, pointValues, type PointStage } from '../../../shared/pointS
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
 import { discreteRates } from '../../../server/thermal/discreteModes'
 import { rodRoot, slabRoot, sphereRoot, surfaceValues, uniformMass, uniformNorm, uniformOverlap } from '../../../server/thermal/eigenRoots'
-import { scaleDomain, type PropertyPiece } from '../../../server/thermal/properties'
-import { gaussLegendre } from '../../../server/thermal/quadrature'
+import { heatCapacity } from '../../../server/thermal/modeIntegrals'
+import { breakpointsOf, propertiesAt, scaleDomain, type PropertyPiece } from '../../../server/thermal/properties'
+import { compositeRule, gaussLegendre } from '../../../server/thermal/quadrature'
 import { modeFamily } from '../../../server/thermal/modeFamily'
 import { shootingAccuracy, shootingModes } from '../../../server/thermal/shooting'
+import { buildStageSeries, type SeriesInput } from '../../../server/thermal/series'
 import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import type { CooldownProblem, Geometry, PropertyPoint } from '../../../server/thermal/types'
 
@@ -101,7 +103,7 @@ describe('closed-form integrals of symmetric uniform modes (Green\'s identity)',
     ]
     const flat = solveCooldown({ domain, initial: 850, stages }, { earliest_s: 1, minModes: 30 })
     const table = solveCooldown({ domain, initial: [{ x: 0, T_C: 850 }, { x: 1, T_C: 850 }], stages }, { earliest_s: 1, minModes: 30 })
-    expect(flat.stages[1].surfaces).toBeDefined()
+    expect(flat.stages[1].modes.every((mode) => mode.surface)).toBe(true)
     for (const t of [41, 60, 300, 3000]) for (const x of [0, 0.5, 1]) expect(Math.abs(flat.evaluate(t, x) - table.evaluate(t, x))).toBeLessThan(1e-5)
   })
 })
@@ -182,5 +184,49 @@ describe('graded mode cache', () => {
     const loose = modeFamily('rod', domain, 0, 0.8, shootingAccuracy(0.05)).mode(1)
     expect(loose).not.toBe(modeFamily('rod', domain, 0, 0.8).mode(1))
     expect(Math.abs(loose.rate / base - 1)).toBeLessThan(1e-6)
+  })
+})
+
+describe('projection through cached mode integrals', () => {
+  const domain = scaleDomain({ geometry: 'rod', length_m: 0.025, properties: casedRod })
+  const stage = (biot: number, ambient_C: number, start: SeriesInput['start'], startModes?: SeriesInput['startModes']) =>
+    buildStageSeries({
+      geometry: 'rod',
+      domain,
+      family: modeFamily('rod', domain, 0, biot),
+      steady: () => ambient_C,
+      start,
+      ...(startModes ? { startModes } : {}),
+      breakpoints: [],
+      symmetricUniformSteady: true,
+      earliest_s: 2,
+      minModes: 8,
+      maxModes: 60,
+      start_s: 0,
+      end_s: 120,
+    })
+
+  it('a graded rod: amplitudes from a uniform start and from the previous stage\'s modes equal the quadrature projection of the same start to 1e-8 K (the rules differ only in panel width)', () => {
+    const first = stage(0.6, 60, 850)
+    const firstByQuadrature = stage(0.6, 60, () => 850)
+    first.amplitudes_K.forEach((a, j) => expect(Math.abs(a - firstByQuadrature.amplitudes_K[j])).toBeLessThan(1e-8))
+    first.modeMeans.forEach((mean, j) => expect(Math.abs(mean - firstByQuadrature.modeMeans[j])).toBeLessThan(1e-12))
+
+    const tau = 120 / domain.timeScale_s
+    const ends = first.amplitudes_K.map((a, j) => a * Math.exp(-first.rates[j] * tau))
+    const endProfile = (x: number) => 60 + ends.reduce((sum, a, j) => sum + a * first.shapes[j](x), 0)
+    const second = stage(0.01, 25, endProfile, { steady_C: 60, terms: first.modes.map((mode, j) => ({ amplitude_K: ends[j], mode })) })
+    const secondByQuadrature = stage(0.01, 25, endProfile)
+    second.amplitudes_K.forEach((a, j) => expect(Math.abs(a - secondByQuadrature.amplitudes_K[j])).toBeLessThan(1e-8))
+  })
+})
+
+describe('heat capacity in closed form', () => {
+  it.each([0, 1, 2] as const)('m = %i: ∫ c x^m over the cased body equals composite Gauss–Legendre, and ∫ x^m = 1/(m + 1) for c = 1', (m) => {
+    const domain = { ...scaleDomain({ geometry: 'rod', length_m: 0.025, properties: casedRod }), m }
+    const rule = compositeRule(breakpointsOf(domain.pieces), 1 / 64, (x) => propertiesAt(domain.pieces, x).c * x ** m)
+    expect(heatCapacity(domain)).toBeCloseTo(rule.w.reduce((a, b) => a + b, 0), 13)
+    const plain = { ...domain, pieces: [{ x0: 0, x1: 1, k0: 1, k1: 1, c0: 1, c1: 1 }] }
+    expect(heatCapacity(plain)).toBeCloseTo(1 / (m + 1), 15)
   })
 })

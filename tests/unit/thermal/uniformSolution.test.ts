@@ -92,6 +92,7 @@ function readings(problem: CooldownProblem, options: SolveOptions, solve: typeof
       steady: undefined,
       shapes_K: st.shapes.map((f) => xs.map((x) => f(x))),
       shapes: undefined,
+      modes: st.modes.map(({ rate, surface }) => ({ rate, surface })),
     })),
   }
 }
