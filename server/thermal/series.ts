@@ -2,10 +2,12 @@
  * Eigenfunction series of one stage:
  *     T(x, τ) = T_ss(x) + Σ a_n f_n(x) e^{−μ_n τ},
  *     a_n = ∫ w (T_start − T_ss) f_n dx / ∫ w f_n² dx,   w = ρc x^m,
- * the modes being orthogonal in that weight (Sturm–Liouville). Coefficients come
- * from composite Gauss–Legendre quadrature, or for a uniform symmetric body in
- * closed form: C_n (T₀ − T∞) from a uniform start (Incropera et al., §5.5–5.6), and
- * Green's identity from the previous stage's modes (closedFormProjection).
+ * the modes being orthogonal in that weight (Sturm–Liouville). Coefficients come,
+ * first that applies: for a uniform symmetric body in closed form, C_n (T₀ − T∞) from
+ * a uniform start (Incropera et al., §5.5–5.6) and Green's identity from the previous
+ * stage's modes (closedFormProjection); for any body with a symmetric centre from the
+ * start-independent mode integrals of modeIntegrals.ts (cachedIntegralProjection);
+ * otherwise by composite Gauss–Legendre quadrature of the start profile.
  *
  * The number of modes is chosen for the earliest time the stage is evaluated at:
  * terms |a_n| max|f_n| e^{−μ_n τ_min} are summed beyond a cut until at least three
