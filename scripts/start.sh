@@ -29,6 +29,10 @@ if [ -z "${DATABASE_URL:-}" ]; then
   DATABASE_URL=$(scripts/db.sh url dev)
 fi
 export DATABASE_URL
+export PORT NITRO_HOST=${HOST:-127.0.0.1}
+export AUTH_ORIGIN=${AUTH_ORIGIN:-http://localhost:$PORT/api/auth}
+export NUXT_AUTH_SECRET=${NUXT_AUTH_SECRET:-$(ensure_secret auth-secret)}
+export NUXT_RECORD_SEAL_KEY=${NUXT_RECORD_SEAL_KEY:-$(ensure_secret record-seal-key)}
 npx tsx scripts/migrate.ts
 npx tsx scripts/seed.ts
 
@@ -45,10 +49,6 @@ export SMTP_URL
 
 build_if_stale
 
-export PORT NITRO_HOST=${HOST:-127.0.0.1}
-export AUTH_ORIGIN=${AUTH_ORIGIN:-http://localhost:$PORT/api/auth}
-export NUXT_AUTH_SECRET=${NUXT_AUTH_SECRET:-$(ensure_secret auth-secret)}
-export NUXT_RECORD_SEAL_KEY=${NUXT_RECORD_SEAL_KEY:-$(ensure_secret record-seal-key)}
 node .output/server/index.mjs &
 children+=($!)
 wait_for_url "http://127.0.0.1:$PORT/api/health" || { echo "[start] the app did not answer on port $PORT" >&2; exit 1; }

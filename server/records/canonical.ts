@@ -50,6 +50,11 @@ export function hmacSha256Hex(key: string | Buffer, text: string): string {
   return createHmac('sha256', key).update(text, 'utf8').digest('hex')
 }
 
+/** A usable seal key: a secret of at least 32 characters. */
+export function isSealKey(key: unknown): key is string {
+  return typeof key === 'string' && key.length >= 32
+}
+
 /**
  * The record's seal: HMAC-SHA-256 of the snapshot's canonical JSON under the shop's
  * seal key. A plain hash could be recomputed by anyone who can edit the database; the

@@ -3,7 +3,7 @@ import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
 import { DEMO_SHOP_NAME } from '../db/demo/shop'
-import { recordSeal } from '../records/canonical'
+import { isSealKey, recordSeal } from '../records/canonical'
 import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from '../records/cooldownRecord'
 import { escapeHtml } from '../records/sheetHtml'
 import { holdTimeSheetMail } from '../records/sheetMail'
@@ -38,7 +38,7 @@ export function publicOrigin(env: Readonly<Record<string, string | undefined>> =
  */
 function sealKey(): string {
   const key = useRuntimeConfig().recordSealKey
-  if (typeof key !== 'string' || key.length < 32) {
+  if (!isSealKey(key)) {
     throw createError({ statusCode: 503, statusMessage: 'Records cannot be sealed or checked: NUXT_RECORD_SEAL_KEY is not set to a secret of at least 32 characters' })
   }
   return key
@@ -64,7 +64,12 @@ export async function refuseIfRecordSigned(tx: Transaction, batchId: number): Pr
  * PDF is rendered here, not before: the sheet must show exactly the events this
  * transaction sees, and pdfkit takes tens of milliseconds for one sheet.
  */
-export async function writeCooldownRecord(tx: Transaction, batchId: number, releasedBy: Pick<SessionUser, 'id' | 'displayName'>): Promise<{ id: number; hash: string; outboxId: number }> {
+export async function writeCooldownRecord(
+  tx: Transaction,
+  batchId: number,
+  releasedBy: Pick<SessionUser, 'id' | 'displayName'>,
+  key: string = sealKey(),
+): Promise<{ id: number; hash: string; outboxId: number }> {
   const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
   if (!found) throw new Error(`Batch ${batchId} not found`)
   const summary = readSummary(found.revision.summary)
@@ -81,7 +86,7 @@ export async function writeCooldownRecord(tx: Transaction, batchId: number, rele
     events,
     releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
   })
-  const hash = recordSeal(snapshot, sealKey())
+  const hash = recordSeal(snapshot, key)
   const [{ id }] = await tx
     .insert(cooldownRecords)
     .values({ batchId, snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })

@@ -159,6 +159,25 @@ describe('the record written on release', () => {
   })
 })
 
+describe('the demo shop', () => {
+  it('arrives with sealed records of its released loads (work orders WO-…), intact, one or more with the late quench it seeded', async () => {
+    const list = (await qa.request('/api/records?limit=500')).body as { id: number; deviationCount: number }[]
+    const demo = []
+    for (const item of list) {
+      const detail = (await qa.request(`/api/records/${item.id}`)).body
+      if (detail.snapshot.batch.reference.startsWith('WO-')) demo.push(detail)
+    }
+    expect(demo.length).toBeGreaterThan(0)
+    for (const record of demo) {
+      expect(record.integrity).toBe('intact')
+      expect(sealOf(record.snapshot)).toBe(record.hash)
+    }
+    const late = demo.filter((record) => record.deviationCount > 0)
+    expect(late.length).toBeGreaterThan(0)
+    for (const record of late) expect(record.snapshot.deviations.map((d: { rule: string }) => d.rule)).toEqual(['quench_delay'])
+  })
+})
+
 describe('lists and filters', () => {
   it('filters by state, furnace and deviation; sorts by release time', async () => {
     const withDeviation = (await qa.request('/api/records?deviation=yes&limit=500')).body as { batchId: number; deviationCount: number }[]

@@ -36,7 +36,7 @@ async function waitFor(url: string, what: string, seconds = 60): Promise<void> {
 async function startStack(): Promise<Stack> {
   run('bash', ['scripts/db.sh', 'reset', 'test'])
   const databaseUrl = run('bash', ['scripts/db.sh', 'url', 'test']).trim()
-  const env = { ...process.env, DATABASE_URL: databaseUrl }
+  const env = { ...process.env, DATABASE_URL: databaseUrl, AUTH_ORIGIN: `${BASE_URL}/api/auth`, NUXT_RECORD_SEAL_KEY: RECORD_SEAL_KEY }
   run('npx', ['tsx', 'scripts/migrate.ts'], env)
   run('npx', ['tsx', 'scripts/seed.ts'], env)
   run('bash', ['-c', 'source scripts/lib.sh && mkdir -p .data && build_if_stale'])
@@ -50,9 +50,7 @@ async function startStack(): Promise<Stack> {
       ...env,
       PORT: String(APP_PORT),
       NITRO_HOST: '127.0.0.1',
-      AUTH_ORIGIN: `${BASE_URL}/api/auth`,
       NUXT_AUTH_SECRET: AUTH_SECRET,
-      NUXT_RECORD_SEAL_KEY: RECORD_SEAL_KEY,
       SMTP_URL: `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
       // A quick outbox so mail tests take seconds: poll every 0.3 s, retry after 0.3 s doubling to 1.5 s.
       OUTBOX_POLL_MS: '300',

@@ -2,6 +2,7 @@ import { and, count, eq, inArray } from 'drizzle-orm'
 import type { Database } from '../client'
 import { batchEvents, batches, furnaceStations, furnaces, planRevisions, plans, quenchStations, users } from '../schema'
 import { bookBatch } from '../../utils/batches'
+import { writeCooldownRecord } from '../../utils/records'
 import { deriveSlots, type BatchState } from '../../../shared/schedule'
 import type { ResolvedPlan } from '../../../shared/schemas/plan'
 import type { QuenchantKind } from '../../../shared/schemas/quenchant'
@@ -32,18 +33,27 @@ export async function demoPlanRevisions(db: Database): Promise<DemoPlanRevision[
     })
 }
 
+export interface DemoScheduleResult {
+  loads: number
+  /** Cooldown records written for the loads already released (0 without a seal key). */
+  records: number
+}
+
 /**
  * Three furnaces, three stations and about two days of loads around now. Loads
  * whose charge time has passed are advanced as if the floor had followed the plan
- * to the minute, so the floor page has something in every state. Runs once.
+ * to the minute, except that every fifth one went into the bath two and a half
+ * minutes late; loads already released get their cooldown record (sealed with
+ * `sealKey`, their hold-time sheets queued as on a real release), so the QA lead has
+ * records to review, one of them with a deviation. Runs once.
  */
-export async function seedDemoSchedule(db: Database): Promise<boolean> {
+export async function seedDemoSchedule(db: Database, sealKey: string | null): Promise<DemoScheduleResult | null> {
   const [{ total }] = await db.select({ total: count() }).from(furnaces)
-  if (total > 0) return false
+  if (total > 0) return null
   const [metallurgist] = await db.select().from(users).where(eq(users.role, 'metallurgist'))
   const [operator] = await db.select().from(users).where(eq(users.role, 'operator'))
   const demoPlans = await demoPlanRevisions(db)
-  if (!metallurgist || !operator || demoPlans.length === 0) return false
+  if (!metallurgist || !operator || demoPlans.length === 0) return null
 
   const furnaceIds: number[] = []
   for (const f of [
@@ -70,6 +80,7 @@ export async function seedDemoSchedule(db: Database): Promise<boolean> {
   const now = Date.now()
   const hour = 3600_000
   let sequence = 0
+  let records = 0
   for (const [f, furnaceId] of furnaceIds.entries()) {
     let charge = now - 14 * hour + f * 40 * 60_000
     while (charge < now + 36 * hour) {
@@ -85,26 +96,37 @@ export async function seedDemoSchedule(db: Database): Promise<boolean> {
         if (!next) throw error
         booked = await bookBatch({ ...input, plannedCharge: next }, metallurgist, db)
       }
-      await followPlan(db, booked.id, now, operator.id)
+      const state = await followPlan(db, booked.id, now, operator.id, sequence % 5 === 2 ? LATE_QUENCH_S : 0)
+      if (state === 'released' && sealKey) {
+        await db.transaction((tx) => writeCooldownRecord(tx, booked.id, operator, sealKey))
+        records += 1
+      }
       charge = booked.furnaceEnd + 20 * 60_000
     }
   }
-  return true
+  return { loads: sequence, records }
 }
 
-/** Writes the floor events a batch would have by `now` had everything run on time. */
-async function followPlan(db: Database, id: number, now: number, operatorId: number) {
+/** How late the demo's late loads reach the bath: past the usual 60 s allowance, so their records show a quench-delay deviation. */
+const LATE_QUENCH_S = 150
+
+/**
+ * Writes the floor events a batch would have by `now` had everything run on time but
+ * the quench, `lateQuench_s` late (with everything after it); returns the state reached.
+ */
+async function followPlan(db: Database, id: number, now: number, operatorId: number, lateQuench_s: number): Promise<BatchState> {
   const [row] = await db.select().from(batches).where(eq(batches.id, id))
-  if (!row || row.furnaceStart.getTime() > now) return
+  if (!row || row.furnaceStart.getTime() > now) return 'planned'
   const plan = deriveSlots(row.plannedCharge.getTime(), { ...row, minimumSoak_s: row.minimumSoak_s })
   const heatUp_s = row.minimumSoak_s === null ? row.furnace_s / 2 : row.furnace_s - row.minimumSoak_s
+  const late = lateQuench_s * 1000
   const steps: [BatchState, BatchState, number, number | null][] = [
     ['planned', 'charged', plan.furnaceStart, operatorId],
     ['charged', 'soaking', plan.furnaceStart + heatUp_s * 1000, operatorId],
-    ['soaking', 'quenched', plan.quenchStart, operatorId],
-    ['quenched', 'cooling', plan.quenchEnd, null],
-    ['cooling', 'ready', plan.handlingAt, null],
-    ['ready', 'released', plan.handlingAt + 3600_000, operatorId],
+    ['soaking', 'quenched', plan.quenchStart + late, operatorId],
+    ['quenched', 'cooling', plan.quenchEnd + late, null],
+    ['cooling', 'ready', plan.handlingAt + late, null],
+    ['ready', 'released', plan.handlingAt + late + 3600_000, operatorId],
   ]
   let state: BatchState = 'planned'
   for (const [from, to, at, actorId] of steps) {
@@ -119,7 +141,8 @@ async function followPlan(db: Database, id: number, now: number, operatorId: num
       state,
       chargedAt: reached('charged') ? new Date(plan.furnaceStart) : null,
       soakingAt: reached('soaking') ? new Date(plan.furnaceStart + heatUp_s * 1000) : null,
-      quenchedAt: reached('quenched') ? new Date(plan.quenchStart) : null,
+      quenchedAt: reached('quenched') ? new Date(plan.quenchStart + late) : null,
     })
     .where(eq(batches.id, id))
+  return state
 }
