@@ -13,7 +13,7 @@
  *
  * Composite 8-point Gauss–Legendre, split at every property breakpoint, panels no wider
  * than min(1/16, 1.5/λ) for the fastest mode involved (λ² = μ max c/k), as the
- * quadrature projection in series.ts uses.
+ * quadrature projection in series.ts uses; one rule per panel count and body.
  */
 import type { Mode } from './modeFamily'
 import { breakpointsOf, propertiesAt, type ScaledDomain } from './properties'
@@ -28,11 +28,24 @@ export interface ModeIntegrals {
 const integrals = new WeakMap<Mode, ModeIntegrals>()
 const overlaps = new WeakMap<Mode, Map<Mode, number>>()
 
-/** A rule on the body that resolves modes up to this dimensionless rate. */
+const rules = new WeakMap<ScaledDomain, Map<number, QuadratureRule>>()
+
+/**
+ * A rule on the body that resolves modes up to this dimensionless rate: panels no
+ * wider than min(1/16, 1.5/λ), their count per unit length rounded up to a multiple
+ * of 8 so that neighbouring modes and pairs share one rule.
+ */
 function ruleFor(domain: ScaledDomain, rate: number): QuadratureRule {
   const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
-  const lam = Math.sqrt(rate * maxRatio)
-  return compositeRule(breakpointsOf(domain.pieces), Math.min(1 / 16, 1.5 / lam), (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m))
+  const panels = 8 * Math.ceil(Math.max(16, Math.sqrt(rate * maxRatio) / 1.5) / 8)
+  let byPanels = rules.get(domain)
+  if (!byPanels) rules.set(domain, (byPanels = new Map()))
+  let rule = byPanels.get(panels)
+  if (!rule) {
+    rule = compositeRule(breakpointsOf(domain.pieces), 1 / panels, (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m))
+    byPanels.set(panels, rule)
+  }
+  return rule
 }
 
 export function modeIntegrals(domain: ScaledDomain, mode: Mode): ModeIntegrals {

@@ -206,10 +206,10 @@ describe('projection through cached mode integrals', () => {
       end_s: 120,
     })
 
-  it('a graded rod: amplitudes from a uniform start and from the previous stage\'s modes equal the quadrature projection of the same start to 1e-8 K (the rules differ only in panel width)', () => {
+  it('a graded rod: amplitudes from a uniform start and from the previous stage\'s modes equal the quadrature projection of the same start to 1e-10 of the 790 K drop (the rules differ in panel width)', () => {
     const first = stage(0.6, 60, 850)
     const firstByQuadrature = stage(0.6, 60, () => 850)
-    first.amplitudes_K.forEach((a, j) => expect(Math.abs(a - firstByQuadrature.amplitudes_K[j])).toBeLessThan(1e-8))
+    first.amplitudes_K.forEach((a, j) => expect(Math.abs(a - firstByQuadrature.amplitudes_K[j])).toBeLessThan(790e-10))
     first.modeMeans.forEach((mean, j) => expect(Math.abs(mean - firstByQuadrature.modeMeans[j])).toBeLessThan(1e-12))
 
     const tau = 120 / domain.timeScale_s
@@ -217,7 +217,7 @@ describe('projection through cached mode integrals', () => {
     const endProfile = (x: number) => 60 + ends.reduce((sum, a, j) => sum + a * first.shapes[j](x), 0)
     const second = stage(0.01, 25, endProfile, { steady_C: 60, terms: first.modes.map((mode, j) => ({ amplitude_K: ends[j], mode })) })
     const secondByQuadrature = stage(0.01, 25, endProfile)
-    second.amplitudes_K.forEach((a, j) => expect(Math.abs(a - secondByQuadrature.amplitudes_K[j])).toBeLessThan(1e-8))
+    second.amplitudes_K.forEach((a, j) => expect(Math.abs(a - secondByQuadrature.amplitudes_K[j])).toBeLessThan(790e-10))
   })
 })
 
