@@ -50,11 +50,28 @@ const GRADED_CACHE_SIZE = 32
  * latin1 text); formatting them as decimals cost more than the rest of a cached re-solve.
  */
 function gradedKey(domain: ScaledDomain, innerBiot: number, outerBiot: number, shooting: ShootingAccuracy): string {
-  const values = new Float64Array(6 + 6 * domain.pieces.length)
-  values.set([domain.m, innerBiot, outerBiot, shooting.rateRtol, shooting.fine.rtol, shooting.fine.atol])
-  domain.pieces.forEach((p, i) => values.set([p.x0, p.x1, p.k0, p.k1, p.c0, p.c1], 6 + 6 * i))
-  return Buffer.from(values.buffer).toString('latin1')
+  const length = 6 + 6 * domain.pieces.length
+  // One scratch array, grown when needed: allocating a typed array per call cost more than the rest.
+  if (keyScratch.length < length) keyScratch = new Float64Array(2 * length)
+  const v = keyScratch
+  v[0] = domain.m
+  v[1] = innerBiot
+  v[2] = outerBiot
+  v[3] = shooting.rateRtol
+  v[4] = shooting.fine.rtol
+  v[5] = shooting.fine.atol
+  let i = 6
+  for (const p of domain.pieces) {
+    v[i++] = p.x0
+    v[i++] = p.x1
+    v[i++] = p.k0
+    v[i++] = p.k1
+    v[i++] = p.c0
+    v[i++] = p.c1
+  }
+  return Buffer.from(v.buffer, 0, 8 * length).toString('latin1')
 }
+let keyScratch = new Float64Array(64)
 
 export function modeFamily(
   geometry: Geometry,
@@ -93,13 +110,11 @@ export function modeFamily(
   }
   const key = gradedKey(domain, innerBiot, outerBiot, shooting)
   let mode = gradedModes.get(key)
-  if (mode) {
-    // Most recently used last, so the oldest entry is the one evicted.
-    gradedModes.delete(key)
-  } else {
-    mode = shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }, shooting)
+  if (!mode) {
+    // First in, first out, as for the uniform families.
     if (gradedModes.size >= GRADED_CACHE_SIZE) gradedModes.delete(gradedModes.keys().next().value as string)
+    mode = shootingModes({ m: domain.m, pieces: domain.pieces, innerBiot, outerBiot }, shooting)
+    gradedModes.set(key, mode)
   }
-  gradedModes.set(key, mode)
   return { analytic: false, mode }
 }

@@ -119,12 +119,12 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
   const { domain, family } = input
   const tauMin = Math.max(input.earliest_s, 0) / domain.timeScale_s
   let n = firstModeGuess(tauMin, input.minModes, input.maxModes)
-  const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
   for (;;) {
     const computed = modesToCompute(n, input.maxModes)
-    const modes = Array.from({ length: computed }, (_, i) => family.mode(i + 1))
+    const modes: Mode[] = []
+    for (let j = 1; j <= computed; j++) modes.push(family.mode(j))
     const { amplitudes, means, terms, steadyMean } =
-      closedFormProjection(input, modes, tauMin) ?? cachedIntegralProjection(input, modes, tauMin) ?? quadratureProjection(input, modes, tauMin, maxRatio)
+      closedFormProjection(input, modes, tauMin) ?? cachedIntegralProjection(input, modes, tauMin) ?? quadratureProjection(input, modes, tauMin)
     const kept = truncate(terms, computed, input.minModes, input.maxModes, input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)
     if (kept) {
       const { cut } = kept
@@ -216,9 +216,10 @@ function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: num
 }
 
 /** Composite Gauss–Legendre projection of the start onto any modes, resolving the fastest one. */
-function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number, maxRatio: number): Projection {
+function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection {
   const { domain } = input
   const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
+  const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
   const lamMax = Math.sqrt(modes[modes.length - 1].rate * maxRatio)
   const rule = compositeRule(
     [...breakpointsOf(domain.pieces), ...input.breakpoints],
