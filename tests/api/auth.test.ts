@@ -1,7 +1,6 @@
-import { execFileSync } from 'node:child_process'
-import mysql from 'mysql2/promise'
 import { describe, expect, it } from 'vitest'
 import { ROLES } from '../../shared/roles'
+import { connectTestDb } from '../support/db'
 import { anonymous, demoUser, signInAs, signInDemo } from '../support/http'
 
 describe('sign-in through the real auth endpoints', () => {
@@ -29,7 +28,7 @@ describe('sign-in through the real auth endpoints', () => {
   })
 
   it('keeps the failure count in the database (a restart does not reset it) and clears it on a good sign-in', async () => {
-    const db = await mysql.createConnection({ uri: execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim(), timezone: 'Z' })
+    const db = await connectTestDb()
     const countOf = async (email: string) => {
       const [rows] = await db.query('SELECT count FROM sign_in_failures WHERE email = ?', [email])
       return (rows as { count: number }[])[0]?.count ?? null

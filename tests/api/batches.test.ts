@@ -4,6 +4,7 @@ import { signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, pinSpec, savePlan, type SavedPlan } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
+import { auditFor } from '../support/audit'
 
 let admin: Client
 let metallurgist: Client
@@ -156,8 +157,8 @@ describe('state moves on the floor', () => {
       ['charged', 'Tomas Vidal'],
       ['soaking', 'Tomas Vidal'],
     ])
-    const audit = await admin.request('/api/audit?entityType=batch&limit=100')
-    expect(audit.body.filter((e: { entityId: string }) => e.entityId === String(booked.body.id)).map((e: { action: string }) => e.action).sort()).toEqual(['batch.book', 'batch.charged', 'batch.soaking'])
+    const audit = await auditFor(admin, 'batch', booked.body.id)
+    expect(audit.map((e: { action: string }) => e.action).sort()).toEqual(['batch.book', 'batch.charged', 'batch.soaking'])
   })
 
   it('a late charge moves the later slots and flags the next booking on the furnace; withdrawing the late load clears the flag', async () => {

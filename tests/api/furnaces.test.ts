@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { anonymous, signInDemo, type Client } from '../support/http'
+import { auditFor } from '../support/audit'
 
 let admin: Client
 beforeAll(async () => {
@@ -28,8 +29,8 @@ describe('furnaces and quench stations', () => {
     expect(listed.body.find((f: { id: number }) => f.id === furnace.body.id)).toMatchObject({ maxTemp_C: 980, stationIds: [] })
     expect((await qa.request('/api/quench-stations')).body.map((s: { id: number }) => s.id)).toContain(station.body.id)
 
-    const audit = await admin.request('/api/audit?entityType=furnace&limit=20')
-    expect(audit.body.filter((e: { entityId: string }) => e.entityId === String(furnace.body.id)).map((e: { action: string }) => e.action).sort()).toEqual(['furnace.create', 'furnace.update'])
+    const audit = await auditFor(admin, 'furnace', furnace.body.id)
+    expect(audit.map((e: { action: string }) => e.action).sort()).toEqual(['furnace.create', 'furnace.update'])
   })
 
   it('only admins may change equipment; signed-out visitors may not even read', async () => {

@@ -10,6 +10,7 @@ import { caughtAttachment, caughtMail, clearCaughtMail, startMailCatcher, stopMa
 import { STANDARD_CAUTIONS } from '../../server/records/cautions'
 import { escapeHtml } from '../../server/records/sheetHtml'
 import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
+import { auditFor } from '../support/audit'
 
 let admin: Client
 /** Active users by role, sorted: the default recipients (other test files add people). */
@@ -174,8 +175,7 @@ describe('retry', () => {
     const sent = await until(async () => (await outbox()).messages.find((message) => message.id === id)!, (row) => row.status === 'sent')
     expect(sent.attempts).toBe(1)
 
-    const audit = await admin.request('/api/audit?entityType=outbox_message&limit=20')
-    const entry = audit.body.find((row: { action: string; entityId: string }) => row.action === 'outbox.retry' && row.entityId === String(id))
+    const entry = (await auditFor(admin, 'outbox_message', id)).find((row: { action: string }) => row.action === 'outbox.retry')
     expect(entry.details).toMatchObject({ from: 'failed', attempts: 1 })
     expect(entry.actorName).toBe('Rowan Achterberg')
   })

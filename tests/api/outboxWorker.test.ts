@@ -3,18 +3,17 @@
  * like two server processes) race the running server's worker over the same rows. The
  * claim must hand every row to exactly one of them.
  */
-import { execFileSync } from 'node:child_process'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { inArray, like } from 'drizzle-orm'
 import { createDatabase } from '../../server/db/client'
 import { outboxMessages } from '../../server/db/schema'
 import { enqueueMail } from '../../server/outbox/enqueue'
 import { runOutboxOnce } from '../../server/outbox/worker'
+import { testDatabaseUrl } from '../support/db'
 import { caughtMail, waitForMail } from '../support/mailCatcher'
 
-const url = execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim()
-const a = createDatabase(url)
-const b = createDatabase(url)
+const a = createDatabase(testDatabaseUrl())
+const b = createDatabase(testDatabaseUrl())
 const schedule = { baseMs: 300, maxMs: 1500, maxAttempts: 10 }
 
 afterAll(async () => {

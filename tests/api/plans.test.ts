@@ -7,6 +7,7 @@ import { DEMO_PLANS } from '../../server/db/demo/plans'
 import { anonymous, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { bisect } from '../support/bisect'
+import { auditFor } from '../support/audit'
 
 let metallurgist: Client
 let lib: LibraryFixture
@@ -149,8 +150,7 @@ describe('plans: compute and save', () => {
   })
 
   it('every write is in the audit trail', async () => {
-    const audit = await (await signInDemo('admin')).request('/api/audit?entityType=plan&limit=100')
-    const actions = audit.body.filter((e: { entityId: string }) => e.entityId === String(created.id)).map((e: { action: string }) => e.action)
+    const actions = (await auditFor(await signInDemo('admin'), 'plan', created.id)).map((e: { action: string }) => e.action)
     expect(actions).toEqual(expect.arrayContaining(['plan.create', 'plan.revise']))
   })
 

@@ -4,12 +4,12 @@
  * QA sign-off and its refusals, tampering in SQL, the mails (sheet, rejection, digest).
  * Expected seconds are computed here by hand from the event times the batch API reports.
  */
-import { execFileSync } from 'node:child_process'
 import { createHash, createHmac } from 'node:crypto'
-import mysql from 'mysql2/promise'
+import type { Connection } from 'mysql2/promise'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { canonicalJson } from '../../server/records/canonical'
 import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
+import { connectTestDb } from '../support/db'
 import { anonymous, demoUser, signInAs, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { caughtAttachment, caughtMail, waitForMail } from '../support/mailCatcher'
@@ -25,7 +25,7 @@ let metallurgist: Client
 let operator: Client
 let qa: Client
 let lib: LibraryFixture
-let db: mysql.Connection
+let db: Connection
 const ids: Record<string, number> = {}
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
@@ -54,8 +54,7 @@ beforeAll(async () => {
   lib = await createLibraryFixture(metallurgist)
   cleanPlan = await quickPlan(metallurgist, lib, 60)
   latePlan = await quickPlan(metallurgist, lib, 0)
-  const url = execFileSync('bash', ['scripts/db.sh', 'url', 'test'], { encoding: 'utf8' }).trim()
-  db = await mysql.createConnection({ uri: url, timezone: 'Z' })
+  db = await connectTestDb()
 
   // A user who works the floor as an operator and is later made a QA lead.
   switcher = { id: 0, email: `switcher-${Date.now()}@kestrelbay.example`, password: 'switcher-pass-1' }

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { anonymous, signInAs, signInDemo, type Client } from '../support/http'
+import { auditFor } from '../support/audit'
 
 let admin: Client
 
@@ -56,8 +57,7 @@ describe('user lifecycle', () => {
     expect((await operator!.request('/api/audit')).status).toBe(401)
     expect(await signInAs(email, password)).toBeNull()
 
-    const audit = await admin.request('/api/audit?entityType=user&limit=50')
-    const actions = audit.body.filter((entry: { entityId: string }) => entry.entityId === String(created.body.id))
+    const actions = await auditFor(admin, 'user', created.body.id)
     expect(actions.map((entry: { action: string }) => entry.action)).toEqual(expect.arrayContaining(['user.create', 'user.update']))
     const update = actions.find((entry: { action: string }) => entry.action === 'user.update')
     expect(update.details).toEqual({ active: { from: true, to: false } })

@@ -1,8 +1,8 @@
 import { expect } from 'vitest'
 import type { Client } from './http'
 
-/** The audit rows of one library entry, newest first; `admin` must be able to read the audit trail. */
-export async function auditFor(admin: Client, entityType: 'material' | 'quenchant', id: number) {
+/** The audit rows of one entity (a library entry, batch, plan, user…), newest first; `admin` must be able to read the audit trail. */
+export async function auditFor(admin: Client, entityType: string, id: number) {
   const response = await admin.request(`/api/audit?entityType=${entityType}&limit=500`)
   expect(response.status).toBe(200)
   return response.body.filter((entry: { entityId: string }) => entry.entityId === String(id))
