@@ -1,10 +1,11 @@
 import { beforeAll, describe, expect, it } from 'vitest'
+import { auditFor } from '../support/audit'
 import { runCase } from '../../server/thermal/runCase'
 import { signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, pinSpec, savePlan, type SavedPlan } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
-import { auditFor } from '../support/audit'
+import { move } from '../support/records'
 
 let admin: Client
 let metallurgist: Client
@@ -122,34 +123,34 @@ describe('state moves on the floor', () => {
   it('only in order, only by the allowed roles; a repeated tap changes nothing; backwards is refused', async () => {
     const line = await createLine(admin)
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
-    const move = (client: Client, to: string) => client.request(`/api/batches/${booked.body.id}/events`, { method: 'POST', body: { to } })
+    const moveBooked = (client: Client, to: string) => move(client, booked.body.id, to)
 
-    const skipped = await move(operator, 'quenched')
+    const skipped = await moveBooked(operator, 'quenched')
     expect(skipped.status).toBe(409)
     expect(skipped.body.data).toEqual({ currentState: 'planned', requestedState: 'quenched' })
     expect(skipped.body.statusMessage).toContain('(planned)')
     expect(skipped.body.statusMessage).toContain('(quenched)')
-    expect((await move(metallurgist, 'charged')).status).toBe(403)
-    expect((await move(qa, 'charged')).status).toBe(403)
-    expect((await move(operator, 'cancelled')).status).toBe(403)
+    expect((await moveBooked(metallurgist, 'charged')).status).toBe(403)
+    expect((await moveBooked(qa, 'charged')).status).toBe(403)
+    expect((await moveBooked(operator, 'cancelled')).status).toBe(403)
 
     const before = Date.now()
-    const charged = await move(operator, 'charged')
+    const charged = await moveBooked(operator, 'charged')
     expect(charged.status).toBe(201)
     expect(charged.body.batch.state).toBe('charged')
     expect(charged.body.batch.chargedAt).toBeGreaterThanOrEqual(before - 1000)
     expect(charged.body.batch.chargedAt).toBeLessThanOrEqual(Date.now() + 1000)
-    const again = await move(operator, 'charged')
+    const again = await moveBooked(operator, 'charged')
     expect(again.status).toBe(200)
     expect(again.body).toMatchObject({ repeated: true, batch: { chargedAt: charged.body.batch.chargedAt } })
 
-    expect((await move(operator, 'soaking')).status).toBe(201)
-    const back = await move(operator, 'charged')
+    expect((await moveBooked(operator, 'soaking')).status).toBe(201)
+    const back = await moveBooked(operator, 'charged')
     expect(back.status).toBe(409)
     expect(back.body.data).toEqual({ currentState: 'soaking', requestedState: 'charged' })
-    expect((await move(operator, 'planned')).status).toBe(409)
-    expect((await move(admin, 'ready')).status).toBe(409)
-    expect((await move(operator, 'released')).status).toBe(409)
+    expect((await moveBooked(operator, 'planned')).status).toBe(409)
+    expect((await moveBooked(admin, 'ready')).status).toBe(409)
+    expect((await moveBooked(operator, 'released')).status).toBe(409)
 
     const detail = await qa.request(`/api/batches/${booked.body.id}`)
     expect(detail.body.events.map((e: { toState: string; actorName: string }) => [e.toState, e.actorName])).toEqual([
@@ -169,7 +170,7 @@ describe('state moves on the floor', () => {
     const b = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, a.body.furnaceEnd + 5 * 60_000, 'Next') })
     expect(b.status).toBe(201)
 
-    const charged = await operator.request(`/api/batches/${a.body.id}/events`, { method: 'POST', body: { to: 'charged' } })
+    const charged = await move(operator, a.body.id, 'charged')
     expect(charged.status).toBe(201)
     const moved = charged.body.batch
     expect(moved.furnaceStart).toBe(moved.chargedAt)
@@ -183,7 +184,7 @@ describe('state moves on the floor', () => {
     expect(next.conflictNote).toContain(`Furnace still holds ${a.body.loadNumber}`)
     expect(next.furnaceStart).toBe(b.body.furnaceStart)
 
-    const withdrawn = await metallurgist.request(`/api/batches/${a.body.id}/events`, { method: 'POST', body: { to: 'cancelled' } })
+    const withdrawn = await move(metallurgist, a.body.id, 'cancelled')
     expect(withdrawn.status).toBe(201)
     expect((await qa.request(`/api/batches/${b.body.id}`)).body.conflictWith).toBeNull()
   })
