@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import type { OutboxAttachment } from '../../shared/types/outbox'
 import type { Database, Transaction } from '../db/client'
 import { outboxMessages } from '../db/schema'
+import { isDuplicateKey } from '../utils/dbErrors'
 
 export interface OutgoingMail {
   /** Same key, same message: a second enqueue with it is a no-op (a retried request, a replayed event). */
@@ -33,7 +34,7 @@ export async function enqueueMail(tx: Database | Transaction, mail: OutgoingMail
     return { id: inserted!.id, created: true }
   } catch (error) {
     // A duplicate key fails only this statement, not the caller's transaction; the first message stays as it was.
-    if ((error as { cause?: { code?: string } })?.cause?.code !== 'ER_DUP_ENTRY') throw error
+    if (!isDuplicateKey(error)) throw error
     const [existing] = await tx.select({ id: outboxMessages.id }).from(outboxMessages).where(eq(outboxMessages.dedupeKey, mail.dedupeKey))
     return { id: existing!.id, created: false }
   }

@@ -78,16 +78,9 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
   const released = firstAt('released')
   if (quenched === null || released === null) throw new Error(`Load ${batch.loadNumber} has no recorded quench or release`)
 
-  const durations = {
-    furnace_s: batch.furnace_s,
-    furnaceIsDefault: batch.furnaceIsDefault,
-    minimumSoak_s: batch.minimumSoak_s,
-    transfer_s: batch.transfer_s,
-    quench_s: batch.quench_s,
-    quenchToHandling_s: batch.quenchToHandling_s,
-  }
-  const soakEnd = deriveSlots(batch.plannedCharge.getTime(), durations, { chargedAt: charged, soakingAt: soaking }).furnaceEnd
-  const handlingAt = deriveSlots(batch.plannedCharge.getTime(), durations, { chargedAt: charged, soakingAt: soaking, quenchedAt: quenched }).handlingAt
+  // The batch carries its booked SlotDurations.
+  const soakEnd = deriveSlots(batch.plannedCharge.getTime(), batch, { chargedAt: charged, soakingAt: soaking }).furnaceEnd
+  const handlingAt = deriveSlots(batch.plannedCharge.getTime(), batch, { chargedAt: charged, soakingAt: soaking, quenchedAt: quenched }).handlingAt
 
   const events: SnapshotEvent[] = floor.map((event) => ({
     type: EVENT_TYPE[event.toState]!,

@@ -1,8 +1,6 @@
 import type { H3Event } from 'h3'
-import { eq } from 'drizzle-orm'
 import { getServerSession } from '#auth'
 import { type Role, roleAllows } from '../../shared/roles'
-import { users } from '../db/schema'
 
 export interface SessionUser {
   id: number
@@ -12,29 +10,25 @@ export interface SessionUser {
 }
 
 /**
- * The signed-in user, read fresh from the database on every request so that a
- * deactivation or a role change takes effect at once, whatever the session token says.
+ * The signed-in user as the session holds it. The session callback
+ * (server/api/auth/[...].ts) reads the account fresh from the database on every
+ * request and drops the user of a deactivated account, so a deactivation or a role
+ * change takes effect at once, whatever the session token says.
  * 401 without a valid session, 403 when the role is not in `allowed` (empty: any role).
  */
 export async function requireRole(event: H3Event, allowed: readonly Role[] = []): Promise<SessionUser> {
   const session = await getServerSession(event)
-  const userId = Number((session?.user as { id?: unknown } | undefined)?.id)
-  if (!Number.isInteger(userId) || userId <= 0) {
+  const user = session?.user as { id?: unknown; email?: string; name?: string; role?: Role } | undefined
+  const id = Number(user?.id)
+  if (!user || !Number.isInteger(id) || id <= 0 || !user.role) {
     throw createError({ statusCode: 401, statusMessage: 'Sign in required' })
   }
-  const [row] = await useDb()
-    .select({ id: users.id, email: users.email, displayName: users.displayName, role: users.role, active: users.active })
-    .from(users)
-    .where(eq(users.id, userId))
-  if (!row || !row.active) {
-    throw createError({ statusCode: 401, statusMessage: 'This account is no longer active' })
-  }
-  if (!roleAllows(row.role, allowed)) {
+  if (!roleAllows(user.role, allowed)) {
     throw createError({
       statusCode: 403,
       statusMessage: 'Not allowed for your role',
-      data: { role: row.role, allowedRoles: allowed },
+      data: { role: user.role, allowedRoles: allowed },
     })
   }
-  return { id: row.id, email: row.email, displayName: row.displayName, role: row.role }
+  return { id, email: user.email as string, displayName: user.name as string, role: user.role }
 }

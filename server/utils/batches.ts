@@ -15,7 +15,7 @@ import {
   stateByClock,
   type BatchState,
   type ShopSettings,
-  type SlotDurations,
+  type Slots,
 } from '../../shared/schedule'
 import type { bookingInputSchema } from '../../shared/schemas/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
@@ -52,27 +52,21 @@ function quenchDelayAllowance(spec: unknown, settings: ShopSettings): number {
   return typeof value === 'number' && value >= 0 ? value : settings.quenchDelayAllowance_s
 }
 
-function durationsOf(row: BatchRow): SlotDurations {
-  return {
-    furnace_s: row.furnace_s,
-    furnaceIsDefault: row.furnaceIsDefault,
-    minimumSoak_s: row.minimumSoak_s,
-    transfer_s: row.transfer_s,
-    quench_s: row.quench_s,
-    quenchToHandling_s: row.quenchToHandling_s,
-  }
-}
-
 const ms = (date: Date | null) => (date ? date.getTime() : null)
 
-export function toBatchView(row: BatchRow, settings: ShopSettings, now = Date.now()): BatchView {
-  const slots = {
+/** A row's stored slots as instants (ms). */
+function slotsOf(row: BatchRow): Slots {
+  return {
     furnaceStart: row.furnaceStart.getTime(),
     furnaceEnd: row.furnaceEnd.getTime(),
     quenchStart: row.quenchStart.getTime(),
     quenchEnd: row.quenchEnd.getTime(),
     handlingAt: row.handlingAt.getTime(),
   }
+}
+
+function toBatchView(row: BatchRow, settings: ShopSettings, now = Date.now()): BatchView {
+  const slots = slotsOf(row)
   const state = stateByClock(row.state, slots, now)
   return {
     id: row.id,
@@ -266,13 +260,13 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
       }
 
       const at = new Date(now)
-      const actual = { chargedAt: ms(row!.chargedAt), soakingAt: ms(row!.soakingAt), quenchedAt: ms(row!.quenchedAt) }
       const recorded: Partial<BatchRow> = { state: to }
       if (to === 'charged') recorded.chargedAt = at
       if (to === 'soaking') recorded.soakingAt = at
       if (to === 'quenched') recorded.quenchedAt = at
-      Object.assign(actual, { chargedAt: ms(recorded.chargedAt ?? row!.chargedAt), soakingAt: ms(recorded.soakingAt ?? row!.soakingAt), quenchedAt: ms(recorded.quenchedAt ?? row!.quenchedAt) })
-      const slots = deriveSlots(row!.plannedCharge.getTime(), durationsOf(row!), actual)
+      const actual = { chargedAt: ms(recorded.chargedAt ?? row!.chargedAt), soakingAt: ms(recorded.soakingAt ?? row!.soakingAt), quenchedAt: ms(recorded.quenchedAt ?? row!.quenchedAt) }
+      // A batch row carries its booked SlotDurations fields.
+      const slots = deriveSlots(row!.plannedCharge.getTime(), row!, actual)
       const values = {
         ...recorded,
         furnaceStart: new Date(slots.furnaceStart),
@@ -324,7 +318,7 @@ async function releaseRecord(tx: Transaction, id: number, actor: Pick<SessionUse
 async function reflagConflicts(tx: Transaction, row: BatchRow, withdrawn: boolean): Promise<string[]> {
   await tx.update(batches).set({ conflictWith: null, conflictNote: null }).where(eq(batches.conflictWith, row.loadNumber))
   if (withdrawn) return []
-  const slots = { furnaceStart: row.furnaceStart.getTime(), furnaceEnd: row.furnaceEnd.getTime(), quenchStart: row.quenchStart.getTime(), quenchEnd: row.quenchEnd.getTime(), handlingAt: row.handlingAt.getTime() }
+  const slots = slotsOf(row)
   const hit = await collisions(tx, row.furnaceId, row.stationId, slots, row.id)
   const later = new Map<number, { loadNumber: string; note: string }>()
   const until = (t: number) => new Date(t).toISOString().slice(0, 16).replace('T', ' ') + ' UTC'

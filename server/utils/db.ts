@@ -9,9 +9,4 @@ export function useDb(): Database {
   return instance.db
 }
 
-export function useDbPool() {
-  instance ??= createDatabase()
-  return instance.pool
-}
-
 export { tables }

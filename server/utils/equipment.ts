@@ -5,14 +5,10 @@ import type { furnaceInputSchema, stationInputSchema } from '../../shared/schema
 import type { Furnace, QuenchStation } from '../../shared/types/schedule'
 import type { Transaction } from '../db/client'
 import { recordAudit } from './audit'
+import { isDuplicateKey } from './dbErrors'
 
 type FurnaceData = z.output<typeof furnaceInputSchema>
 type StationData = z.output<typeof stationInputSchema>
-
-function duplicateName(error: unknown): boolean {
-  const cause = (error as { cause?: { code?: string } })?.cause ?? error
-  return (cause as { code?: string })?.code === 'ER_DUP_ENTRY'
-}
 
 function nameTaken(): never {
   throw createError({ statusCode: 409, statusMessage: 'Name already in use', data: { problems: [{ field: 'name', message: 'Another one already has this name' }] } })
@@ -64,7 +60,7 @@ export async function saveFurnace(id: number | null, input: Partial<FurnaceData>
     })
     return (await listFurnaces()).find((furnace) => furnace.id === savedId)!
   } catch (error) {
-    if (duplicateName(error)) nameTaken()
+    if (isDuplicateKey(error)) nameTaken()
     throw error
   }
 }
@@ -86,7 +82,7 @@ export async function saveStation(id: number | null, input: Partial<StationData>
     })
     return (await listStations()).find((station) => station.id === savedId)!
   } catch (error) {
-    if (duplicateName(error)) nameTaken()
+    if (isDuplicateKey(error)) nameTaken()
     throw error
   }
 }

@@ -6,7 +6,7 @@ import type { Database, Transaction } from '../db/client'
 import type { materials, quenchants } from '../db/schema'
 import { recordAudit } from './audit'
 import { isDuplicateKey } from './dbErrors'
-import { fieldProblems } from './validation'
+import { invalidRequest } from './validation'
 
 /** The `[id]` of a library route. */
 export const libraryIdParams = z.object({
@@ -41,16 +41,6 @@ async function withUniqueName<T>(what: string, work: () => Promise<T>): Promise<
   }
 }
 
-/** A patch that is valid field by field but not once merged with the stored record (e.g. low above typical). */
-function mergedRecordInvalid(error: z.ZodError): never {
-  const problems = fieldProblems(error)
-  throw createError({
-    statusCode: 400,
-    statusMessage: 'Invalid request body',
-    message: problems[0] ? `${problems[0].field}: ${problems[0].message}` : 'Invalid request body',
-    data: { problems },
-  })
-}
 
 /** What the library store reads of a row besides the entry's own fields. */
 interface Stamped {
@@ -117,7 +107,8 @@ export function libraryStore<V extends Record<string, unknown>>({ table, entity,
           if (!before) throw notFound()
           const current = valuesOf(before as V)
           const merged = schema.safeParse({ ...current, ...patch })
-          if (!merged.success) mergedRecordInvalid(merged.error)
+          // Valid field by field but not once merged with the stored record (e.g. low above typical).
+          if (!merged.success) invalidRequest(merged.error, 'request body')
           const changes = changedFields(current, merged.data, fields)
           if (Object.keys(changes).length === 0) return toEntry(before)
           const set = Object.fromEntries(Object.keys(changes).map((key) => [key, merged.data[key as keyof V]]))

@@ -7,7 +7,6 @@
  * same answer for an unknown address, a wrong password and an inactive account.
  */
 import { eq, sql } from 'drizzle-orm'
-import type { Database } from '../db/client'
 import { signInFailures } from '../db/schema'
 
 const FREE_ATTEMPTS = 3
@@ -22,20 +21,21 @@ export function throttleDelayMs(count: number, lastAt: Date, now: Date): number 
   return extra < 0 ? 0 : Math.min(MAX_DELAY_MS, BASE_DELAY_MS * 2 ** extra)
 }
 
-export async function signInDelayMs(email: string, db: Database = useDb(), now = new Date()): Promise<number> {
-  const [entry] = await db.select().from(signInFailures).where(eq(signInFailures.email, email))
-  return entry ? throttleDelayMs(entry.count, entry.lastAt, now) : 0
+export async function signInDelayMs(email: string): Promise<number> {
+  const [entry] = await useDb().select().from(signInFailures).where(eq(signInFailures.email, email))
+  return entry ? throttleDelayMs(entry.count, entry.lastAt, new Date()) : 0
 }
 
-export async function noteSignInFailure(email: string, db: Database = useDb(), now = new Date()): Promise<void> {
+export async function noteSignInFailure(email: string): Promise<void> {
+  const now = new Date()
   const forgotten = new Date(now.getTime() - FORGET_AFTER_MS)
   // MariaDB applies the assignments in order, so the count still sees the old last_at.
-  await db
+  await useDb()
     .insert(signInFailures)
     .values({ email, count: 1, lastAt: now })
     .onDuplicateKeyUpdate({ set: { count: sql`IF(${signInFailures.lastAt} < ${forgotten}, 1, ${signInFailures.count} + 1)`, lastAt: now } })
 }
 
-export async function clearSignInFailures(email: string, db: Database = useDb()): Promise<void> {
-  await db.delete(signInFailures).where(eq(signInFailures.email, email))
+export async function clearSignInFailures(email: string): Promise<void> {
+  await useDb().delete(signInFailures).where(eq(signInFailures.email, email))
 }

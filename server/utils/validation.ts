@@ -14,7 +14,8 @@ export function fieldProblems(error: z.ZodError): FieldProblem[] {
   }))
 }
 
-function invalid(error: z.ZodError, where: string): never {
+/** A 400 naming every field zod refused; `where` is what was invalid ("request body", "query"…). */
+export function invalidRequest(error: z.ZodError, where: string): never {
   const problems = fieldProblems(error)
   const first = problems[0]
   throw createError({
@@ -29,15 +30,15 @@ function invalid(error: z.ZodError, where: string): never {
 export async function readValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
   const body = await readBody(event)
   const parsed = schema.safeParse(body ?? {})
-  return parsed.success ? parsed.data : invalid(parsed.error, 'request body')
+  return parsed.success ? parsed.data : invalidRequest(parsed.error, 'request body')
 }
 
 export async function paramsValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
   const parsed = schema.safeParse(getRouterParams(event))
-  return parsed.success ? parsed.data : invalid(parsed.error, 'path parameter')
+  return parsed.success ? parsed.data : invalidRequest(parsed.error, 'path parameter')
 }
 
 export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
   const parsed = schema.safeParse(getQuery(event))
-  return parsed.success ? parsed.data : invalid(parsed.error, 'query')
+  return parsed.success ? parsed.data : invalidRequest(parsed.error, 'query')
 }

@@ -40,10 +40,7 @@ export default NuxtAuthHandler({
   ],
   callbacks: {
     jwt({ token, user }) {
-      if (user) {
-        token.uid = Number(user.id)
-        token.role = (user as { role?: string }).role
-      }
+      if (user) token.uid = Number(user.id)
       return token
     },
     async session({ session, token }) {

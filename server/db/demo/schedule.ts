@@ -117,7 +117,7 @@ const LATE_QUENCH_S = 150
 async function followPlan(db: Database, id: number, now: number, operatorId: number, lateQuench_s: number): Promise<BatchState> {
   const [row] = await db.select().from(batches).where(eq(batches.id, id))
   if (!row || row.furnaceStart.getTime() > now) return 'planned'
-  const plan = deriveSlots(row.plannedCharge.getTime(), { ...row, minimumSoak_s: row.minimumSoak_s })
+  const plan = deriveSlots(row.plannedCharge.getTime(), row)
   const heatUp_s = row.minimumSoak_s === null ? row.furnace_s / 2 : row.furnace_s - row.minimumSoak_s
   const late = lateQuench_s * 1000
   const steps: [BatchState, BatchState, number, number | null][] = [
