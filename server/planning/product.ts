@@ -15,6 +15,7 @@
  * integral factorises).
  */
 import { CaseError, caseToProblem, parseCase } from '../thermal/caseSchema'
+import { CURVE_POINTS, curveTimes } from '../thermal/runCase'
 import { solveCooldown, type CooldownSolution } from '../thermal/solveCooldown'
 import { brent } from '../thermal/roots'
 import { solveCrankNicolson } from '../thermal/crankNicolson'
@@ -39,7 +40,6 @@ export interface ModelRun {
   series: PointStage[]
 }
 
-const CURVE_POINTS = 600
 const PROFILE_X = Array.from({ length: 21 }, (_, i) => i / 20)
 /** The shipped series is trimmed for size; it stays within 0.05 K from this fraction into each stage's span on (checked against the curve in tests). */
 export const PRODUCT_SERIES_FROM = 0.001
@@ -110,19 +110,22 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
 
   const n = input.body.directions.length
   const { ambient_C, theta0, factor } = factors
-  const productAt = (point: 'centre' | 'mean', t: number) => ambient_C + theta0 * Array.from({ length: n }, (_, d) => factor(d, point, t)).reduce((a, b) => a * b, 1)
+  const productOf = (factorsAt: number[]) => ambient_C + theta0 * factorsAt.reduce((a, b) => a * b, 1)
+  const factorsAt = (point: 'centre' | 'mean' | 'surface', t: number) => Array.from({ length: n }, (_, d) => factor(d, point, t))
   // "Surface" of a block or short cylinder: the face centre farthest from the ambient (hottest when cooling).
-  const surfaceAt = (t: number) => {
+  const surfaceFrom = (centres: number[], t: number) => {
     let best = 0
     for (let d = 0; d < n; d++) {
       let f = factor(d, 'surface', t)
-      for (let e = 0; e < n; e++) if (e !== d) f *= factor(e, 'centre', t)
+      for (let e = 0; e < n; e++) if (e !== d) f *= centres[e]!
       if (Math.abs(f) > Math.abs(best)) best = f
     }
     return ambient_C + theta0 * best
   }
   const starts = stageStarts(input)
-  const tCurve = [...new Set([...Array.from({ length: CURVE_POINTS + 1 }, (_, i) => (end_s * i) / CURVE_POINTS), ...starts.slice(1).filter((s) => s < end_s), targetTime])].sort((a, b) => a - b)
+  const tCurve = curveTimes(end_s, [...starts.slice(1).filter((s) => s < end_s), targetTime])
+  // Each direction's centre factor once per curve time: the centre and the surface curves both use it.
+  const centres = tCurve.map((t) => factorsAt('centre', t))
   // The profile runs from the centre to the nearest face centre, along the shortest direction.
   const along = sizes.indexOf(shortest)
   const profileAt = (t: number) =>
@@ -134,7 +137,12 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
   const times = options.times_s ?? []
   return {
     targetTime_s: targetTime,
-    curve: { t_s: tCurve, centre_C: tCurve.map((t) => productAt('centre', t)), surface_C: tCurve.map(surfaceAt), mean_C: tCurve.map((t) => productAt('mean', t)) },
+    curve: {
+      t_s: tCurve,
+      centre_C: centres.map(productOf),
+      surface_C: tCurve.map((t, i) => surfaceFrom(centres[i]!, t)),
+      mean_C: tCurve.map((t) => productOf(factorsAt('mean', t))),
+    },
     profiles: { x: PROFILE_X, t_s: times, T_C: times.map(profileAt) },
     stages: input.stages.map((_, s) => {
       const summaries = factors.solutions.map((sol) => sol.summaries[s]!)

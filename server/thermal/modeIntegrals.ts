@@ -13,11 +13,11 @@
  *
  * Composite 8-point Gauss–Legendre, split at every property breakpoint, panels no wider
  * than min(1/16, 1.5/λ) for the fastest mode involved (λ² = μ max c/k), as the
- * quadrature projection in series.ts uses; one rule per panel count and body.
+ * quadrature projection in series.ts uses (properties.ts weightedRule); one rule per panel count and body.
  */
 import type { Mode } from './modeFamily'
-import { breakpointsOf, propertiesAt, type ScaledDomain } from './properties'
-import { compositeRule, type QuadratureRule } from './quadrature'
+import { maxCapacityRatio, weightedRule, type ScaledDomain } from './properties'
+import type { QuadratureRule } from './quadrature'
 
 export interface ModeIntegrals {
   mass: number
@@ -36,13 +36,12 @@ const rules = new WeakMap<ScaledDomain, Map<number, QuadratureRule>>()
  * of 8 so that neighbouring modes and pairs share one rule.
  */
 function ruleFor(domain: ScaledDomain, rate: number): QuadratureRule {
-  const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
-  const panels = 8 * Math.ceil(Math.max(16, Math.sqrt(rate * maxRatio) / 1.5) / 8)
+  const panels = 8 * Math.ceil(Math.max(16, Math.sqrt(rate * maxCapacityRatio(domain.pieces)) / 1.5) / 8)
   let byPanels = rules.get(domain)
   if (!byPanels) rules.set(domain, (byPanels = new Map()))
   let rule = byPanels.get(panels)
   if (!rule) {
-    rule = compositeRule(breakpointsOf(domain.pieces), 1 / panels, (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m))
+    rule = weightedRule(domain, 1 / panels)
     byPanels.set(panels, rule)
   }
   return rule

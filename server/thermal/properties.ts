@@ -6,6 +6,7 @@
  * coefficients whatever the material: a dimensionless decay rate μ̂ is
  * μ̂ / timeScale_s in 1/s, and a Biot number is h L / k_ref.
  */
+import { compositeRule, type QuadratureRule } from './quadrature'
 import type { ConductionDomain, PropertyPoint } from './types'
 import { GEOMETRY_EXPONENT } from './types'
 
@@ -101,4 +102,19 @@ export function resistanceTo(pieces: PropertyPiece[], x: number): number {
 /** All x where a property table has a kink or a jump (for quadrature panels). */
 export function breakpointsOf(pieces: PropertyPiece[]): number[] {
   return pieces.map((p) => p.x0)
+}
+
+/** The largest c/k at any piece end: a mode of rate μ oscillates at most like λ = √(μ max c/k). */
+export function maxCapacityRatio(pieces: PropertyPiece[]): number {
+  let ratio = 0
+  for (const p of pieces) ratio = Math.max(ratio, p.c0 / p.k0, p.c1 / p.k1)
+  return ratio
+}
+
+/**
+ * Composite Gauss–Legendre on the body with the eigenproblem's weight w = c(x) x^m,
+ * split at every property breakpoint (and at `extraBreakpoints`), panels no wider than `maxWidth`.
+ */
+export function weightedRule(domain: ScaledDomain, maxWidth: number, extraBreakpoints: number[] = []): QuadratureRule {
+  return compositeRule([...breakpointsOf(domain.pieces), ...extraBreakpoints], maxWidth, (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m))
 }

@@ -27,7 +27,8 @@ export interface CaseResult {
   check?: { maxDifference_K: number; times_s: number[]; points: number[] }
 }
 
-const CURVE_POINTS = 600
+/** Equal steps of a result curve (plus its exact moments). */
+export const CURVE_POINTS = 600
 const PROFILE_POINTS = 21
 
 export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResult {
@@ -49,14 +50,15 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     })
   // A cheap first pass (accurate from Fo = 0.05 on) finds the target and hence the
   // curve's end and spacing; the second pass is accurate from the first curve sample.
-  let solution = solveWith(firstGuess(problem, c))
+  const cheapFrom_s = firstGuess(problem, c)
+  let solution = solveWith(cheapFrom_s)
   let targetTime = target ? solution.targetTime(at, target) : null
-  let end_s = curveEnd(solution, c, targetTime)
+  let end_s = curveEnd(solution, c, starts, targetTime)
   const spacing = end_s / CURVE_POINTS
-  if (spacing < firstGuess(problem, c) || times.some((t) => t > 0 && t < firstGuess(problem, c))) {
+  if (spacing < cheapFrom_s || times.some((t) => t > 0 && t < cheapFrom_s)) {
     solution = solveWith(spacing)
     targetTime = target ? solution.targetTime(at, target) : null
-    end_s = curveEnd(solution, c, targetTime)
+    end_s = curveEnd(solution, c, starts, targetTime)
   }
   if (target && targetTime === null) unreachable(solution, at, c)
 
@@ -106,11 +108,6 @@ function firstGuess(problem: ReturnType<typeof caseToProblem>, c: Case): number 
 }
 
 /**
- * Past the target (×1.25), the requested times and every finite stage; without a
- * target, until the centre is within 1 K of the last stage's steady value or five
- * of its slowest time constants, whichever comes first.
- */
-/**
  * The curve's sample times: CURVE_POINTS equal steps from 0 to end_s, plus the
  * moments the curve must show exactly (stage starts, the target time). A grid time
  * within rounding of one of those gives way to it, so no two samples sit a
@@ -122,8 +119,12 @@ export function curveTimes(end_s: number, exact: number[]): number[] {
   return [...new Set([...grid, ...exact])].sort((a, b) => a - b)
 }
 
-function curveEnd(solution: CooldownSolution, c: Case, targetTime: number | null): number {
-  const starts = stageStarts(c)
+/**
+ * Past the target (×1.25), the requested times and every finite stage; without a
+ * target, until the centre is within 1 K of the last stage's steady value or five
+ * of its slowest time constants, whichever comes first.
+ */
+function curveEnd(solution: CooldownSolution, c: Case, starts: number[], targetTime: number | null): number {
   const lastStart = starts[starts.length - 1]
   const lastDuration = c.stages[c.stages.length - 1].duration_s ?? 0
   const candidates = [lastStart + lastDuration, ...(c.times_s ?? [])]

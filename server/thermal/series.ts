@@ -17,10 +17,8 @@
  * the rest).
  */
 import type { Mode, ModeFamily } from './modeFamily'
-import type { ScaledDomain } from './properties'
-import { breakpointsOf, propertiesAt } from './properties'
+import { maxCapacityRatio, weightedRule, type ScaledDomain } from './properties'
 import { heatCapacity, modeIntegrals, modeOverlap } from './modeIntegrals'
-import { compositeRule } from './quadrature'
 import { uniformInitialCoefficient, uniformMass, uniformNorm, uniformOverlap, type SurfaceValues } from './eigenRoots'
 import type { Geometry } from './types'
 
@@ -219,13 +217,8 @@ function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: num
 function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection {
   const { domain } = input
   const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
-  const maxRatio = Math.max(...domain.pieces.flatMap((p) => [p.c0 / p.k0, p.c1 / p.k1]))
-  const lamMax = Math.sqrt(modes[modes.length - 1].rate * maxRatio)
-  const rule = compositeRule(
-    [...breakpointsOf(domain.pieces), ...input.breakpoints],
-    Math.min(1 / 16, 1.5 / lamMax),
-    (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
-  )
+  const lamMax = Math.sqrt(modes[modes.length - 1].rate * maxCapacityRatio(domain.pieces))
+  const rule = weightedRule(domain, Math.min(1 / 16, 1.5 / lamMax), input.breakpoints)
   const nodes = rule.x.length
   const excess = new Float64Array(nodes)
   let totalWeight = 0

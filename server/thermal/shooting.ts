@@ -80,15 +80,14 @@ interface Shot {
   theta: number
   /** dθ(1)/dμ = ∫ x^m c f² dx / (f(1)² + p(1)²), from the Wronskian of (f, p) and (∂f/∂μ, ∂p/∂μ). */
   dThetaDmu: number
+  /** Dense output of a shape shot: (f, p, ∫ x^m c f², ∂f/∂μ, ∂p/∂μ); empty otherwise. */
   segments: DenseSegment[]
   /** Start of the integration (> 0 for rod/sphere with a symmetric centre). */
   xStart: number
   /** Power-series coefficients of f on 0 ≤ x ≤ xStart (empty when xStart = 0). */
   centre: Float64Array
-  /** Their derivatives in μ (with `sensitivity`). */
+  /** Their derivatives in μ (shape shots only). */
   centreDmu: Float64Array
-  /** Dense output also carries ∂f/∂μ and ∂p/∂μ (components 3 and 4). */
-  sensitivity: boolean
 }
 
 /**
@@ -152,17 +151,17 @@ function centreSeries(
 }
 
 /**
- * Integrates the shooting system for decay rate mu; θ(1), dθ(1)/dμ and optionally
- * dense output, with the sensitivities ∂f/∂μ, ∂p/∂μ when `sensitivity` is set:
+ * Integrates the shooting system for decay rate mu; θ(1), dθ(1)/dμ and, for a shape
+ * shot (`shape`), dense output carrying the sensitivities ∂f/∂μ, ∂p/∂μ:
  *     (∂f/∂μ)′ = (∂p/∂μ)/(x^m k),   (∂p/∂μ)′ = −x^m c (f + μ ∂f/∂μ),
  * which let a shape shot at μ be moved to a Newton-corrected μ + δ to O(δ²).
  */
-export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, dense = false, sensitivity = false): Shot {
+export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, shape = false): Shot {
   const { m, pieces } = spec
   const first = pieces[0]
   let x = 0
   // (f, p, ∫ x^m c f² dx[, ∂f/∂μ, ∂p/∂μ]); the start values below do not depend on μ except at a centre.
-  const y = new Float64Array(sensitivity ? 5 : 3)
+  const y = new Float64Array(shape ? 5 : 3)
   let centre: Float64Array = new Float64Array(0)
   let centreDmu: Float64Array = new Float64Array(0)
   if (spec.innerBiot === Infinity) {
@@ -177,7 +176,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
     y[1] = start.p
     y[2] = start.energy
     centre = start.a
-    if (sensitivity) {
+    if (shape) {
       y[3] = start.fMu
       y[4] = start.pMu
       centreDmu = start.da
@@ -212,7 +211,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
       ds[0] = s[1] / (xm * k)
       ds[1] = -mu * wc * s[0]
       ds[2] = wc * s[0] * s[0]
-      if (sensitivity) {
+      if (shape) {
         ds[3] = s[4] / (xm * k)
         ds[4] = -wc * (s[0] + mu * s[3])
       }
@@ -221,14 +220,14 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
     const omega = Math.sqrt(mu * Math.max(piece.c0 / piece.k0, piece.c1 / piece.k1))
     const hmax = omega > 0 ? 1 / omega : undefined
     const from = Math.max(x, piece.x0)
-    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense, onStep, peak, errorComponents: 3 })
+    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense: shape, onStep, peak, errorComponents: 3 })
     state = result.y
     h = result.h
     x = piece.x1
-    if (dense) segments.push(...result.segments)
+    if (shape) segments.push(...result.segments)
   }
   const r2 = state[0] * state[0] + state[1] * state[1]
-  return { theta, dThetaDmu: state[2] / r2, segments, xStart, centre, centreDmu, sensitivity }
+  return { theta, dThetaDmu: state[2] / r2, segments, xStart, centre, centreDmu }
 }
 
 /**
@@ -251,7 +250,7 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
     let fine = false
     for (let shots = 0; shots < MAX_SHOTS; shots++) {
       // Fine shots are usually the last: they keep dense output and the μ-sensitivities.
-      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine, fine)
+      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine)
       // The same Sturm condition in the scaled angle φ = atan2(s f, p), s = λ√(c/k) at
       // the surface: θ ↦ φ is increasing and fixes every multiple of π/2, so φ(1) − (jπ −
       // atan(s/Bi₁)) has the sign of θ(1) − (jπ − atan(1/Bi₁)), but φ(1) is nearly affine
@@ -293,7 +292,6 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
 function shapeOf(shot: Shot, delta: number): (x: number) => number {
   const { segments, xStart } = shot
   const centre = shot.centre.map((a, j) => a + delta * shot.centreDmu[j])
-  const n = shot.sensitivity ? 5 : 3
   const starts = segments.map((s) => s.x0)
   let last = 0
   return (x: number): number => {
@@ -319,6 +317,6 @@ function shapeOf(shot: Shot, delta: number): (x: number) => number {
       last = lo
     }
     const at = Math.min(x, segments[lo].x0 + segments[lo].h)
-    return denseValue(segments[lo], n, 0, at) + (shot.sensitivity ? delta * denseValue(segments[lo], n, 3, at) : 0)
+    return denseValue(segments[lo], 5, 0, at) + delta * denseValue(segments[lo], 5, 3, at)
   }
 }

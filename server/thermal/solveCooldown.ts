@@ -9,9 +9,7 @@
 import { modeFamily } from './modeFamily'
 import type { PointStage } from '../../shared/pointSeries'
 import { pointValue } from '../../shared/pointSeries'
-import { breakpointsOf, propertiesAt, scaleDomain, type ScaledDomain } from './properties'
-import { compositeRule } from './quadrature'
-import type { SurfaceValues } from './eigenRoots'
+import { scaleDomain, weightedRule, type ScaledDomain } from './properties'
 import { buildStageSeries, seriesValue, truncationTolerance, type ModalStart, type StageSeries } from './series'
 import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
@@ -99,11 +97,11 @@ export function profileAt(points: TemperaturePoint[], x: number): number {
 export function solveCooldown(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
   const accuracy = options.accuracy_K
   if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
-  return solveUniformSymmetric(problem, options, MAX_MODES_ANALYTIC) ?? solveBySeries(problem, options)
+  const domain = scaleDomain(problem.domain)
+  return solveUniformSymmetric(problem, domain, options, MAX_MODES_ANALYTIC) ?? solveBySeries(problem, domain, options)
 }
 
-function solveBySeries(problem: CooldownProblem, options: SolveOptions): CooldownSolution {
-  const domain = scaleDomain(problem.domain)
+function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: SolveOptions): CooldownSolution {
   const geometry = problem.domain.geometry
   const initial = problem.initial
   const initialAt = typeof initial === 'number' ? () => initial : (x: number) => profileAt(initial, x)
@@ -182,9 +180,7 @@ function solveBySeries(problem: CooldownProblem, options: SolveOptions): Cooldow
   // The first stage's series at τ = 0 is not converged; average the start profile directly.
   const initialMean = (() => {
     if (typeof initial === 'number') return initial
-    const rule = compositeRule([...breakpointsOf(domain.pieces), ...initial.map((p) => p.x)], 1 / 32, (x) =>
-      propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m),
-    )
+    const rule = weightedRule(domain, 1 / 32, initial.map((p) => p.x))
     let num = 0
     let den = 0
     rule.x.forEach((x, i) => {

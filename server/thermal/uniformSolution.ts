@@ -22,7 +22,7 @@
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
 import { massOf, normOf, overlapOf, surfaceValues, uniformShape } from './eigenRoots'
-import { scaleDomain, type ScaledDomain } from './properties'
+import type { ScaledDomain } from './properties'
 import { firstModeGuess, modesToCompute, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { CooldownProblem, Geometry } from './types'
@@ -33,11 +33,9 @@ import type { CooldownSolution, PointRef, SolveOptions, StageSummary } from './s
  * a uniform start with 0 < Bi ≤ ∞ in every stage (the general path then solves it).
  * options.accuracy_K must already have been checked.
  */
-export function solveUniformSymmetric(problem: CooldownProblem, options: SolveOptions, maxModes: number): CooldownSolution | null {
+export function solveUniformSymmetric(problem: CooldownProblem, domain: ScaledDomain, options: SolveOptions, maxModes: number): CooldownSolution | null {
   const initial = problem.initial
-  if (typeof initial !== 'number') return null
-  const domain = scaleDomain(problem.domain)
-  if (!domain.uniform) return null
+  if (typeof initial !== 'number' || !domain.uniform) return null
   const stages = problem.stages
   const biots: number[] = []
   for (let i = 0; i < stages.length; i++) {

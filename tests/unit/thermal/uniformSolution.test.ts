@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
 import { runCase } from '../../../server/thermal/runCase'
+import { scaleDomain } from '../../../server/thermal/properties'
 import { solveCooldown, type PointRef, type SolveOptions } from '../../../server/thermal/solveCooldown'
 import { solveUniformSymmetric } from '../../../server/thermal/uniformSolution'
 import type { TargetSpec } from '../../../server/thermal/targetTime'
@@ -89,13 +90,13 @@ function readings(problem: CooldownProblem, options: SolveOptions, solve: typeof
 describe('uniform symmetric fast path', () => {
   it.each(geometries.flatMap((g) => biots.map((bi) => [g, bi] as const)))('%s, Bi = %f: one stage equals the general path to 1e-9 K', (g, bi) => {
     const problem = oneStage(g, bi)
-    expect(solveUniformSymmetric(problem, {}, 400)).not.toBeNull()
+    expect(solveUniformSymmetric(problem, scaleDomain(problem.domain), {}, 400)).not.toBeNull()
     for (const options of optionSets.slice(0, 3)) expectSame(readings(problem, options, solveCooldown), readings(problem, options, general.solveCooldown))
   })
 
   it.each(geometries.flatMap((g) => biots.map((bi) => [g, bi] as const)))('%s, first Bi = %f: four stages equal the general path to 1e-9 K', (g, bi) => {
     const problem = multiStage(g, bi)
-    expect(solveUniformSymmetric(problem, {}, 400)).not.toBeNull()
+    expect(solveUniformSymmetric(problem, scaleDomain(problem.domain), {}, 400)).not.toBeNull()
     for (const options of optionSets) expectSame(readings(problem, options, solveCooldown), readings(problem, options, general.solveCooldown))
   })
 
@@ -105,7 +106,7 @@ describe('uniform symmetric fast path', () => {
     const profile = { ...oneStage('slab', 1), initial: [{ x: 0, T_C: 850 }, { x: 1, T_C: 800 }] }
     const face = uniformProblem('slab', L, K, RHOCP, 850, [{ inner: fixed(20), outer: convective(500, 20) }])
     const still = uniformProblem('sphere', L, K, RHOCP, 850, [{ outer: convective(0, 20) }])
-    for (const problem of [graded, profile, face, still]) expect(solveUniformSymmetric(problem, {}, 400)).toBeNull()
+    for (const problem of [graded, profile, face, still]) expect(solveUniformSymmetric(problem, scaleDomain(problem.domain), {}, 400)).toBeNull()
   })
 
   it.each([
