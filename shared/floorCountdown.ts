@@ -31,7 +31,13 @@ export interface CountdownView {
   flags: BatchFlags
 }
 
-export function floorCountdown(b: CountdownInput, now: number, temperWithin_s: number): CountdownView {
+/** `formatTemperature` writes a °C value in the reader's unit for the captions. */
+export function floorCountdown(
+  b: CountdownInput,
+  now: number,
+  temperWithin_s: number,
+  formatTemperature: (value_C: number) => string = (value_C) => `${value_C} °C`,
+): CountdownView {
   const state = stateByClock(b.state, b, now)
   const slots = { furnaceStart: b.furnaceStart, furnaceEnd: b.furnaceEnd, quenchStart: b.quenchedAt ?? b.furnaceEnd, quenchEnd: b.quenchEnd, handlingAt: b.handlingAt }
   const flags = batchFlags(state, slots, now, b.quenchDelayAllowance_s, temperWithin_s)
@@ -52,7 +58,7 @@ export function floorCountdown(b: CountdownInput, now: number, temperWithin_s: n
     case 'quenched':
     case 'cooling':
       seconds = until(b.handlingAt)
-      caption = seconds > 0 ? `until the core is below ${b.summary.handling_C} °C` : `Core below ${b.summary.handling_C} °C: lift out when the bath stage ends`
+      caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the bath stage ends`
       if (b.quenchedAt !== null) coreNow_C = pointValue(b.summary.handlingPointSeries, (now - b.quenchedAt) / 1000)
       break
     case 'ready':

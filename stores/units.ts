@@ -72,6 +72,8 @@ export const useUnitsStore = defineStore('units', () => {
     temperatureForEditing,
     temperatureFromEditing,
     showTemperature: (value_C: number) => temperatureFromC(value_C, temperature.value),
+    /** A temperature as text in the user's unit, to `digits` decimals at most: "100 °C", "212 °F". */
+    formatTemperature: (value_C: number, digits = 1) => `${Number(temperatureFromC(value_C, temperature.value).toFixed(digits))} ${TEMPERATURE_LABEL[temperature.value]}`,
     readTemperature: (value: number) => temperatureToC(value, temperature.value),
     showTemperatureDifference: (value_K: number) => temperatureDifferenceFromK(value_K, temperature.value),
     showLength: (value_m: number) => lengthFromM(value_m, length.value),

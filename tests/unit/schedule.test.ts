@@ -167,6 +167,12 @@ describe('floor countdown', () => {
     expect(later.coreNow_C).toBeCloseTo(pointValue(pin.handlingPointSeries, 60), 9)
     expect(later.seconds).toBeCloseTo(pin.quenchToHandling_s - 60, 2)
   })
+  it("the caption names the handling temperature in the reader's unit (°F by definition: 100 °C = 212 °F)", () => {
+    expect(floorCountdown(batch, quenchedAt, 7200).caption).toBe(`until the core is below ${pin.handling_C} °C`)
+    const fahrenheit = (c: number) => `${(c * 9) / 5 + 32} °F`
+    expect(pin.handling_C).toBe(100)
+    expect(floorCountdown(batch, quenchedAt, 7200, fahrenheit).caption).toBe('until the core is below 212 °F')
+  })
   it('at zero the core is at 100 °C; this plan keeps the load in the bath until its 180 s stage ends, then it is safe to handle', () => {
     const atZero = floorCountdown(batch, slots.handlingAt, 7200)
     expect(atZero.reached).toBe(true)
