@@ -132,7 +132,7 @@ export async function createPlan(spec: PlanSpec, actorId: number, note: string |
 }
 
 async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}, db: Database = useDb()): Promise<PlanDetail> {
-  const id = await db.transaction(async (tx) => {
+  const { id, result } = await db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(plans).values({ name: resolved.name, latestRevision: 1, createdBy: actorId }).$returningId()
     const result = await insertRevision(tx, id, 1, resolved, note, actorId)
     await recordAudit(tx, {
@@ -142,15 +142,16 @@ async function createFromResolved(resolved: ResolvedPlan, actorId: number, note:
       entityId: id,
       details: { name: resolved.name, revision: 1, quenchToHandling_s: result.summary.quenchToHandling_s, ...details },
     })
-    return id
+    return { id, result }
   })
-  return await getPlan(id, undefined, db)
+  // The result was just computed for the revision; reading the plan back need not compute it again.
+  return { ...(await readPlan(id, 1, db)), result }
 }
 
 /** An edit is a new revision; earlier revisions are never touched. */
 export async function addRevision(id: number, spec: PlanSpec, note: string | null, actorId: number): Promise<PlanDetail> {
   const resolved = await resolvePlan(spec)
-  await useDb().transaction(async (tx) => {
+  const { revision, result } = await useDb().transaction(async (tx) => {
     const [plan] = await tx.select().from(plans).where(eq(plans.id, id)).for('update')
     if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
     const revision = plan.latestRevision + 1
@@ -163,13 +164,14 @@ export async function addRevision(id: number, spec: PlanSpec, note: string | nul
       entityId: id,
       details: { revision, name: resolved.name, quenchToHandling_s: result.summary.quenchToHandling_s, from: plan.latestRevision },
     })
+    return { revision, result }
   })
-  return await getPlan(id)
+  return { ...(await readPlan(id, revision)), result }
 }
 
 /** A copy from the latest revision's stored values (not today's library), so it computes the same. */
 export async function duplicatePlan(id: number, actorId: number): Promise<PlanDetail> {
-  const source = await getPlan(id)
+  const source = await readPlan(id)
   const name = `Copy of ${source.name}`.slice(0, 160)
   return await createFromResolved({ ...source.spec, name }, actorId, `Duplicated from plan ${id} revision ${source.revision}`, 'plan.duplicate', {
     sourcePlanId: id,
@@ -179,6 +181,12 @@ export async function duplicatePlan(id: number, actorId: number): Promise<PlanDe
 
 /** The given revision (default: latest) with its freshly computed result and the revision list. */
 export async function getPlan(id: number, revision?: number, db: Database = useDb()): Promise<PlanDetail> {
+  const plan = await readPlan(id, revision, db)
+  return { ...plan, result: computeResolved(plan.spec) }
+}
+
+/** The given revision (default: latest) and the revision list, without computing the result. */
+async function readPlan(id: number, revision?: number, db: Database = useDb()): Promise<Omit<PlanDetail, 'result'>> {
   const [plan] = await db.select().from(plans).where(eq(plans.id, id))
   if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
   const revisions = await db
@@ -199,7 +207,6 @@ export async function getPlan(id: number, revision?: number, db: Database = useD
     planRevisionId: row.id,
     note: row.note,
     spec,
-    result: computeResolved(spec),
     revisions: revisions.map((r) => ({
       revision: r.revision,
       note: r.note,
