@@ -10,8 +10,9 @@ import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
 import { recordAudit } from './audit'
 import { useDb } from './db'
+import { positiveId } from './validation'
 
-const planId = z.coerce.number({ message: 'Plan id must be a number' }).int().positive('Plan id must be positive')
+const planId = positiveId('Plan')
 /** Path parameters of the /api/plans/[id] routes. */
 export const PlanIdParams = z.object({ id: planId })
 export const PlanRevisionParams = z.object({ id: planId, revision: z.coerce.number({ message: 'Revision must be a number' }).int().positive('Revision must be positive') })

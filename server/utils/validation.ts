@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import type { z } from 'zod'
+import { z } from 'zod'
 
 export interface FieldProblem {
   field: string
@@ -41,4 +41,14 @@ export async function paramsValid<S extends z.ZodType>(event: H3Event, schema: S
 export function queryValid<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
   const parsed = schema.safeParse(getQuery(event))
   return parsed.success ? parsed.data : invalidRequest(parsed.error, 'query')
+}
+
+/** A positive whole-number id of a `noun` ("Batch", "Plan"…), with messages that name it. */
+export function positiveId(noun: string) {
+  return z.coerce.number({ message: `${noun} id must be a number` }).int().positive(`${noun} id must be positive`)
+}
+
+/** The `[id]` path parameter of a route about one `noun`. */
+export function idParams(noun: string) {
+  return z.object({ id: positiveId(noun) })
 }

@@ -1,6 +1,4 @@
-import { z } from 'zod'
-
-const Params = z.object({ id: z.coerce.number({ message: 'Batch id must be a number' }).int().positive('Batch id must be positive') })
+const Params = idParams('Batch')
 
 export default defineEventHandler(async (event) => {
   await requireRole(event)

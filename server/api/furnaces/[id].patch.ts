@@ -1,7 +1,6 @@
-import { z } from 'zod'
 import { furnaceUpdateSchema } from '../../../shared/schemas/schedule'
 
-const Params = z.object({ id: z.coerce.number({ message: 'Furnace id must be a number' }).int().positive('Furnace id must be positive') })
+const Params = idParams('Furnace')
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])

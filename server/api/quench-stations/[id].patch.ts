@@ -1,7 +1,6 @@
-import { z } from 'zod'
 import { stationUpdateSchema } from '../../../shared/schemas/schedule'
 
-const Params = z.object({ id: z.coerce.number({ message: 'Station id must be a number' }).int().positive('Station id must be positive') })
+const Params = idParams('Station')
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])

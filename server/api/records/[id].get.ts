@@ -1,7 +1,7 @@
-import { RecordParams } from '../../utils/recordParams'
+const Params = idParams('Record')
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['qa', 'metallurgist', 'admin'])
-  const { id } = await paramsValid(event, RecordParams)
+  const { id } = await paramsValid(event, Params)
   return await getRecord(id, user)
 })

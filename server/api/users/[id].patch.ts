@@ -1,7 +1,6 @@
-import { z } from 'zod'
 import { userUpdateSchema } from '../../../shared/schemas/user'
 
-const Params = z.object({ id: z.coerce.number({ message: 'User id must be a number' }).int().positive('User id must be positive') })
+const Params = idParams('User')
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])

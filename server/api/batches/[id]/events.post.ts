@@ -1,7 +1,6 @@
-import { z } from 'zod'
 import { moveInputSchema } from '../../../../shared/schemas/schedule'
 
-const Params = z.object({ id: z.coerce.number({ message: 'Batch id must be a number' }).int().positive('Batch id must be positive') })
+const Params = idParams('Batch')
 
 export default defineEventHandler(async (event) => {
   // Which role may record which move depends on the move; moveBatch checks it.

@@ -1,6 +1,4 @@
-import { z } from 'zod'
-
-const Params = z.object({ id: z.coerce.number({ message: 'Message id must be a number' }).int().positive('Message id must be positive') })
+const Params = idParams('Message')
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])

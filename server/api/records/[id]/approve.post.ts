@@ -1,10 +1,11 @@
 import { approveInputSchema } from '../../../../shared/schemas/records'
-import { RecordParams } from '../../../utils/recordParams'
+
+const Params = idParams('Record')
 
 export default defineEventHandler(async (event) => {
   // Only QA signs; who else is refused (a QA lead who worked the load) is decided in signRecord.
   const user = await requireRole(event, ['qa'])
-  const { id } = await paramsValid(event, RecordParams)
+  const { id } = await paramsValid(event, Params)
   const { comment } = await readValid(event, approveInputSchema)
   return await signRecord(id, 'approved', comment, user)
 })

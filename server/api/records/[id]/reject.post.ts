@@ -1,9 +1,10 @@
 import { rejectInputSchema } from '../../../../shared/schemas/records'
-import { RecordParams } from '../../../utils/recordParams'
+
+const Params = idParams('Record')
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['qa'])
-  const { id } = await paramsValid(event, RecordParams)
+  const { id } = await paramsValid(event, Params)
   const { comment } = await readValid(event, rejectInputSchema)
   return await signRecord(id, 'rejected', comment, user)
 })
