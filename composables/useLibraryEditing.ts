@@ -1,4 +1,5 @@
 import { LIBRARY_EDIT_ROLES } from '~~/shared/library'
+import { roleAllows } from '~~/shared/roles'
 
 /**
  * The editing state of a library page: whether the signed-in role may edit (the server
@@ -7,7 +8,7 @@ import { LIBRARY_EDIT_ROLES } from '~~/shared/library'
  */
 export function useLibraryEditing<Entry>(dataKey: string) {
   const { role } = useRole()
-  const canEdit = computed(() => !!role.value && LIBRARY_EDIT_ROLES.includes(role.value))
+  const canEdit = computed(() => roleAllows(role.value, LIBRARY_EDIT_ROLES))
   const editing = shallowRef<Entry | 'new' | null>(null)
   const saved = ref('')
   const formAnchor = ref<HTMLElement | null>(null)

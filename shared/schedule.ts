@@ -26,8 +26,10 @@ export const OPEN_STATES: readonly BatchState[] = ['planned', 'charged', 'soakin
 /** States shown on the floor. */
 export const FLOOR_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
 
-const FLOOR_ROLES: readonly Role[] = ['operator', 'admin']
-const PLANNING_ROLES: readonly Role[] = ['metallurgist', 'admin']
+/** Who records floor moves. */
+export const FLOOR_ROLES: readonly Role[] = ['operator', 'admin']
+/** Who books and withdraws loads. */
+export const PLANNING_ROLES: readonly Role[] = ['metallurgist', 'admin']
 
 export interface Transition {
   from: readonly BatchState[]
