@@ -1,3 +1,5 @@
+import { formatDuration } from '~~/shared/duration'
+
 /** Durations and clock times as the shop floor reads them. */
 export function useFormatTime() {
   /** 1:02:03 or 2:03; a leading minus for a time already passed. */
@@ -16,10 +18,7 @@ export function useFormatTime() {
   function dateTime(ms: number): string {
     return new Date(ms).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })
   }
-  function duration(seconds: number): string {
-    if (seconds < 120) return `${Math.round(seconds)} s`
-    if (seconds < 7200) return `${Math.round(seconds / 60)} min`
-    return `${(seconds / 3600).toFixed(1)} h`
-  }
-  return { countdown, clock, dateTime, duration }
+  // One duration format everywhere: rounding to whole minutes here could show a
+  // deviation's planned and recorded spans as the same "15 min".
+  return { countdown, clock, dateTime, duration: formatDuration }
 }
