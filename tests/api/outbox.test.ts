@@ -11,11 +11,11 @@ import { STANDARD_CAUTIONS } from '../../server/records/cautions'
 import { escapeHtml } from '../../server/records/sheetHtml'
 import { CURVE_CSV_HEADER } from '../../server/records/sheetCsv'
 import { auditFor } from '../support/audit'
+import { pause, until } from '../support/poll'
 
 let admin: Client
 /** Active users by role, sorted: the default recipients (other test files add people). */
 let activeByRole: Record<string, string[]>
-const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
 
 beforeAll(async () => {
   admin = await signInDemo('admin')
@@ -29,17 +29,6 @@ async function outbox(query = 'limit=500') {
   const response = await admin.request(`/api/outbox?${query}`)
   expect(response.status).toBe(200)
   return response.body as { counts: Record<string, number>; messages: { id: number; subject: string; status: string; attempts: number; lastError: string | null; sentAt: string | null; to: string[]; attachments: { filename: string; bytes: number }[] }[] }
-}
-
-async function until<T>(read: () => Promise<T>, ok: (value: T) => boolean, seconds = 20): Promise<T> {
-  const deadline = Date.now() + seconds * 1000
-  let value = await read()
-  while (!ok(value)) {
-    if (Date.now() > deadline) throw new Error(`condition not met within ${seconds} s; last value: ${JSON.stringify(value).slice(0, 600)}`)
-    await pause(200)
-    value = await read()
-  }
-  return value
 }
 
 describe('role matrix for the outbox and recipients routes', () => {

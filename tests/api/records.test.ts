@@ -16,6 +16,7 @@ import { caughtAttachment, caughtMail, waitForMail } from '../support/mailCatche
 import type { SavedPlan } from '../support/plans'
 import { move, quickPlan, releaseLoad, type Released } from '../support/records'
 import { BASE_URL, RECORD_SEAL_KEY } from '../support/stackConfig'
+import { pause } from '../support/poll'
 
 /** HMAC-SHA-256 under the test stack's seal key, from node:crypto directly. */
 const sealOf = (value: unknown) => createHmac('sha256', RECORD_SEAL_KEY).update(canonicalJson(value), 'utf8').digest('hex')
@@ -27,8 +28,6 @@ let qa: Client
 let lib: LibraryFixture
 let db: Connection
 const ids: Record<string, number> = {}
-const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
-
 async function recordOf(batchId: number, client: Client = qa) {
   const list = await client.request('/api/records?limit=500')
   expect(list.status).toBe(200)

@@ -7,6 +7,7 @@ import { spawn } from 'node:child_process'
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { MAIL_API, MAIL_SMTP_PORT, MAIL_WEB_PORT } from './stackConfig'
+import { until } from './poll'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const pidFile = `${root}.data/test-maildev.pid`
@@ -17,15 +18,6 @@ async function healthy(): Promise<boolean> {
   } catch {
     return false
   }
-}
-
-async function until(condition: () => Promise<boolean>, what: string, seconds = 30): Promise<void> {
-  const deadline = Date.now() + seconds * 1000
-  while (Date.now() < deadline) {
-    if (await condition()) return
-    await new Promise((resolve) => setTimeout(resolve, 100))
-  }
-  throw new Error(`${what} within ${seconds} s`)
 }
 
 /** Starts maildev; `extraArgs` e.g. ['--incoming-user', 'u', '--incoming-pass', 'p'] makes it refuse unauthenticated mail. */
@@ -40,7 +32,7 @@ export async function startMailCatcher(extraArgs: string[] = []): Promise<void> 
   )
   child.unref()
   writeFileSync(pidFile, String(child.pid))
-  await until(healthy, 'The mail catcher did not answer')
+  await until(healthy, (up) => up, 30, 'The mail catcher did not answer')
 }
 
 /** Stops the maildev this helper started (by its recorded pid) and waits until it is gone. */
@@ -57,7 +49,7 @@ export async function stopMailCatcher(): Promise<void> {
     // already gone
   }
   rmSync(pidFile, { force: true })
-  await until(async () => !(await healthy()), 'The mail catcher did not stop')
+  await until(healthy, (up) => !up, 30, 'The mail catcher did not stop')
 }
 
 export interface CaughtMail {
@@ -89,10 +81,7 @@ export async function caughtAttachment(mail: CaughtMail, generatedFileName: stri
 export async function waitForMail(select: (mail: CaughtMail) => boolean, count: number, seconds = 30): Promise<CaughtMail[]> {
   let seen: CaughtMail[] = []
   try {
-    await until(async () => {
-      seen = (await caughtMail()).filter(select)
-      return seen.length >= count
-    }, `Expected ${count} message(s)`, seconds)
+    await until(async () => (seen = (await caughtMail()).filter(select)).length, (found) => found >= count, seconds, `Expected ${count} message(s)`)
   } catch (error) {
     throw new Error(`${(error as Error).message}; saw ${seen.length}`)
   }

@@ -3,8 +3,7 @@ import type { Client } from './http'
 import type { LibraryFixture } from './library'
 import { savePlan, thinSheetSpec, type SavedPlan } from './plans'
 import { booking, createLine } from './schedule'
-
-const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
+import { pause } from './poll'
 
 /** The 2 mm water-quenched sheet (handling within seconds) with a 2 s minimum soak, so a test can run the whole floor sequence. */
 export async function quickPlan(metallurgist: Client, lib: LibraryFixture, quenchDelayAllowance_s: number): Promise<SavedPlan> {
