@@ -4,6 +4,7 @@
 import { users } from '../server/db/schema'
 import { demoPlanRevisions } from '../server/db/demo/schedule'
 import { bookBatch, listBatches } from '../server/utils/batches'
+import { quantiles } from './bench/quantiles'
 import { benchBatch, benchLines, insertBatches, scratchDatabase } from './bench/scratchDatabase'
 
 const BATCHES = 5000
@@ -16,9 +17,8 @@ const scratch = await scratchDatabase('bench')
 const { db } = scratch
 
 const stats = (samples: number[]) => {
-  const sorted = [...samples].sort((a, b) => a - b)
-  const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]!
-  return `median ${at(0.5).toFixed(1)} ms, p95 ${at(0.95).toFixed(1)} ms, max ${sorted.at(-1)!.toFixed(1)} ms`
+  const { median, p95, max } = quantiles(samples)
+  return `median ${median.toFixed(1)} ms, p95 ${p95.toFixed(1)} ms, max ${max.toFixed(1)} ms`
 }
 
 try {

@@ -10,6 +10,7 @@ import { chromium, type Page } from 'playwright-core'
 import { demoPlanRevisions } from '../server/db/demo/schedule'
 import { DEFAULT_SHOP_SETTINGS, slotDurations } from '../shared/schedule'
 import { DEMO_USERS } from '../server/db/demo/shop'
+import { quantiles } from './bench/quantiles'
 import { benchBatch, benchLines, insertBatches, root, scratchDatabase, sh } from './bench/scratchDatabase'
 
 const PORT = Number(process.env.SLAKEWISE_BENCH_APP_PORT ?? 3190)
@@ -196,12 +197,10 @@ async function measureNextWeek(page: Page, loads: number): Promise<WeekFigures> 
     w.__recording = false
     return w.__frames
   })
-  const sorted = [...frames].sort((a, b) => a - b)
-  const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]!
   return {
     loads,
     draw_ms: drawnAt - clickedAt,
     longestTask_ms,
-    frames: { count: frames.length, median: at(0.5), p95: at(0.95), max: sorted.at(-1)!, over50: frames.filter((f) => f > 50).length },
+    frames: { count: frames.length, ...quantiles(frames), over50: frames.filter((f) => f > 50).length },
   }
 }
