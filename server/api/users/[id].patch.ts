@@ -1,4 +1,5 @@
 import { userUpdateSchema } from '../../../shared/schemas/user'
+import { updateUser } from '../../accounts/users'
 
 const Params = idParams('User')
 

@@ -1,3 +1,5 @@
+import { listUsers } from '../../accounts/users'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event, ['admin'])
   return await listUsers()

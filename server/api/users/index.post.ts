@@ -1,4 +1,5 @@
 import { userCreateSchema } from '../../../shared/schemas/user'
+import { createUser } from '../../accounts/users'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, ['admin'])
