@@ -16,7 +16,8 @@
  */
 import { CaseError, caseToProblem, parseCase } from '../thermal/caseSchema'
 import { CURVE_POINTS, curveTimes } from '../thermal/runCase'
-import { solveCooldown, type CooldownSolution } from '../thermal/solveCooldown'
+import { solveCooldown } from '../thermal/solveCooldown'
+import type { CooldownSolution } from '../thermal/types'
 import { brent } from '../thermal/roots'
 import { solveCrankNicolson } from '../thermal/crankNicolson'
 import { pointValue, type PointStage, type PointTerm } from '../../shared/pointSeries'

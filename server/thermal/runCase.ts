@@ -7,8 +7,9 @@
 import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
 import { solveCrankNicolson } from './crankNicolson'
 import { pointValues, type PointStage } from '../../shared/pointSeries'
-import { solveCooldown, type CooldownSolution, type PointRef, type StageSummary } from './solveCooldown'
+import { solveCooldown } from './solveCooldown'
 import type { TargetSpec } from './targetTime'
+import type { CooldownSolution, PointRef, StageSummary } from './types'
 
 export interface RunOptions {
   /** Also solve with Crank–Nicolson and report the largest difference. */

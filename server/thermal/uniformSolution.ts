@@ -25,8 +25,7 @@ import { massOf, normOf, overlapOf, surfaceValues, uniformShape } from './eigenR
 import type { ScaledDomain } from './properties'
 import { firstModeGuess, modesToCompute, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
-import type { CooldownProblem, Geometry } from './types'
-import type { CooldownSolution, PointRef, SolveOptions, StageSummary } from './solveCooldown'
+import type { CooldownProblem, CooldownSolution, Geometry, PointRef, SolveOptions, StageSummary } from './types'
 
 /**
  * The fast solution, or null when the problem is not a uniform symmetric body from

@@ -1,5 +1,6 @@
 import { materialPatchSchema } from '../../../shared/schemas/material'
 import { LIBRARY_EDIT_ROLES } from '../../../shared/library'
+import { libraryIdParams } from '../../library/library'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, LIBRARY_EDIT_ROLES)

@@ -1,3 +1,5 @@
+import { libraryIdParams } from '../../library/library'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const { id } = await paramsValid(event, libraryIdParams)
