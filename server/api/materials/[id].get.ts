@@ -1,4 +1,5 @@
 import { libraryIdParams } from '../../library/library'
+import { getMaterial } from '../../library/materials'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event)

@@ -1,4 +1,5 @@
 import { libraryIdParams } from '../../library/library'
+import { getQuenchant } from '../../library/quenchants'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event)

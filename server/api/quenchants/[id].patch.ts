@@ -1,6 +1,7 @@
 import { quenchantPatchSchema } from '../../../shared/schemas/quenchant'
 import { LIBRARY_EDIT_ROLES } from '../../../shared/library'
 import { libraryIdParams } from '../../library/library'
+import { updateQuenchant } from '../../library/quenchants'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, LIBRARY_EDIT_ROLES)
