@@ -15,7 +15,7 @@ import type { RecordListQuery } from '../../shared/schemas/records'
 import type { SessionUser } from './auth'
 import { recordAudit } from './audit'
 import { batchEventsOf, readSummary, selectBatchesInContext } from './batches'
-import { recipientsFor } from './mailRecipients'
+import { recipientsFor } from '../outbox/mailRecipients'
 import { enqueueMail } from '../outbox/enqueue'
 
 const SHOP_NAME = process.env.SLAKEWISE_SHOP_NAME || DEMO_SHOP_NAME

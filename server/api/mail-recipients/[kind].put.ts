@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { mailRecipientKindSchema, mailRecipientsUpdateSchema } from '../../../shared/schemas/mailRecipients'
+import { updateRecipientSetting } from '../../outbox/mailRecipients'
 
 const Params = z.object({ kind: mailRecipientKindSchema })
 

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { OUTBOX_STATUSES } from '../../../shared/types/outbox'
+import { listOutbox } from '../../outbox/messages'
 
 const Query = z.object({
   status: z.enum(OUTBOX_STATUSES, { message: `Status must be one of ${OUTBOX_STATUSES.join(', ')}` }).optional(),

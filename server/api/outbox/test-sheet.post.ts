@@ -2,6 +2,8 @@ import { randomUUID } from 'node:crypto'
 import { z } from 'zod'
 import { sampleHoldTimeSheet } from '../../records/sampleSheet'
 import { holdTimeSheetMail } from '../../records/sheetMail'
+import { recipientsFor } from '../../outbox/mailRecipients'
+import { enqueueMail } from '../../outbox/enqueue'
 
 const Body = z.strictObject({
   loadNumber: z

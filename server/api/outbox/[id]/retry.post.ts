@@ -1,3 +1,5 @@
+import { retryOutboxMessage } from '../../../outbox/messages'
+
 const Params = idParams('Message')
 
 export default defineEventHandler(async (event) => {
