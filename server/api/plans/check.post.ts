@@ -1,4 +1,5 @@
 import { planSpecSchema } from '../../../shared/schemas/plan'
+import { checkSpec } from '../../planning/plans'
 
 // Re-solves the quench with finite differences and returns the largest difference from the series.
 export default defineEventHandler(async (event) => {

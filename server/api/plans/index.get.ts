@@ -1,3 +1,5 @@
+import { listPlans } from '../../planning/plans'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   return await listPlans()

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { curveCsv } from '../../../planning/computePlan'
+import { PlanIdParams, getPlan } from '../../../planning/plans'
 
 const Query = z.object({
   revision: z.coerce.number({ message: 'Revision must be a number' }).int().positive('Revision must be positive').optional(),

@@ -1,3 +1,5 @@
+import { PlanIdParams, duplicatePlan } from '../../../planning/plans'
+
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['metallurgist', 'admin'])
   const { id } = await paramsValid(event, PlanIdParams)

@@ -1,3 +1,5 @@
+import { PlanIdParams, getPlan } from '../../../planning/plans'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const { id } = await paramsValid(event, PlanIdParams)

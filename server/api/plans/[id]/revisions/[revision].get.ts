@@ -1,3 +1,5 @@
+import { PlanRevisionParams, getPlan } from '../../../../planning/plans'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event)
   const { id, revision } = await paramsValid(event, PlanRevisionParams)

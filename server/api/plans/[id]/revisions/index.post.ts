@@ -1,4 +1,5 @@
 import { planRevisionInputSchema } from '../../../../../shared/schemas/plan'
+import { PlanIdParams, addRevision } from '../../../../planning/plans'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['metallurgist', 'admin'])
