@@ -12,8 +12,8 @@
  * the n-th zero of J0 (Bi = ∞: the zero of J0).
  * Sphere: 1 − λ cot λ = Bi, written cos λ + (Bi − 1) sin λ/λ = 0 so that it is
  * finite at λ = 0 (value Bi > 0) and equals (−1)^j at jπ: λ_n ∈ ((n − 1)π, nπ).
- * Checked against Incropera et al., Fundamentals of Heat and Mass Transfer,
- * Table 5.1 (tests/unit/thermal/eigenRoots.test.ts).
+ * Checked against roots and coefficients computed with mpmath
+ * (scripts/reference/generate.py; tests/unit/thermal/eigenRoots.test.ts).
  */
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
 import type { Geometry } from './types'
