@@ -3,7 +3,7 @@ import { planSpecSchema, resolvedPlanSchema, type ResolvedPlan } from '../../sha
 import { engineBody, volumeToSurface_m, characteristicLength_m } from '../../server/planning/shapes'
 import { furnaceCoefficient_W_m2K } from '../../server/planning/furnace'
 import { computePlan, curveCsv, planField, quenchCase } from '../../server/planning/computePlan'
-import { productTimeToCentre } from '../../server/thermal/productSolutions'
+import { referenceTimeToCentre_s } from '../support/productReference'
 import { pointValue } from '../../shared/pointSeries'
 import type { PlanResult } from '../../shared/types/planResult'
 import { firstMode } from '../support/referenceValues'
@@ -146,11 +146,12 @@ describe('furnace coefficient (common practice)', () => {
 })
 
 describe('product shapes', () => {
-  it('one stage: a block centre time equals the engine product solution for blocks', () => {
-    // Source: productTimeToCentre (Carslaw & Jaeger §1.15, product of three slab series), a separate code path.
+  it('one stage: a block centre time equals the closed-form product of three slab series', () => {
+    // Source: tests/support/productReference.ts (Carslaw & Jaeger §1.15, product of three slab series, bisected roots).
     const block = computePlan(resolved({ part: { shape: 'block', sides_m: [0.04, 0.08, 0.2] }, stages: [{ quenchantId: 1 }] }))
-    const expected = productTimeToCentre(
-      { body: { shape: 'block', halfWidths_m: [0.02, 0.04, 0.1] }, k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
+    const slab = (size_m: number) => ({ geometry: 'slab' as const, size_m })
+    const expected = referenceTimeToCentre_s(
+      { directions: [slab(0.02), slab(0.04), slab(0.1)], k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
       100,
     )
     expect(block.method).toBe('product')

@@ -12,20 +12,28 @@
  *
  * Each factor comes from the series engine (solveCooldown) for a slab or rod; the
  * heat-content mean of a product is the product of the 1-D means (the volume
- * integral factorises).
+ * integral factorises). Checked in tests/unit/thermal/productSolution.test.ts
+ * against closed-form slab and rod series, one-term values and a worked example.
  */
-import { CaseError, caseToProblem, parseCase } from '../thermal/caseSchema'
-import { CURVE_POINTS, curveTimes } from '../thermal/runCase'
-import { solveCooldown } from '../thermal/solveCooldown'
-import type { CooldownSolution } from '../thermal/types'
-import { brent } from '../thermal/roots'
-import { solveCrankNicolson } from '../thermal/crankNicolson'
+import { CaseError, caseToProblem, parseCase } from './caseSchema'
+import { solveCrankNicolson } from './crankNicolson'
+import { brent } from './roots'
+import { CURVE_POINTS, curveTimes } from './runCase'
+import { solveCooldown } from './solveCooldown'
+import type { CooldownSolution } from './types'
 import { pointValue, type PointStage, type PointTerm } from '../../shared/pointSeries'
 import type { PlanMode } from '../../shared/types/planResult'
-import type { ProductBody } from './shapes'
+
+/** One finite direction of the body: a slab half-thickness or a rod radius. */
+export interface ProductDirection {
+  /** The part's own word for it ("diameter", "side 2"), used in messages. */
+  label: string
+  geometry: 'slab' | 'rod'
+  size_m: number
+}
 
 export interface ProductInput {
-  body: ProductBody
+  body: { directions: ProductDirection[] }
   material: { k: number; rho: number; cp: number }
   initial_C: number
   stages: { h_W_m2K: number; ambient_C: number; duration_s?: number }[]
@@ -45,7 +53,8 @@ const PROFILE_X = Array.from({ length: 21 }, (_, i) => i / 20)
 /** The shipped series is trimmed for size; it stays within 0.05 K from this fraction into each stage's span on (checked against the curve in tests). */
 export const PRODUCT_SERIES_FROM = 0.001
 const SERIES_TOLERANCE_K = 0.05
-const MODES_LISTED = 8
+/** Slowest modes a plan lists per stage, for 1-D bodies and products alike. */
+export const MODES_LISTED = 8
 
 function directionCase(input: ProductInput, geometry: 'slab' | 'rod', size_m: number) {
   return {
