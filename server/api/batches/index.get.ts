@@ -3,7 +3,7 @@ import { batchQuerySchema } from '../../../shared/schemas/schedule'
 const MAX_SPAN_MS = 45 * 24 * 3600_000
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'schedule.read')
   const query = queryValid(event, batchQuerySchema)
   const from = new Date(query.from)
   const to = new Date(query.to)

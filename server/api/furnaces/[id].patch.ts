@@ -3,7 +3,7 @@ import { furnaceUpdateSchema } from '../../../shared/schemas/schedule'
 const Params = idParams('Furnace')
 
 export default defineEventHandler(async (event) => {
-  const admin = await requireRole(event, ['admin'])
+  const admin = await requireRole(event, 'equipment.manage')
   const { id } = await paramsValid(event, Params)
   const change = await readValid(event, furnaceUpdateSchema)
   return await saveFurnace(id, change, admin.id)

@@ -1,4 +1,4 @@
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'equipment.read')
   return await listFurnaces()
 })

@@ -8,6 +8,6 @@ const Query = z.object({
 })
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['admin'])
+  await requireRole(event, 'outbox.manage')
   return await listOutbox(queryValid(event, Query))
 })

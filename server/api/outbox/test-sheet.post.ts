@@ -21,7 +21,7 @@ const Body = z.strictObject({
  * Real sheets are queued by the release itself (server/utils/records.ts).
  */
 export default defineEventHandler(async (event) => {
-  const admin = await requireRole(event, ['admin'])
+  const admin = await requireRole(event, 'outbox.manage')
   const body = await readValid(event, Body)
   const sheet = sampleHoldTimeSheet({ loadNumber: body.loadNumber })
   const dedupeKey = `test-sheet:${body.dedupeKey ?? randomUUID()}`

@@ -1,6 +1,6 @@
 import { recordListQuerySchema } from '../../../shared/schemas/records'
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['qa', 'metallurgist', 'admin'])
+  await requireRole(event, 'records.read')
   return await listRecords(queryValid(event, recordListQuerySchema))
 })

@@ -1,4 +1,4 @@
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['metallurgist', 'admin'])
+  await requireRole(event, 'schedule.book')
   return await planOptions()
 })

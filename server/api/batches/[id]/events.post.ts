@@ -4,7 +4,7 @@ const Params = idParams('Batch')
 
 export default defineEventHandler(async (event) => {
   // Which role may record which move depends on the move; moveBatch checks it.
-  const user = await requireRole(event)
+  const user = await requireRole(event, 'signedIn')
   const { id } = await paramsValid(event, Params)
   const { to } = await readValid(event, moveInputSchema)
   const result = await moveBatch(id, to, user)

@@ -8,7 +8,7 @@ const Query = z.object({
 })
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'plans.read')
   const { id } = await paramsValid(event, PlanIdParams)
   const { revision, temperature } = queryValid(event, Query)
   const plan = await getPlan(id, revision)
