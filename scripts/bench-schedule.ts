@@ -3,7 +3,8 @@
 // query and bookings made by 10 concurrent bookers through the real booking code.
 import { users } from '../server/db/schema'
 import { demoPlanRevisions } from '../server/db/demo/schedule'
-import { bookBatch, listBatches } from '../server/utils/batches'
+import { bookBatch } from '../server/schedule/booking'
+import { listBatches } from '../server/schedule/batchReads'
 import { quantiles } from './bench/quantiles'
 import { benchBatch, benchLines, insertBatches, scratchDatabase } from './bench/scratchDatabase'
 

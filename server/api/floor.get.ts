@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { floorBatches } from '../schedule/batchReads'
 
 const Query = z.object({ furnaceId: z.coerce.number({ message: 'Furnace id must be a number' }).int().positive().optional() })
 

@@ -1,6 +1,6 @@
 import { outboxConfigFromEnv, createMailTransport } from '../outbox/config'
 import { runOutboxOnce } from '../outbox/worker'
-import { queueDailyDigest } from '../utils/records'
+import { queueDailyDigest } from '../records/service'
 
 /**
  * Runs the outbox worker in every server process (several may run side by side; the

@@ -1,3 +1,5 @@
+import { getBatch } from '../../schedule/batchReads'
+
 const Params = idParams('Batch')
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,5 @@
 import { batchQuerySchema } from '../../../shared/schemas/schedule'
+import { listBatches } from '../../schedule/batchReads'
 
 const MAX_SPAN_MS = 45 * 24 * 3600_000
 

@@ -1,4 +1,5 @@
 import { bookingInputSchema } from '../../../shared/schemas/schedule'
+import { bookBatch } from '../../schedule/booking'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'schedule.book')

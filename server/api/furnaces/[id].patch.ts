@@ -1,4 +1,5 @@
 import { furnaceUpdateSchema } from '../../../shared/schemas/schedule'
+import { saveFurnace } from '../../schedule/equipment'
 
 const Params = idParams('Furnace')
 

@@ -1,4 +1,5 @@
 import { furnaceInputSchema } from '../../../shared/schemas/schedule'
+import { saveFurnace } from '../../schedule/equipment'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'equipment.manage')

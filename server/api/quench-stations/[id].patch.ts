@@ -1,4 +1,5 @@
 import { stationUpdateSchema } from '../../../shared/schemas/schedule'
+import { saveStation } from '../../schedule/equipment'
 
 const Params = idParams('Station')
 

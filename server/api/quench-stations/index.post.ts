@@ -1,4 +1,5 @@
 import { stationInputSchema } from '../../../shared/schemas/schedule'
+import { saveStation } from '../../schedule/equipment'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'equipment.manage')

@@ -1,3 +1,5 @@
+import { getRecord } from '../../records/service'
+
 const Params = idParams('Record')
 
 export default defineEventHandler(async (event) => {

@@ -1,3 +1,5 @@
+import { queueDailyDigest } from '../../records/service'
+
 export default defineEventHandler(async (event) => {
   // The worker queues the digest on its own once a day; this lets an admin (and the tests) ask now.
   const admin = await requireRole(event, 'records.digest')

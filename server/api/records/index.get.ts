@@ -1,4 +1,5 @@
 import { recordListQuerySchema } from '../../../shared/schemas/records'
+import { listRecords } from '../../records/service'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'records.read')

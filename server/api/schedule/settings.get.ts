@@ -1,3 +1,5 @@
+import { readShopSettings } from '../../schedule/shopSettings'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'equipment.read')
   return await readShopSettings()

@@ -1,4 +1,5 @@
 import { settingsUpdateSchema } from '../../../shared/schemas/schedule'
+import { updateShopSettings } from '../../schedule/shopSettings'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'equipment.manage')

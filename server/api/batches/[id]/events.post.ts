@@ -1,4 +1,5 @@
 import { moveInputSchema } from '../../../../shared/schemas/schedule'
+import { moveBatch } from '../../../schedule/moves'
 
 const Params = idParams('Batch')
 

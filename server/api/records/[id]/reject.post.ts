@@ -1,4 +1,5 @@
 import { rejectInputSchema } from '../../../../shared/schemas/records'
+import { signRecord } from '../../../records/service'
 
 const Params = idParams('Record')
 

@@ -3,18 +3,18 @@ import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
 import { DEMO_SHOP_NAME } from '../db/demo/shop'
-import { isSealKey, recordSeal } from '../records/canonical'
-import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from '../records/cooldownRecord'
-import { escapeHtml } from '../records/sheetHtml'
-import { holdTimeSheetMail } from '../records/sheetMail'
-import { formatInstant } from '../records/format'
+import { isSealKey, recordSeal } from './canonical'
+import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from './cooldownRecord'
+import { holdTimeSheetMail } from './sheetMail'
+import { digestMail, rejectionMail } from './recordMails'
+import { can } from '../../shared/access'
 import { BATCH_STATE_LABELS } from '../../shared/schedule'
-import { palette } from '../../shared/palette'
 import type { RecordDetail, RecordListItem, RecordSnapshot } from '../../shared/types/cooldownRecord'
 import type { RecordListQuery } from '../../shared/schemas/records'
-import type { SessionUser } from './auth'
-import { recordAudit } from './audit'
-import { batchEventsOf, readSummary, selectBatchesInContext } from './batches'
+import type { SessionUser } from '../utils/auth'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
+import { batchEventsOf, readSummary, selectBatchesInContext } from '../schedule/batchQueries'
 import { recipientsFor } from '../outbox/mailRecipients'
 import { enqueueMail } from '../outbox/enqueue'
 
@@ -181,7 +181,7 @@ export async function listRecords(query: RecordListQuery): Promise<RecordListIte
 
 /** Why `user` may not sign this record, or null when they may. */
 async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, user: Pick<SessionUser, 'id' | 'role'>, intact: boolean): Promise<{ status: 403 | 409; message: string } | null> {
-  if (user.role !== 'qa') return { status: 403, message: 'Only a QA lead signs cooldown records' }
+  if (!can(user.role, 'records.signOff')) return { status: 403, message: 'Only a QA lead signs cooldown records' }
   if (row.state !== 'unsigned') return { status: 409, message: `This record is already ${row.state}; a signed record cannot be changed` }
   if (!intact) return { status: 409, message: 'This record was altered after it was written; it cannot be signed' }
   const own = await db
@@ -236,7 +236,7 @@ export async function signRecord(id: number, decision: Decision, comment: string
     if (decision === 'rejected') {
       const to = await recipientsFor(tx, 'rejection')
       if (to.length === 0) throw createError({ statusCode: 422, statusMessage: 'Not rejected: nobody receives rejected records; an administrator must name recipients under Mail recipients' })
-      outboxId = (await enqueueMail(tx, rejectionMail(id, snapshot, comment!, user.displayName, signedAt, to))).id
+      outboxId = (await enqueueMail(tx, rejectionMail(id, snapshot, comment!, user.displayName, signedAt, to, recordUrl(id)))).id
     }
     await recordAudit(tx, {
       actorId: user.id,
@@ -253,24 +253,6 @@ export async function signRecord(id: number, decision: Decision, comment: string
     throw createError({ statusCode: refused.status, statusMessage: refused.message, data: { recordState: refused.state, integrity: refused.integrity } })
   }
   return await getRecord(id, user)
-}
-
-function rejectionMail(id: number, snapshot: RecordSnapshot, comment: string, by: string, at: Date, to: string[]) {
-  const load = snapshot.batch.loadNumber
-  const url = recordUrl(id)
-  return {
-    dedupeKey: `rejection:record-${id}`,
-    to,
-    subject: `Cooldown record rejected · Load ${load} · ${snapshot.plan.name}`,
-    html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
-<h1 style="font-size:20px;">Load ${escapeHtml(load)}: cooldown record rejected</h1>
-<p>${escapeHtml(by)} rejected the record on ${escapeHtml(formatInstant(at.toISOString()))}.</p>
-<blockquote style="border-left:4px solid ${palette.alarm[600]};margin:12px 0;padding:6px 12px;background:${palette.alarm[50]};" data-role="comment">${escapeHtml(comment)}</blockquote>
-<p>Plan: ${escapeHtml(snapshot.plan.name)}, revision ${snapshot.plan.revision}. Deviations recorded: ${snapshot.deviations.length ? snapshot.deviations.map((d) => escapeHtml(d.message)).join('; ') : 'none'}.</p>
-<p><a href="${escapeHtml(url)}">Open the record</a></p>
-</body></html>`,
-    text: `Load ${load}: cooldown record rejected by ${by} on ${formatInstant(at.toISOString())}.\n\nComment: ${comment}\n\nPlan: ${snapshot.plan.name}, revision ${snapshot.plan.revision}\nRecord: ${url}\n`,
-  }
 }
 
 /** The UTC day the digest belongs to, as its dedupe key. */
@@ -302,17 +284,7 @@ export async function queueDailyDigest(db: Database, now: Date, actorId: number 
     const to = records.length ? await recipientsFor(tx, 'daily_digest') : []
     if (records.length === 0 || to.length === 0) return { dedupeKey, queued: false, created: false, outboxId: null, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
     const day = dedupeKey.slice('digest:'.length)
-    const line = (r: (typeof records)[number]) => `${r.loadNumber} · ${r.plan} · ${r.furnace} · released ${formatInstant(r.releasedAt)} · ${r.deviations} deviation${r.deviations === 1 ? '' : 's'}`
-    const queued = await enqueueMail(tx, {
-      dedupeKey,
-      to,
-      subject: `Records waiting for sign-off · ${day} · ${records.length}`,
-      html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
-<h1 style="font-size:20px;">${records.length} cooldown record${records.length === 1 ? '' : 's'} unsigned for more than a day</h1>
-<ul>${records.map((r) => `<li data-load="${escapeHtml(r.loadNumber)}"><a href="${escapeHtml(recordUrl(r.id))}">${escapeHtml(line(r))}</a></li>`).join('')}</ul>
-</body></html>`,
-      text: `Cooldown records unsigned for more than a day (${day}):\n${records.map((r) => `  - ${line(r)}  ${recordUrl(r.id)}`).join('\n')}\n`,
-    })
+    const queued = await enqueueMail(tx, digestMail(dedupeKey, to, records, recordUrl))
     if (queued.created) await recordAudit(tx, { actorId, action: 'record.digest', entityType: 'outbox_message', entityId: queued.id, details: { day, records: records.map((r) => r.loadNumber), to } })
     return { dedupeKey, queued: true, created: queued.created, outboxId: queued.id, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
   })
