@@ -119,3 +119,22 @@ export function uniformOverlap(m: 0 | 1 | 2, a: SurfaceValues, b: SurfaceValues)
   if (Math.abs(d) <= 1e-8 * a.lam * a.lam) return uniformNorm(m, a)
   return (a.df1 * b.f1 - a.f1 * b.df1) / d
 }
+
+/** A term A_i g_i of a start given as modes over its steady state. */
+export interface UniformTerm {
+  amplitude_K: number
+  surface: SurfaceValues
+}
+
+/**
+ * Amplitude of the symmetric uniform mode f_n when the stage starts from
+ * T = T_start,ss + Σ_i A_i g_i over its steady state T_ss:
+ *   a_n = ((T_start,ss − T_ss) ∫x^m f_n + Σ_i A_i ∫x^m g_i f_n) / ∫x^m f_n².
+ * A uniform start is the case without terms, where mass/norm is the textbook C_n
+ * (uniformInitialCoefficient). Both series paths take their amplitudes from here.
+ */
+export function uniformAmplitude(m: 0 | 1 | 2, startExcess_K: number, terms: readonly UniformTerm[], mode: SurfaceValues): number {
+  let projection = startExcess_K * uniformMass(mode)
+  for (const term of terms) projection += term.amplitude_K * uniformOverlap(m, term.surface, mode)
+  return projection / uniformNorm(m, mode)
+}

@@ -74,7 +74,6 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
     const previous = stages[i - 1]
     const earliest = Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s
     const series = buildStageSeries({
-      geometry,
       domain,
       family,
       steady: steadyProfile(domain.pieces, inner, outer),

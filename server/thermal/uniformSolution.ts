@@ -21,7 +21,7 @@
  */
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
-import { surfaceValues, uniformMass, uniformNorm, uniformOverlap, uniformShape, type SurfaceValues } from './eigenRoots'
+import { surfaceValues, uniformAmplitude, uniformMass, uniformShape, type SurfaceValues, type UniformTerm } from './eigenRoots'
 import type { ScaledDomain } from './properties'
 import { firstModeGuess, modesToCompute, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
@@ -116,19 +116,19 @@ class UniformStage {
     // The previous stage's amplitudes at its end (series.ts, modalEnd).
     // Amplitudes below rounding of the largest are dropped: |∫x^m g f| ≤ 1, so their
     // share of any projection is too, and after a long stage most of them are.
-    let carried: number[] | null = null
+    const carried: UniformTerm[] = []
     if (typeof start !== 'number') {
       const tau = (start.end_s - start.start_s) / timeScale_s
-      carried = []
       let largest = 0
       for (let j = 0; j < start.count; j++) {
-        const lam = start.surfaces[j].lam
-        const a = start.amp[j] * Math.exp(-lam * lam * tau)
-        carried.push(a)
-        largest = Math.max(largest, Math.abs(a))
+        const surface = start.surfaces[j]
+        const amplitude_K = start.amp[j] * Math.exp(-surface.lam * surface.lam * tau)
+        carried.push({ amplitude_K, surface })
+        largest = Math.max(largest, Math.abs(amplitude_K))
       }
-      while (carried.length > 1 && Math.abs(carried[carried.length - 1]) < 1e-17 * largest) carried.pop()
+      while (carried.length > 1 && Math.abs(carried[carried.length - 1].amplitude_K) < 1e-17 * largest) carried.pop()
     }
+    const startExcess_K = (typeof start === 'number' ? start : start.steady_C) - this.steady_C
     // The truncation terms |a_n| e^{−μ_n τ_min}.
     const terms: number[] = []
     let computedSoFar = 0
@@ -138,14 +138,7 @@ class UniformStage {
       for (let j = computedSoFar; j < computed; j++) {
         const surface = symmetricRootFrom(m, j + 1, this.biot, j === 0 ? Number.NaN : this.surfaces[j - 1].lam)
         const lam = surface.lam
-        // a_n = ((T_start,ss − T_ss) ∫x^m f_n + Σ_i A_i ∫x^m g_i f_n) / ∫x^m f_n² (series.ts); a uniform
-        // start is the case without terms, where mass/norm is the textbook C_n.
-        let projection = ((typeof start === 'number' ? start : start.steady_C) - this.steady_C) * uniformMass(surface)
-        if (carried !== null) {
-          const from = start as UniformStage
-          for (let i = 0; i < carried.length; i++) projection += carried[i] * uniformOverlap(m, from.surfaces[i], surface)
-        }
-        const a = projection / uniformNorm(m, surface)
+        const a = uniformAmplitude(m, startExcess_K, carried, surface)
         this.surfaces.push(surface)
         this.amp.push(a)
         // |f| ≤ f(0) = 1 for cos, J0 and sin(λx)/(λx).

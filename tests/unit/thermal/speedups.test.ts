@@ -191,7 +191,6 @@ describe('projection through cached mode integrals', () => {
   const domain = scaleDomain({ geometry: 'rod', length_m: 0.025, properties: casedRod })
   const stage = (biot: number, ambient_C: number, start: SeriesInput['start'], startModes?: SeriesInput['startModes']) =>
     buildStageSeries({
-      geometry: 'rod',
       domain,
       family: modeFamily('rod', domain, 0, biot),
       steady: () => ambient_C,
