@@ -29,7 +29,7 @@ export default defineNitroPlugin((nitro) => {
       again = result.claimed === batchSize
       const today = new Date().toISOString().slice(0, 10)
       if (today !== digestDay) {
-        await queueDailyDigest(useDb(), new Date())
+        await queueDailyDigest(useDb(), new Date(), useShopConfig())
         digestDay = today
       }
       lastProblem = ''

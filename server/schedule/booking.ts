@@ -12,8 +12,11 @@ import { useDb } from '../utils/db'
 import { collisions, lockResources, readSummary, toBatchView } from './batchQueries'
 import { readShopSettings } from './shopSettings'
 
-/** Load numbers start with the shop's initials (Kestrel Bay). */
-const LOAD_PREFIX = process.env.SLAKEWISE_LOAD_PREFIX || 'KB'
+/** What booking needs from its deployment, built at the edge (server/utils/shopConfig.ts, the seed). */
+export interface BookingConfig {
+  /** Load numbers start with it, usually the shop's initials. */
+  loadPrefix: string
+}
 
 type Booking = z.output<typeof bookingInputSchema>
 
@@ -30,12 +33,12 @@ function quenchDelayAllowance(spec: unknown, settings: ShopSettings): number {
   return typeof value === 'number' && value >= 0 ? value : settings.quenchDelayAllowance_s
 }
 
-async function nextLoadNumber(tx: Transaction, year: number): Promise<string> {
+async function nextLoadNumber(tx: Transaction, prefix: string, year: number): Promise<string> {
   // One upsert, not select-then-insert: two bookings on different furnaces could
   // otherwise both find no row for a new year and both insert it.
   await tx.insert(loadCounters).values({ year, last: 1 }).onDuplicateKeyUpdate({ set: { last: sql`${loadCounters.last} + 1` } })
   const [counter] = await tx.select().from(loadCounters).where(eq(loadCounters.year, year))
-  return loadNumber(LOAD_PREFIX, year, counter!.last)
+  return loadNumber(prefix, year, counter!.last)
 }
 
 /**
@@ -43,7 +46,7 @@ async function nextLoadNumber(tx: Transaction, year: number): Promise<string> {
  * locked first, so of two overlapping bookings the second sees the first's rows
  * (read committed) and is refused with the colliding load and the next free start.
  */
-export async function bookBatch(input: Booking, actor: Pick<SessionUser, 'id' | 'role'>, db: Database = useDb()): Promise<BatchView> {
+export async function bookBatch(input: Booking, actor: Pick<SessionUser, 'id' | 'role'>, config: BookingConfig, db: Database = useDb()): Promise<BatchView> {
   const plannedCharge = Date.parse(input.plannedCharge)
   return await db.transaction(
     async (tx) => {
@@ -95,7 +98,7 @@ export async function bookBatch(input: Booking, actor: Pick<SessionUser, 'id' | 
         })
       }
 
-      const number = await nextLoadNumber(tx, new Date(plannedCharge).getUTCFullYear())
+      const number = await nextLoadNumber(tx, config.loadPrefix, new Date(plannedCharge).getUTCFullYear())
       const [{ id }] = await tx
         .insert(batches)
         .values({

@@ -7,6 +7,7 @@ import type { BatchView } from '../../shared/types/schedule'
 import type { SessionUser } from '../utils/auth'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
+import type { RecordConfig } from '../records/config'
 import { refuseIfRecordSigned, writeCooldownRecord } from '../records/service'
 import { collisions, lockResources, ms, slotsOf, toBatchView } from './batchQueries'
 import { readShopSettings } from './shopSettings'
@@ -17,7 +18,7 @@ import { readShopSettings } from './shopSettings'
  * (out of the bath, safe to handle) are written first at the times the plan gave
  * them, so the event log reads in order.
  */
-export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
+export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>, records: RecordConfig, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
   const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
   if (!pre) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
   return await db.transaction(
@@ -74,7 +75,7 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
         entityId: id,
         details: { loadNumber: row!.loadNumber, from: state, to, at: at.toISOString(), ...(flagged.length ? { conflicts: flagged } : {}) },
       })
-      if (to === 'released') await releaseRecord(tx, id, actor)
+      if (to === 'released') await releaseRecord(tx, id, actor, records)
       const [after] = await tx.select().from(batches).where(eq(batches.id, id))
       return { batch: toBatchView(after!, settings, now), repeated: false }
     },
@@ -86,9 +87,9 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
  * The record and its sheet belong to the release: any failure here rolls the release
  * back, and the operator is told why rather than seeing a release without a record.
  */
-async function releaseRecord(tx: Transaction, id: number, actor: Pick<SessionUser, 'id' | 'displayName'>) {
+async function releaseRecord(tx: Transaction, id: number, actor: Pick<SessionUser, 'id' | 'displayName'>, records: RecordConfig) {
   try {
-    await writeCooldownRecord(tx, id, actor)
+    await writeCooldownRecord(tx, id, actor, records)
   } catch (error) {
     if ((error as { statusCode?: number }).statusCode) throw error
     throw createError({

@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'schedule.book')
   const input = await readValid(event, bookingInputSchema)
   setResponseStatus(event, 201)
-  return await bookBatch(input, user)
+  return await bookBatch(input, user, useShopConfig())
 })

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'signedIn')
   const { id } = await paramsValid(event, Params)
   const { to } = await readValid(event, moveInputSchema)
-  const result = await moveBatch(id, to, user)
+  const result = await moveBatch(id, to, user, useShopConfig())
   setResponseStatus(event, result.repeated ? 200 : 201)
   return result
 })

@@ -8,5 +8,5 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'records.signOff')
   const { id } = await paramsValid(event, Params)
   const { comment } = await readValid(event, approveInputSchema)
-  return await signRecord(id, 'approved', comment, user)
+  return await signRecord(id, 'approved', comment, user, useShopConfig())
 })

@@ -7,5 +7,5 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'records.signOff')
   const { id } = await paramsValid(event, Params)
   const { comment } = await readValid(event, rejectInputSchema)
-  return await signRecord(id, 'rejected', comment, user)
+  return await signRecord(id, 'rejected', comment, user, useShopConfig())
 })
