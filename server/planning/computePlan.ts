@@ -1,7 +1,7 @@
 /**
  * A saved or previewed plan (spec + copied library values) → engine cases → the
  * editor's result and the PlanSummary the schedule and floor read. Framework-free:
- * routes call it through server/utils/plans.ts, tests import it directly.
+ * routes call it through server/planning/plans.ts, tests import it directly.
  *
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
  * stages, graded materials). Short cylinders and blocks go through product
