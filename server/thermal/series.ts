@@ -71,6 +71,14 @@ export interface SeriesInput {
 /** Terms computed past the guess: the three truncate() needs to bound the tail. */
 const LOOKAHEAD = 3
 
+/** Without a caller's earliest_s, a stage's series is accurate from this Fourier number on. */
+const DEFAULT_EARLIEST_FO = 0.01
+
+/** Earliest time after stage i's start its series must be accurate at: the caller's (one value or one per stage), else DEFAULT_EARLIEST_FO. */
+export function stageEarliest_s(earliest_s: number | number[] | undefined, i: number, timeScale_s: number): number {
+  return (Array.isArray(earliest_s) ? earliest_s[i] : earliest_s) ?? DEFAULT_EARLIEST_FO * timeScale_s
+}
+
 /** Tail allowed at the earliest time: 0.01 K, or 80 % of a caller's accuracy_K. */
 export function truncationTolerance(accuracy_K: number | undefined): number {
   return accuracy_K === undefined ? TRUNCATION_TOLERANCE_K : 0.8 * accuracy_K

@@ -9,7 +9,7 @@
 import { modeFamily } from './modeFamily'
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { scaleDomain, weightedRule, type ScaledDomain } from './properties'
-import { buildStageSeries, seriesValue, truncationTolerance, type ModalStart, type StageSeries } from './series'
+import { buildStageSeries, seriesValue, stageEarliest_s, truncationTolerance, type ModalStart, type StageSeries } from './series'
 import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing } from './targetTime'
@@ -72,7 +72,6 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
     const outer = scaledEnd(stage.outer, domain)
     const family = modeFamily(geometry, domain, inner.biot, outer.biot, shooting)
     const previous = stages[i - 1]
-    const earliest = Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s
     const series = buildStageSeries({
       domain,
       family,
@@ -85,7 +84,7 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
       ...(previous && problem.stages[i - 1].inner.type === 'symmetry' ? { startModes: modalEnd(previous) } : {}),
       breakpoints: i === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [],
       symmetricUniformSteady: inner.biot === 0,
-      earliest_s: earliest ?? 0.01 * domain.timeScale_s,
+      earliest_s: stageEarliest_s(options.earliest_s, i, domain.timeScale_s),
       minModes: options.minModes ?? 1,
       truncationTolerance_K: truncationTolerance(accuracy),
       maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,

@@ -23,7 +23,7 @@ import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
 import { surfaceValues, uniformAmplitude, uniformMass, uniformShape, type SurfaceValues, type UniformTerm } from './eigenRoots'
 import type { ScaledDomain } from './properties'
-import { firstModeGuess, modesToCompute, truncate, truncationTolerance, type StageSeries } from './series'
+import { firstModeGuess, modesToCompute, stageEarliest_s, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { CooldownProblem, CooldownSolution, Geometry, PointRef, SolveOptions, StageSummary } from './types'
 
@@ -57,7 +57,7 @@ export function solveUniformSymmetric(problem: CooldownProblem, domain: ScaledDo
     const outer = stage.outer
     const last = i === stages.length - 1
     const end_s = last ? Infinity : start_s + (stage.duration_s as number)
-    const earliest = (Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s) ?? 0.01 * timeScale_s
+    const earliest = stageEarliest_s(options.earliest_s, i, timeScale_s)
     const steady_C = outer.type === 'fixed' ? outer.T_C : outer.ambient_C
     const summaryEnd_s = stage.duration_s === undefined ? null : start_s + stage.duration_s
     const tauMin = Math.max(earliest, 0) / timeScale_s
