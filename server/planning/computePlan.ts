@@ -5,8 +5,8 @@
  *
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
  * stages, graded materials). Short cylinders and blocks go through product
- * solutions (../thermal/productSolution.ts): uniform properties, every stage at
- * the same bath temperature, handling point centre or mean.
+ * solutions (../thermal/productSolution.ts): uniform properties, a different bath or
+ * air temperature per stage by superposition, handling point centre or mean.
  */
 import { CaseError } from '../thermal/caseSchema'
 import { runCase, type CaseResult } from '../thermal/runCase'
