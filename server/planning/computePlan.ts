@@ -242,6 +242,8 @@ export function computePlan(plan: ResolvedPlan): PlanResult {
     : null
   const summary: PlanSummary = {
     quenchToHandling_s: t_h,
+    // The band's longest time: the low coefficients normally, whichever run is slowest in any case.
+    slowEndToHandling_s: Math.max(t_h, runs.low.targetTime_s, runs.high.targetTime_s),
     handling_C: plan.handling.below_C,
     soak: soak ? { furnace_C: soak.furnace_C, heatUp_s: soak.heatUp_s, minimumSoak_s: soak.minimumSoak_s, total_s: soak.total_s } : null,
     handlingPointSeries: runs.headline.series,

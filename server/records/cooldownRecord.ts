@@ -15,6 +15,7 @@
  * never mistakes it for a floor entry.
  */
 import { pointValue } from '../../shared/pointSeries'
+import { handlingBasis } from '../../shared/safeHandling'
 import { deriveSlots, type BatchState, type SlotDurations } from '../../shared/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
@@ -22,6 +23,7 @@ import type { CurvePoint, HoldTimeSheet, RecordEventType } from '../../shared/ty
 import { canonicalJson, hmacSha256Hex, verifyRecordSeal } from './canonical'
 import { STANDARD_CAUTIONS } from './cautions'
 import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
+import { formatSpan } from './format'
 
 /** Who a derived or clock-written moment is attributed to on the sheet. */
 export const CLOCK_NAME = 'Slakewise (plan clock)'
@@ -125,6 +127,8 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
       transfer_s: batch.transfer_s,
       quench_s: batch.quench_s,
       quenchToHandling_s: batch.quenchToHandling_s,
+      headlineToHandling_s: revision.summary.quenchToHandling_s,
+      handlingBasis: handlingBasis(batch.quenchToHandling_s, revision.summary),
       quenchDelayAllowance_s: batch.quenchDelayAllowance_s,
       soakEnd: new Date(soakEnd).toISOString(),
       handlingAt: new Date(handlingAt).toISOString(),
@@ -179,6 +183,7 @@ export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, si
       furnace_C: p.furnace_C,
       handling_C: p.handling_C,
     },
+    handlingNote: p.handlingBasis && p.headlineToHandling_s !== undefined ? `Predicted handling time: ${p.handlingBasis}; headline estimate ${formatSpan(p.headlineToHandling_s)}.` : null,
     measured: snapshot.measured,
     predictedCurve: p.curve,
     events: snapshot.events.map(({ type, at, by, note }) => ({ type, at, by, ...(note ? { note } : {}) })),

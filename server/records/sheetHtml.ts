@@ -85,7 +85,7 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
 </div>
 <div style="background:${white};border:1px solid ${ink[200]};border-top:0;border-radius:0 0 8px 8px;padding:8px 20px 20px;">
 ${section('Load', identity)}
-${section('Times', times)}
+${section('Times', times + (sheet.handlingNote ? `<p data-handling-note style="font-size:14px;margin:8px 0 0;">${escapeHtml(sheet.handlingNote)}</p>` : ''))}
 ${section('Deviations', deviations)}
 ${section('Predicted cooldown', curveNote)}
 ${section('Events', events)}
@@ -112,6 +112,7 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     `Soak: planned ${planned.minimumSoak_s === null ? 'n/a' : formatSpan(planned.minimumSoak_s)}, recorded ${measuredOrDash(measured.soak_s)}`,
     `Quench delay: allowed ${formatSpan(planned.quenchDelayAllowance_s)}, recorded ${measuredOrDash(measured.quenchDelay_s)}`,
     `Quench to handling: predicted ${formatSpan(planned.quenchToHandling_s)}, recorded ${measuredOrDash(measured.quenchToRelease_s)}`,
+    ...(sheet.handlingNote ? [sheet.handlingNote] : []),
     '',
     'Deviations:',
     ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),

@@ -142,6 +142,7 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, recorded(measured.quenchDelay_s)],
     [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), recorded(measured.quenchToRelease_s)],
   ])
+  if (sheet.handlingNote) doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(sheet.handlingNote, { width: contentWidth })
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {

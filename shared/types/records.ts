@@ -82,6 +82,8 @@ export interface HoldTimeSheet {
   quenchant: string
   plan: { name: string; revision: number }
   planned: DeviationPlan & { furnace_C: number; handling_C: number }
+  /** Which basis the predicted handling time stands on and the headline beside it; null on records made before it was kept. */
+  handlingNote: string | null
   measured: MeasuredTimes
   /** Predicted handling-point temperature after the quench starts. */
   predictedCurve: CurvePoint[]
