@@ -16,6 +16,7 @@ import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanMode, PlanResult, PlanStageResult } from '../../shared/types/planResult'
 import { furnaceCoefficient_W_m2K } from './furnace'
 import { MODES_LISTED, checkProduct, runProduct, type ModelRun, type ProductInput } from '../thermal/productSolution'
+import { crackingWarning, handlingAtMediumWarning } from './warnings'
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 
 const PROFILE_TIMES = 25
@@ -270,6 +271,10 @@ export function computePlan(plan: ResolvedPlan): PlanResult {
     },
     soak,
     summary,
+    warnings: [
+      handlingAtMediumWarning(plan.handling.below_C, quenchants.at(-1)!),
+      crackingWarning(runs.detailed.curve, plan.part, plan.library.material.k_W_mK),
+    ].filter((w) => w !== null),
   }
 }
 
