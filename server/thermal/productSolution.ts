@@ -76,7 +76,10 @@ function directionCase(input: ProductInput, geometry: 'slab' | 'rod', size_m: nu
     size_m,
     material: input.material,
     initial_C: weight_K,
-    stages: input.stages.slice(from).map((s) => ({ surface: { h: s.h_W_m2K, ambient_C: 0 }, ...(s.duration_s === undefined ? {} : { duration_s: s.duration_s }) })),
+    stages: input.stages.slice(from).map((s) => ({
+      surface: { h: s.h_W_m2K, ambient_C: 0 },
+      ...(s.duration_s === undefined ? {} : { duration_s: s.duration_s }),
+    })),
   }
 }
 
@@ -116,7 +119,9 @@ function superpose(input: ProductInput, earliest: (size_m: number) => number): S
     weight_K,
     scale_K: weight_K || 1,
     solutions: input.body.directions.map((d, i) =>
-      solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, from, weight_K || 1))), { earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!) }),
+      solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, from, weight_K || 1))), {
+        earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!),
+      }),
     ),
   })
   const terms = [termAt(0, input.initial_C - ambients[0]!)]
@@ -218,7 +223,8 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
         modes: productModes(first.map((m) => m.decayRates_per_s)),
         // |Πf − Πg| ≤ Σ|f_d − g_d| when every factor lies in [0, 1]: the 1-D truncations (each at its term's scale) add up.
         truncationError_K: started.reduce(
-          (sum, term) => sum + Math.abs(term.weight_K / term.scale_K) * term.solutions.reduce((inner, sol) => inner + sol.summaries[s - term.from]!.truncationError_K, 0),
+          (sum, term) =>
+            sum + Math.abs(term.weight_K / term.scale_K) * term.solutions.reduce((inner, sol) => inner + sol.summaries[s - term.from]!.truncationError_K, 0),
           0,
         ),
       }
@@ -294,7 +300,9 @@ function productSeries(sp: Superposition, stages: ProductInput['stages'], at: 'c
         let products: PointTerm[] = [{ amplitude_K: term.weight_K, decayRate_per_s: 0 }]
         for (const sol of term.solutions) {
           const own = sol.pointSeries(at)[s - term.from]!
-          products = products.flatMap((p) => own.terms.map((u) => ({ amplitude_K: (p.amplitude_K * u.amplitude_K) / term.scale_K, decayRate_per_s: p.decayRate_per_s + u.decayRate_per_s })))
+          products = products.flatMap((p) =>
+            own.terms.map((u) => ({ amplitude_K: (p.amplitude_K * u.amplitude_K) / term.scale_K, decayRate_per_s: p.decayRate_per_s + u.decayRate_per_s })),
+          )
         }
         return products
       })

@@ -17,9 +17,25 @@ export function resolveDemo({ material, stages, ...rest }: (typeof DEMO_PLANS)[n
   return {
     ...spec,
     library: {
-      material: { id: 1, name: m.name, k_W_mK: m.k_W_mK, density_kg_m3: m.density_kg_m3, specificHeat_J_kgK: m.specificHeat_J_kgK, gradedProfile: m.gradedProfile, source: m.source },
-      quenchants: media.map((q, i) => ({ id: 100 + i, name: q.name, kind: q.kind, hLow_W_m2K: q.hLow_W_m2K, hTypical_W_m2K: q.hTypical_W_m2K, hHigh_W_m2K: q.hHigh_W_m2K, bath_C: q.bath_C, source: q.source })),
+      material: {
+        id: 1,
+        name: m.name,
+        k_W_mK: m.k_W_mK,
+        density_kg_m3: m.density_kg_m3,
+        specificHeat_J_kgK: m.specificHeat_J_kgK,
+        gradedProfile: m.gradedProfile,
+        source: m.source,
+      },
+      quenchants: media.map((q, i) => ({
+        id: 100 + i,
+        name: q.name,
+        kind: q.kind,
+        hLow_W_m2K: q.hLow_W_m2K,
+        hTypical_W_m2K: q.hTypical_W_m2K,
+        hHigh_W_m2K: q.hHigh_W_m2K,
+        bath_C: q.bath_C,
+        source: q.source,
+      })),
     },
   }
 }
-

@@ -27,7 +27,8 @@ const quenchant = {
 
 describe('material input', () => {
   it('fills the optional fields with null', () => {
-    expect(materialInputSchema.parse(material)).toEqual({ ...material, propertiesAt_C: null, gradedProfile: null, propertyTable: null, propertyTableSource: null, notes: null })
+    const defaults = { propertiesAt_C: null, gradedProfile: null, propertyTable: null, propertyTableSource: null, notes: null }
+    expect(materialInputSchema.parse(material)).toEqual({ ...material, ...defaults })
   })
 
   it.each([
@@ -70,7 +71,11 @@ describe('quenchant input', () => {
   })
 
   const curve = (points: [number, number][]) => points.map(([T_C, h]) => ({ T_C, h }))
-  const curves = { low: curve([[60, 300], [500, 2000], [800, 400]]), typical: curve([[60, 400], [500, 3000], [800, 500]]), high: curve([[60, 500], [500, 4000], [800, 600]]) }
+  const curves = {
+    low: curve([[60, 300], [500, 2000], [800, 400]]),
+    typical: curve([[60, 400], [500, 3000], [800, 500]]),
+    high: curve([[60, 500], [500, 4000], [800, 600]]),
+  }
 
   it('accepts cooling curves with their source, and an emissivity on air with curves', () => {
     expect(quenchantInputSchema.parse({ ...quenchant, coolingCurves: curves, curveSource: 'probe test' }).coolingCurves).toEqual(curves)

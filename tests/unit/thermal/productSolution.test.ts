@@ -210,4 +210,3 @@ describe('product solution with a different surrounding temperature per stage (s
     expect(checkProduct(input, [20, 40, 60, 300, run.targetTime_s])).toBeLessThan(0.2)
   }, 60_000)
 })
-
