@@ -16,6 +16,8 @@ import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { Boundary, CooldownProblem, TemperaturePoint } from './types'
 import { solveUniformSymmetric } from './uniformSolution'
+import { constantLimit } from './constantLimit'
+import { solveTemperatureDependent } from './temperatureDependent'
 
 /** Where a temperature is read: a named place, or x as a fraction of length_m. */
 export type PointRef = 'centre' | 'surface' | 'mean' | { x: number }
@@ -45,6 +47,10 @@ export interface StageSummary {
   /** h L / k_ref at the surface (null when fixed); innerBiot likewise for a slab face. */
   biot: number | null
   innerBiot?: number | null
+  /** Temperature-dependent stages only: the method, its error estimate and sub-step count (runCase names the series otherwise). */
+  method?: string
+  estimatedError_K?: number
+  subSteps?: number
 }
 
 export interface CooldownSolution {
@@ -92,12 +98,16 @@ export function profileAt(points: TemperaturePoint[], x: number): number {
 /**
  * Uniform bodies with a symmetric centre and a uniform start take the fast path
  * (uniformSolution.ts), which gives the same result with less set-up; every other
- * body the general one below.
+ * body the general one below. Temperature-dependent tables go to the sub-step
+ * series of temperatureDependent.ts; flat ones are constants and stay here.
  */
 export function solveCooldown(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
   const accuracy = options.accuracy_K
   if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
-  const domain = scaleDomain(problem.domain)
+  const linear = constantLimit(problem)
+  if (!linear) return solveTemperatureDependent(problem, options)
+  const domain = scaleDomain(linear.domain)
+  problem = linear
   return solveUniformSymmetric(problem, domain, options, MAX_MODES_ANALYTIC) ?? solveBySeries(problem, domain, options)
 }
 
