@@ -42,7 +42,7 @@ export const auditLog = mysqlTable(
 export type UserRow = typeof users.$inferSelect
 
 /**
- * Recent failed sign-ins per e-mail address (server/utils/signInThrottle.ts), kept in
+ * Recent failed sign-ins per e-mail address (server/accounts/signInThrottle.ts), kept in
  * the database so that neither a restart nor a second server process resets the brake.
  */
 export const signInFailures = mysqlTable('sign_in_failures', {

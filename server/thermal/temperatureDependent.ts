@@ -28,7 +28,7 @@
  * (tests/unit/thermal/temperatureDependent.test.ts).
  */
 import { pointValue, type PointStage } from '../../shared/pointSeries'
-import { profileAt, type CooldownSolution, type PointRef, type SolveOptions, type StageSummary } from './solveCooldown'
+import { profileAt } from './solveCooldown'
 import { interpolate, materialCurves } from './propertyTable'
 import { propertiesAt, scaleDomain } from './properties'
 import {
@@ -46,7 +46,7 @@ import {
 import type { StageSeries } from './series'
 import { surfaceLaw, type SurfaceLaw } from './surfaceCurve'
 import { firstCrossing, type TargetSpec } from './targetTime'
-import type { Boundary, CooldownProblem } from './types'
+import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOptions, StageSummary } from './types'
 
 /** Accepted difference between the two corrector passes per sub-step at the default accuracy. */
 const STEP_TOLERANCE_K = 0.01
@@ -233,7 +233,7 @@ function modesFor(tauMin: number): number {
 }
 
 /** The coldest and hottest temperatures in the data: start, surroundings and fixed faces. */
-function temperatureBounds(problem: CooldownProblem): { min: number; max: number } {
+function temperatureBounds(problem: CooldownProblem): { min: number, max: number } {
   const initial = problem.initial
   const temps = typeof initial === 'number' ? [initial] : initial.map((p) => p.T_C)
   for (const stage of problem.stages)
@@ -318,7 +318,7 @@ function valueAt(step: SubStep, t_s: number, x: number): number {
 }
 
 /** Volume-mean weights of the basis, ∫x^m φ_j / ∫x^m, and of the lift. */
-function meanWeights(basis: ModalBasis): { phi: Float64Array; lift: number } {
+function meanWeights(basis: ModalBasis): { phi: Float64Array, lift: number } {
   const q = basis.nodes.length
   let total = 0
   let moment = 0
@@ -362,7 +362,8 @@ class SubStepSolution implements CooldownSolution {
     return (this.series ??= this.steps.map((step): StageSeries => {
       const n = step.basis.count
       const steady = (x: number) => valueAtCoefficients(step.basis, step.series.steady, x)
-      const shapes = Array.from({ length: n }, (_, j) => (x: number) => valueAtCoefficients(step.basis, step.series.modeVectors.subarray(j * n, (j + 1) * n), x, false))
+      const modeVector = (j: number) => step.series.modeVectors.subarray(j * n, (j + 1) * n)
+      const shapes = Array.from({ length: n }, (_, j) => (x: number) => valueAtCoefficients(step.basis, modeVector(j), x, false))
       const rates = Array.from(step.series.rates_per_s)
       const weights = meanWeights(step.basis)
       return {
@@ -440,7 +441,10 @@ class SubStepSolution implements CooldownSolution {
     const rebased: PointStage = {
       ...first,
       start_s: from,
-      terms: first.terms.map((term) => ({ amplitude_K: term.amplitude_K * Math.exp(-term.decayRate_per_s * (from - first.start_s)), decayRate_per_s: term.decayRate_per_s })),
+      terms: first.terms.map(({ amplitude_K, decayRate_per_s }) => ({
+        amplitude_K: amplitude_K * Math.exp(-decayRate_per_s * (from - first.start_s)),
+        decayRate_per_s,
+      })),
     }
     const held: PointStage[] = from > 0 ? [{ start_s: 0, end_s: from, steady_C: start, terms: [] }] : []
     return firstCrossing([...held, from > first.start_s ? rebased : first, ...rest], start, target)

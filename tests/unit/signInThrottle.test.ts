@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { throttleDelayMs } from '../../server/utils/signInThrottle'
+import { throttleDelayMs } from '../../server/accounts/signInThrottle'
 
 describe('sign-in throttle', () => {
   const last = new Date('2026-12-02T08:00:00Z')

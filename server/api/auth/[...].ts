@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { NuxtAuthHandler } from '#auth'
 import { signInSchema } from '../../../shared/schemas/user'
 import { users } from '../../db/schema'
+import { clearSignInFailures, noteSignInFailure, signInDelayMs } from '../../accounts/signInThrottle'
 
 // The provider ships as CommonJS; its default export sits one level down under ESM.
 const Credentials = ((CredentialsProvider as unknown as { default?: typeof CredentialsProvider }).default ?? CredentialsProvider)

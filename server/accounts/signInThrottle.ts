@@ -8,6 +8,7 @@
  */
 import { eq, sql } from 'drizzle-orm'
 import { signInFailures } from '../db/schema'
+import { useDb } from '../utils/db'
 
 const FREE_ATTEMPTS = 3
 const BASE_DELAY_MS = 500

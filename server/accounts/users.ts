@@ -1,10 +1,12 @@
 import { asc, eq } from 'drizzle-orm'
+import { createError } from 'h3'
 import type { PublicUser } from '../../shared/types/user'
 import type { UserCreate, UserUpdate } from '../../shared/schemas/user'
 import { users, type UserRow } from '../db/schema'
-import { recordAudit } from './audit'
-import { isDuplicateKey } from './dbErrors'
-import { hashPassword } from './password'
+import { recordAudit } from '../utils/audit'
+import { isDuplicateKey } from '../utils/dbErrors'
+import { hashPassword } from '../utils/password'
+import { useDb } from '../utils/db'
 
 export function toPublicUser(row: UserRow): PublicUser {
   return {
