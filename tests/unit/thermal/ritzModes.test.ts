@@ -34,7 +34,15 @@ describe('Ritz modes of a frozen uniform body', () => {
     const q = basis.nodes.length
     const series = frozenSeries(
       basis,
-      { length_m: L, k_W_mK: new Float64Array(q).fill(k), rhoCp_J_m3K: new Float64Array(q).fill(rhoCp), outerH_W_m2K: (bi * k) / L, outerAmbient_C: 20, innerH_W_m2K: 0, innerAmbient_C: 0 },
+      {
+        length_m: L,
+        k_W_mK: new Float64Array(q).fill(k),
+        rhoCp_J_m3K: new Float64Array(q).fill(rhoCp),
+        outerH_W_m2K: (bi * k) / L,
+        outerAmbient_C: 20,
+        innerH_W_m2K: 0,
+        innerAmbient_C: 0,
+      },
       projectOnto(basis, () => 820),
     )
     const rates = Array.from(series.rates_per_s).sort((a, b) => a - b)
