@@ -47,12 +47,12 @@ const PICARD_TOLERANCE_K = 1e-9
 const MAX_PICARD = 50
 
 /** A face of the domain as seen by the cells: no flux, a fixed temperature, or a surface law. */
-type Face = { type: 'symmetry' } | { type: 'fixed', T_C: number } | { type: 'convective', law: SurfaceLaw }
+type Face = { type: 'symmetry' } | { type: 'fixed'; T_C: number } | { type: 'convective'; law: SurfaceLaw }
 
 const faceOf = (b: Boundary): Face => (b.type === 'convective' ? { type: 'convective', law: surfaceLaw(b) } : b)
 
 /** Conductance (per unit area) from a cell centre through its half-cell r and the face condition, and the far temperature. */
-function faceLink(face: Face, halfRes: number, surface_C: number): { u: number, far_C: number } {
+function faceLink(face: Face, halfRes: number, surface_C: number): { u: number; far_C: number } {
   if (face.type === 'symmetry') return { u: 0, far_C: 0 }
   if (face.type === 'fixed') return { u: 1 / halfRes, far_C: face.T_C }
   return { u: 1 / (halfRes + 1 / face.law.effectiveH(surface_C)), far_C: face.law.ambient_C }

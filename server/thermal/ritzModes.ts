@@ -93,7 +93,7 @@ const biotOf = (kind: FaceKind, biot: number) => (kind === 'fixed' ? Infinity : 
  * no finite sum could follow a surface whose h_eff has moved away from it, and the
  * surface values would converge only like 1/N.
  */
-function basisFunctions(spec: BasisSpec): { roots: Float64Array, at: (x: number, out: Float64Array, slope?: Float64Array) => void, size: number } {
+function basisFunctions(spec: BasisSpec): { roots: Float64Array; at: (x: number, out: Float64Array, slope?: Float64Array) => void; size: number } {
   const { geometry, count } = spec
   const bi0 = biotOf(spec.inner, spec.innerBiot)
   const bi1 = biotOf(spec.outer, spec.outerBiot)

@@ -23,7 +23,7 @@ export interface CaseResult {
   target: { at: PointRef; below_C?: number; above_C?: number } | null
   /** x (fraction of size_m) read as "centre". */
   centreX: number
-  stages: (StageSummary & { method: string, estimatedError_K: number, pointSeries: PointStage, subStepSeries?: PointStage[] })[]
+  stages: (StageSummary & { method: string; estimatedError_K: number; pointSeries: PointStage; subStepSeries?: PointStage[] })[]
   table: { points: number[]; t_s: number[]; T_C: number[][] }
   profiles: { x: number[]; t_s: number[]; T_C: number[][] }
   curve: { t_s: number[]; centre_C: number[]; surface_C: number[]; mean_C: number[] }

@@ -238,7 +238,7 @@ function modesFor(tauMin: number): number {
 }
 
 /** The coldest and hottest temperatures in the data: start, surroundings and fixed faces. */
-function temperatureBounds(problem: CooldownProblem): { min: number, max: number } {
+function temperatureBounds(problem: CooldownProblem): { min: number; max: number } {
   const initial = problem.initial
   const temps = typeof initial === 'number' ? [initial] : initial.map((p) => p.T_C)
   for (const stage of problem.stages)
@@ -323,7 +323,7 @@ function valueAt(step: SubStep, t_s: number, x: number): number {
 }
 
 /** Volume-mean weights of the basis, ∫x^m φ_j / ∫x^m, and of the lift. */
-function meanWeights(basis: ModalBasis): { phi: Float64Array, lift: number } {
+function meanWeights(basis: ModalBasis): { phi: Float64Array; lift: number } {
   const q = basis.nodes.length
   let total = 0
   let moment = 0
