@@ -70,21 +70,3 @@ export function crackingWarning(curve: { centre_C: number[]; surface_C: number[]
     differences_K: { spread, limit },
   }
 }
-
-/** A table or curve read beyond its rows: the values there are the end rows held constant. */
-export function outsideRangeWarning(
-  kind: 'outside-table' | 'outside-curve',
-  field: string,
-  what: string,
-  covered: { from_C: number; to_C: number },
-  seen: { from_C: number; to_C: number },
-): PlanWarning | null {
-  const tolerance_K = 0.5
-  if (seen.from_C >= covered.from_C - tolerance_K && seen.to_C <= covered.to_C + tolerance_K) return null
-  return {
-    kind,
-    field,
-    text: `${what} covers {coveredFrom} to {coveredTo}, but this plan reads it from {seenFrom} to {seenTo}; beyond its ends the end values are held constant. Extend it, or treat the result with care.`,
-    temperatures_C: { coveredFrom: covered.from_C, coveredTo: covered.to_C, seenFrom: seen.from_C, seenTo: seen.to_C },
-  }
-}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { resolvedPlanSchema, type ResolvedPlan } from '../../shared/schemas/plan'
 import { computePlan } from '../../server/planning/computePlan'
-import { CRACKING_RULE, crackingWarning, handlingAtMediumWarning, outsideRangeWarning } from '../../server/planning/warnings'
+import { CRACKING_RULE, crackingWarning, handlingAtMediumWarning } from '../../server/planning/warnings'
 import { warningText, type PlanWarning } from '../../shared/planWarnings'
 
 const inC = (w: PlanWarning | null) => (w ? warningText(w, (c) => `${Math.round(c * 10) / 10} °C`, (k) => `${Math.round(k)} K`) : null)
@@ -67,15 +67,7 @@ describe('cracking rule (common practice, from memory)', () => {
   }, 30_000)
 })
 
-describe('tables and curves read outside their temperatures', () => {
-  it('warns when the plan reads beyond either end, with both ranges', () => {
-    const w = outsideRangeWarning('outside-table', 'materialId', 'The property table of AISI 304', { from_C: 26.85, to_C: 726.85 }, { from_C: 25, to_C: 1050 })
-    expect(inC(w)).toBe(
-      'The property table of AISI 304 covers 26.9 °C to 726.9 °C, but this plan reads it from 25 °C to 1050 °C; beyond its ends the end values are held constant. Extend it, or treat the result with care.',
-    )
-    expect(outsideRangeWarning('outside-curve', 'stages.0.quenchantId', 'x', { from_C: 20, to_C: 900 }, { from_C: 60, to_C: 850 })).toBeNull()
-  })
-
+describe('warning text in the user’s unit', () => {
   it('writes temperatures in °F when the user chose °F (°F = °C × 9/5 + 32)', () => {
     const w = handlingAtMediumWarning(20, { name: 'Water', bath_C: 20 })!
     expect(warningText(w, (c) => `${(c * 9) / 5 + 32} °F`, (k) => `${(k * 9) / 5} °F`)).toContain('68 °F')
