@@ -119,7 +119,7 @@ try {
     }
     console.log(
       `\n${BUSY} vs ${QUIET} loads: draw ${(busy.draw_ms / quiet.draw_ms).toFixed(2)}×, frame p95 ${(busy.frames.p95 / quiet.frames.p95).toFixed(2)}×; ` +
-        `frame p95 with ${BUSY} loads is ${(busy.frames.p95 / FRAME_MS).toFixed(2)}× the 60 Hz frame.`,
+      `frame p95 with ${BUSY} loads is ${(busy.frames.p95 / FRAME_MS).toFixed(2)}× the 60 Hz frame.`,
     )
   } finally {
     await browser.close()

@@ -9,7 +9,7 @@ import { formatInstant, formatSpan, formatTemperature } from './format'
 const { ink, temper, bath, alarm } = palette
 
 export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
 }
 
 const cell = `padding:6px 10px;border-bottom:1px solid ${ink[200]};text-align:left;vertical-align:top;`
@@ -41,27 +41,27 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
 
   const times = table(
     `<tr><th style="${headCell}">Span</th><th style="${headCell}">Planned</th><th style="${headCell}">Recorded</th></tr>` +
-      [
-        ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '—'],
-        ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, measuredOrDash(measured.soak_s)],
-        ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, measuredOrDash(measured.quenchDelay_s)],
-        [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), measuredOrDash(measured.quenchToRelease_s)],
-      ]
-        .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
-        .join(''),
+    [
+      ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '—'],
+      ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, measuredOrDash(measured.soak_s)],
+      ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, measuredOrDash(measured.quenchDelay_s)],
+      [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), measuredOrDash(measured.quenchToRelease_s)],
+    ]
+      .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
+      .join(''),
   )
 
   const deviations = sheet.deviations.length
     ? `<div style="background:${alarm[50]};border:1px solid ${alarm[400]};border-radius:6px;padding:10px 14px;color:${alarm[800]};font-size:14px;"><ul style="margin:0;padding-left:18px;">${sheet.deviations
-        .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
-        .join('')}</ul></div>`
+      .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
+      .join('')}</ul></div>`
     : `<p style="background:${bath[50]};border-radius:6px;padding:10px 14px;color:${bath[800]};font-size:14px;margin:0;">No deviations from the plan.</p>`
 
   const events = table(
     `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
-      sheet.events
-        .map((event) => `<tr><td style="${cell}white-space:nowrap;">${escapeHtml(formatInstant(event.at))}</td><td style="${cell}">${escapeHtml(RECORD_EVENT_LABELS[event.type])}${event.note ? ` — ${escapeHtml(event.note)}` : ''}</td><td style="${cell}">${escapeHtml(event.by)}</td></tr>`)
-        .join(''),
+    sheet.events
+      .map((event) => `<tr><td style="${cell}white-space:nowrap;">${escapeHtml(formatInstant(event.at))}</td><td style="${cell}">${escapeHtml(RECORD_EVENT_LABELS[event.type])}${event.note ? ` — ${escapeHtml(event.note)}` : ''}</td><td style="${cell}">${escapeHtml(event.by)}</td></tr>`)
+      .join(''),
   )
 
   const cautions = `<div style="background:${temper[50]};border-left:4px solid ${temper[400]};padding:10px 14px;color:${temper[800]};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions
