@@ -62,7 +62,8 @@ try {
   const perLane = Math.floor(WEEK / cycle_ms) - 1
   const lines = await benchLines(scratch.db, Math.ceil(BUSY / perLane))
   const week = (from: number, count: number, first: number) =>
-    Array.from({ length: count }, (_, i) => benchBatch(first + i, plan, lines[i % lines.length]!, from + Math.floor(i / lines.length) * cycle_ms + (i % 7) * 60_000))
+    Array.from({ length: count }, (_, i) =>
+      benchBatch(first + i, plan, lines[i % lines.length]!, from + Math.floor(i / lines.length) * cycle_ms + (i % 7) * 60_000))
   await insertBatches(scratch.db, [...week(monday + WEEK, QUIET, 1), ...week(monday + 2 * WEEK, BUSY, QUIET + 1)])
   console.log(`[bench] seeded ${QUIET} loads next week and ${BUSY} the week after on ${lines.length} furnaces, each with its own tank (scratch database ${scratch.name})`)
 
