@@ -4,6 +4,7 @@
  * ("stages.0.surface.h") through CaseError.
  */
 import { z } from 'zod'
+import { CASE_LIMITS, PHYSICAL, inRange, profileLimitIssues } from '../../shared/physicalBounds'
 import type { Boundary, CooldownProblem, PropertyPoint, Stage } from './types'
 
 export class CaseError extends Error {
@@ -17,11 +18,12 @@ export class CaseError extends Error {
 }
 
 const finite = z.number().finite()
-const positive = finite.positive()
+const temperature = inRange(PHYSICAL.temperature_C)
+const fraction = finite.min(0).max(1)
 
 /** { h, ambient_C } or { fixed_C }, checked field by field so errors name the field. */
 const surfaceSchema = z
-  .object({ h: positive.optional(), ambient_C: finite.optional(), fixed_C: finite.optional() })
+  .object({ h: inRange(PHYSICAL.heatTransfer_W_m2K).optional(), ambient_C: temperature.optional(), fixed_C: temperature.optional() })
   .strict()
   .superRefine((s, ctx) => {
     if (s.fixed_C !== undefined) {
@@ -33,28 +35,34 @@ const surfaceSchema = z
     if (s.ambient_C === undefined) ctx.addIssue({ code: 'custom', path: ['ambient_C'], message: 'a convective surface needs ambient_C' })
   })
 
-const profilePoint = z.object({ x: finite, k: positive, rhoCp: positive }).strict()
+const profilePoint = z.object({ x: finite, k: inRange(PHYSICAL.conductivity_W_mK), rhoCp: inRange(PHYSICAL.volumetricHeatCapacity_J_m3K) }).strict()
 
 const materialSchema = z
-  .object({ k: positive.optional(), rho: positive.optional(), cp: positive.optional(), profile: z.array(profilePoint).min(2).optional() })
+  .object({
+    k: inRange(PHYSICAL.conductivity_W_mK).optional(),
+    rho: inRange(PHYSICAL.density_kg_m3).optional(),
+    cp: inRange(PHYSICAL.specificHeat_J_kgK).optional(),
+    profile: z.array(profilePoint).min(2).max(CASE_LIMITS.profilePoints, `at most ${CASE_LIMITS.profilePoints} points`).optional(),
+  })
   .strict()
   .superRefine((mat, ctx) => {
     if (mat.profile) {
       if (mat.k !== undefined || mat.rho !== undefined || mat.cp !== undefined)
         ctx.addIssue({ code: 'custom', path: ['profile'], message: 'give either a profile or k, rho, cp' })
       tableIssues(mat.profile, ['profile'], ctx)
+      for (const issue of profileLimitIssues(mat.profile)) ctx.addIssue({ code: 'custom', path: ['profile', issue.index, issue.key], message: issue.message })
       return
     }
     for (const key of ['k', 'rho', 'cp'] as const)
       if (mat[key] === undefined) ctx.addIssue({ code: 'custom', path: [key], message: `a uniform material needs ${key} (> 0)` })
   })
 
-const stageSchema = z.object({ surface: surfaceSchema, duration_s: positive.optional() }).strict()
+const stageSchema = z.object({ surface: surfaceSchema, duration_s: inRange(PHYSICAL.stageDuration_s).optional() }).strict()
 
-const pointRef = z.union([z.enum(['centre', 'surface', 'mean']), z.object({ x: finite.min(0).max(1) }).strict()])
+const pointRef = z.union([z.enum(['centre', 'surface', 'mean']), z.object({ x: fraction }).strict()])
 
 const targetSchema = z
-  .object({ at: pointRef.default('centre'), below_C: finite.optional(), above_C: finite.optional() })
+  .object({ at: pointRef.default('centre'), below_C: temperature.optional(), above_C: temperature.optional() })
   .strict()
   .superRefine((t, ctx) => {
     if ((t.below_C === undefined) === (t.above_C === undefined))
@@ -64,15 +72,19 @@ const targetSchema = z
 export const caseSchema = z
   .object({
     geometry: z.enum(['slab', 'rod', 'sphere']),
-    size_m: positive,
+    size_m: inRange(PHYSICAL.engineSize_m),
     material: materialSchema,
-    initial_C: finite.optional(),
-    initialProfile: z.array(z.object({ x: finite, T_C: finite }).strict()).min(2).optional(),
+    initial_C: temperature.optional(),
+    initialProfile: z
+      .array(z.object({ x: finite, T_C: temperature }).strict())
+      .min(2)
+      .max(CASE_LIMITS.profilePoints, `at most ${CASE_LIMITS.profilePoints} points`)
+      .optional(),
     centre: z.union([z.literal('symmetry'), surfaceSchema]).default('symmetry'),
-    stages: z.array(stageSchema).min(1),
+    stages: z.array(stageSchema).min(1).max(CASE_LIMITS.stages, `at most ${CASE_LIMITS.stages} stages`),
     target: targetSchema.optional(),
-    points: z.array(finite.min(0).max(1)).optional(),
-    times_s: z.array(finite.nonnegative()).optional(),
+    points: z.array(fraction).max(CASE_LIMITS.readings, `at most ${CASE_LIMITS.readings} points`).optional(),
+    times_s: z.array(inRange(PHYSICAL.readingTime_s)).max(CASE_LIMITS.readings, `at most ${CASE_LIMITS.readings} times`).optional(),
     modes: z.number().int().min(1).max(400).optional(),
     check: z.literal('finite-difference').optional(),
   })
