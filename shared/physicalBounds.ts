@@ -25,7 +25,7 @@ export function rangeMessage(range: PhysicalRange): string {
 
 export const PHYSICAL = {
   /** A plan's part dimension. Common practice: foil-thin shims to the largest pit-furnace loads (from memory). */
-  partSize_m: { min: 1e-4, max: 5, minText: '0.1 mm', maxText: '5 m', what: "a part's thickness, diameter, length or side" },
+  partSize_m: { min: 1e-4, max: 5, minText: '0.1 mm', maxText: '5 m', what: 'a part’s thickness, diameter, length or side' },
   /** The engine's length: half a part's thickness or its radius, or a slab's full thickness when x = 0 is a face. */
   engineSize_m: { min: 5e-5, max: 5, minText: '0.05 mm', maxText: '5 m', what: 'a half-thickness or radius, or the full thickness of a slab with a face at x = 0' },
   /** From memory: scale and ceramic coatings near 1 W/m·K, steels 15–60, silver 429, the best metallic conductor. */
@@ -87,7 +87,7 @@ export function profileLimitIssues(points: readonly { x: number; k: number }[]):
     const b = points[i]!
     const ratio = Math.max(a.k / b.k, b.k / a.k)
     if (!(ratio <= CASE_LIMITS.conductivityJump))
-      issues.push({ index: i, key: 'k', message: `differs from the previous point's conductivity by more than ${CASE_LIMITS.conductivityJump}× (no real layer does)` })
+      issues.push({ index: i, key: 'k', message: `differs from the previous point’s conductivity by more than ${CASE_LIMITS.conductivityJump}× (no real layer does)` })
     if (b.x !== a.x && Math.abs(b.x - a.x) < CASE_LIMITS.profileSpacing)
       issues.push({ index: i, key: 'x', message: `must be the previous x (a jump) or at least ${CASE_LIMITS.profileSpacing} from it` })
   }
