@@ -5,17 +5,8 @@
  */
 import { z } from 'zod'
 import { CASE_LIMITS, PHYSICAL, inRange, profileLimitIssues } from '../../shared/physicalBounds'
+import { CaseError } from './errors'
 import type { Boundary, CooldownProblem, PropertyPoint, Stage } from './types'
-
-export class CaseError extends Error {
-  constructor(
-    readonly field: string,
-    message: string,
-  ) {
-    super(`${field}: ${message}`)
-    this.name = 'CaseError'
-  }
-}
 
 const finite = z.number().finite()
 const temperature = inRange(PHYSICAL.temperature_C)

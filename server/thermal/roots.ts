@@ -4,8 +4,10 @@
  * Brent's method (inverse quadratic interpolation guarded by bisection), as in
  * R. P. Brent, "Algorithms for Minimization without Derivatives" (1973), ch. 4.
  * Every root in this folder is found inside a bracket we constructed ourselves,
- * so the method never leaves [a, b] and always converges.
+ * so the method never leaves [a, b] and always converges; a non-finite f or the
+ * iteration cap is refused (EngineLimitError) rather than looped on.
  */
+import { EngineLimitError } from './errors'
 
 export interface BrentOptions {
   /** Absolute tolerance on the root (default 0). */
@@ -29,6 +31,7 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
   let fb = options.fb ?? f(b)
   if (fa === 0) return a
   if (fb === 0) return b
+  if (!Number.isFinite(fa) || !Number.isFinite(fb)) throw new EngineLimitError(`a root search met a non-finite value on [${a}, ${b}]`)
   if (!(fa * fb < 0)) throw new RangeError(`brent: no sign change on [${a}, ${b}] (f = ${fa}, ${fb})`)
   let c = a
   let fc = fa
@@ -78,6 +81,7 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
     fa = fb
     b += Math.abs(d) > tol ? d : mid > 0 ? tol : -tol
     fb = f(b)
+    if (!Number.isFinite(fb)) throw new EngineLimitError(`a root search met a non-finite value at ${b}`)
   }
-  throw new RangeError(`brent: no convergence in ${maxIterations} iterations near ${b}`)
+  throw new EngineLimitError(`a root search did not converge in ${maxIterations} iterations near ${b}`)
 }
