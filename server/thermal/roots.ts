@@ -22,6 +22,13 @@ export interface BrentOptions {
 
 const EPS = Number.EPSILON
 
+/*
+ * Signs compared directly: the product fa·fb underflows to zero for tiny values
+ * (5e-324 × −5e-324 = −0), which read as "no sign change" on a valid bracket.
+ */
+const opposite = (u: number, v: number) => (u < 0 && v > 0) || (u > 0 && v < 0)
+const same = (u: number, v: number) => (u < 0 && v < 0) || (u > 0 && v > 0)
+
 /** Solves f(x) = 0 for x in [a, b]; f(a) and f(b) must differ in sign. */
 export function brent(f: (x: number) => number, a: number, b: number, options: BrentOptions = {}): number {
   const xtol = options.xtol ?? 0
@@ -32,13 +39,13 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
   if (fa === 0) return a
   if (fb === 0) return b
   if (!Number.isFinite(fa) || !Number.isFinite(fb)) throw new EngineLimitError(`a root search met a non-finite value on [${a}, ${b}]`)
-  if (!(fa * fb < 0)) throw new RangeError(`brent: no sign change on [${a}, ${b}] (f = ${fa}, ${fb})`)
+  if (!opposite(fa, fb)) throw new RangeError(`brent: no sign change on [${a}, ${b}] (f = ${fa}, ${fb})`)
   let c = a
   let fc = fa
   let d = b - a
   let e = d
   for (let i = 0; i < maxIterations; i++) {
-    if (fb * fc > 0) {
+    if (same(fb, fc)) {
       c = a
       fc = fa
       d = b - a
