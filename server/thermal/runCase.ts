@@ -80,6 +80,7 @@ function solveCase(c: Case, options: RunOptions): CaseResult {
     end_s = curveEnd(solution, c, starts, targetTime)
   }
   if (target && targetTime === null) unreachable(solution, at, c)
+  options.deadline?.check()
 
   const centre = solution.pointSeries('centre')
   const surface = solution.pointSeries('surface')

@@ -220,6 +220,7 @@ function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: num
   const means: number[] = []
   const terms: number[] = []
   for (const mode of modes) {
+    input.deadline?.check()
     const { mass, norm, peak } = modeIntegrals(domain, mode)
     let projection = (startSteady - steady) * mass
     if (typeof input.start !== 'number') for (const term of (input.startModes as ModalStart).terms) projection += term.amplitude_K * modeOverlap(domain, term.mode, mode)
