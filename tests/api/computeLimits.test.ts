@@ -39,7 +39,7 @@ async function expectHealthy() {
   expect(health.status).toBe(200)
 }
 
-const fields = (body: any) => body.data.problems.map((p: { field: string }) => p.field)
+const fields = (body: { data: { problems: { field: string }[] } }) => body.data.problems.map((p) => p.field)
 
 describe('previews that hung or held the server now answer', () => {
   it.each(['operator', 'qa', 'metallurgist'] as const)('a plate 1e-300 m thick from %s: 400 naming part.thickness_m within 5 s, then /api/health answers', async (role) => {

@@ -37,4 +37,3 @@ describe('the command line refuses the findings with field: message and exit 2',
     }
   }, 600_000)
 })
-

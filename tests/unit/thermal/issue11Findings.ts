@@ -7,6 +7,10 @@
 export const ANSWER_WITHIN_MS = 5000
 
 const steel = { k: 40, rho: 7850, cp: 475 }
+/** A two-layer section: conductivity k1 to x = 0.5, k2 beyond (a jump at 0.5). */
+const layered = (k1: number, k2: number) => ({
+  profile: [{ x: 0, k: k1, rhoCp: 3.7e6 }, { x: 0.5, k: k1, rhoCp: 3.7e6 }, { x: 0.5, k: k2, rhoCp: 3.7e6 }, { x: 1, k: k2, rhoCp: 3.7e6 }],
+})
 const oilThenAir = [{ surface: { h: 800, ambient_C: 60 }, duration_s: 180 }, { surface: { h: 15, ambient_C: 25 } }]
 
 /** The findings as engine cases, each with the field its refusal must name. */
@@ -41,7 +45,7 @@ export const FINDINGS: { name: string; input: Record<string, unknown>; field: st
     input: {
       geometry: 'slab',
       size_m: 0.02,
-      material: { profile: [{ x: 0, k: 1e-6, rhoCp: 3.7e6 }, { x: 0.5, k: 1e-6, rhoCp: 3.7e6 }, { x: 0.5, k: 1e6, rhoCp: 3.7e6 }, { x: 1, k: 1e6, rhoCp: 3.7e6 }] },
+      material: layered(1e-6, 1e6),
       initial_C: 850,
       stages: oilThenAir,
       target: { below_C: 100 },
@@ -54,7 +58,7 @@ export const FINDINGS: { name: string; input: Record<string, unknown>; field: st
     input: {
       geometry: 'slab',
       size_m: 0.02,
-      material: { profile: [{ x: 0, k: 0.1, rhoCp: 3.7e6 }, { x: 0.5, k: 0.1, rhoCp: 3.7e6 }, { x: 0.5, k: 400, rhoCp: 3.7e6 }, { x: 1, k: 400, rhoCp: 3.7e6 }] },
+      material: layered(0.1, 400),
       initial_C: 850,
       stages: oilThenAir,
       target: { below_C: 100 },
@@ -76,4 +80,3 @@ export const FINDINGS: { name: string; input: Record<string, unknown>; field: st
     message: /at most 64 points/,
   },
 ]
-

@@ -117,6 +117,9 @@ const temperature = linearIn(PHYSICAL.temperature_C)
 
 const uniformMaterial = fc.record({ k: logIn(PHYSICAL.conductivity_W_mK), rho: logIn(PHYSICAL.density_kg_m3), cp: logIn(PHYSICAL.specificHeat_J_kgK) })
 
+/** Largest log-ratio of neighbouring conductivities. */
+const JUMP = Math.log(CASE_LIMITS.conductivityJump)
+
 /** Interior x of a drawn profile: each may be doubled as a jump, so the profile has up to 2 + 2 × 31 = 64 points. */
 const INTERIOR = (CASE_LIMITS.profilePoints - 2) / 2
 
@@ -131,7 +134,7 @@ const gradedMaterial = fc
     grid: fc.uniqueArray(fc.integer({ min: 1, max: 999 }), { maxLength: INTERIOR }),
     jumps: fc.array(fc.boolean(), { minLength: INTERIOR, maxLength: INTERIOR }),
     k0: logIn(PHYSICAL.conductivity_W_mK),
-    steps: fc.array(fc.double({ min: -Math.log(CASE_LIMITS.conductivityJump), max: Math.log(CASE_LIMITS.conductivityJump), noNaN: true }), { minLength: 64, maxLength: 64 }),
+    steps: fc.array(fc.double({ min: -JUMP, max: JUMP, noNaN: true }), { minLength: 64, maxLength: 64 }),
     rhoCp: fc.array(logIn(PHYSICAL.volumetricHeatCapacity_J_m3K), { minLength: 64, maxLength: 64 }),
   })
   .map(({ grid, jumps, k0, steps, rhoCp }) => {
