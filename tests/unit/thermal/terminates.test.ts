@@ -152,7 +152,42 @@ const gradedMaterial = fc
     }
   })
 
-const convective = fc.record({ h: logIn(PHYSICAL.heatTransfer_W_m2K), ambient_C: temperature })
+/** Strictly increasing temperatures of a table or curve, 1 K apart at least, up to CASE_LIMITS.profilePoints of them. */
+const increasingTemperatures = (minLength: number) =>
+  fc
+    .uniqueArray(fc.integer({ min: PHYSICAL.temperature_C.min, max: PHYSICAL.temperature_C.max }), { minLength, maxLength: CASE_LIMITS.profilePoints })
+    .map((ts) => ts.sort((a, b) => a - b))
+
+/** A k(T), ρ(T), c_p(T) table; later rows may leave ρ out and carry the row above's. */
+const tableMaterial = increasingTemperatures(2).chain((temps) =>
+  fc.record({
+    table: fc.tuple(
+      ...temps.map((T_C, i) =>
+        fc.record({
+          T_C: fc.constant(T_C),
+          k: logIn(PHYSICAL.conductivity_W_mK),
+          cp: logIn(PHYSICAL.specificHeat_J_kgK),
+          rho: i === 0 ? logIn(PHYSICAL.density_kg_m3) : fc.option(logIn(PHYSICAL.density_kg_m3), { nil: undefined }),
+        }),
+      ),
+    ),
+  }),
+)
+
+const hCurve = increasingTemperatures(3).chain((temps) => fc.tuple(...temps.map((T_C) => fc.record({ T_C: fc.constant(T_C), h: logIn(PHYSICAL.heatTransfer_W_m2K) }))))
+
+/** h or an h(T_s) curve, with a radiating surface now and then. */
+const convective = fc
+  .record({
+    h: fc.oneof({ arbitrary: logIn(PHYSICAL.heatTransfer_W_m2K), weight: 3 }, { arbitrary: hCurve, weight: 1 }),
+    ambient_C: temperature,
+    emissivity: fc.option(fc.double({ min: 0, max: 1, noNaN: true }), { nil: undefined, freq: 3 }),
+  })
+  .map(({ h, emissivity, ambient_C }) => ({
+    ...(typeof h === 'number' ? { h } : { hCurve: h }),
+    ambient_C,
+    ...(emissivity === undefined ? {} : { emissivity }),
+  }))
 const surface = fc.oneof({ arbitrary: convective, weight: 4 }, { arbitrary: fc.record({ fixed_C: temperature }), weight: 1 })
 const duration = logIn(PHYSICAL.stageDuration_s)
 
@@ -160,7 +195,7 @@ const drawnCase = fc
   .record({
     geometry: fc.constantFrom('slab', 'rod', 'sphere'),
     size_m: logIn(PHYSICAL.engineSize_m),
-    material: fc.oneof(uniformMaterial, gradedMaterial),
+    material: fc.oneof(uniformMaterial, gradedMaterial, tableMaterial),
     initial_C: temperature,
     stages: fc.array(fc.record({ surface, duration_s: duration }), { minLength: 1, maxLength: CASE_LIMITS.stages }),
     faceCentre: fc.option(surface, { nil: undefined }),
@@ -199,7 +234,7 @@ function parseable(input: unknown): boolean {
 }
 
 describe('every case in the accepted range ends', () => {
-  it('answers within 5 s with finite numbers or a field: message (uniform and graded, slab, rod and sphere, one to six stages, convective and fixed surfaces)', () => {
+  it('answers within 5 s with finite numbers or a field: message (uniform, graded and tabled materials, slab, rod and sphere, one to six stages, fixed surfaces and convective ones with h or an h curve and radiation)', () => {
     let acceptedBySchema = 0
     fc.assert(
       fc.property(drawnCase, (input) => {
