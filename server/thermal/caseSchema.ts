@@ -46,7 +46,12 @@ const profilePoint = z.object({ x: finite, k: inRange(PHYSICAL.conductivity_W_mK
 
 /** A material table row; rho may be left out after the first row, which then carries the row above's. */
 const tableRow = z
-  .object({ T_C: temperature, k: inRange(PHYSICAL.conductivity_W_mK), rho: inRange(PHYSICAL.density_kg_m3).optional(), cp: inRange(PHYSICAL.specificHeat_J_kgK) })
+  .object({
+    T_C: temperature,
+    k: inRange(PHYSICAL.conductivity_W_mK),
+    rho: inRange(PHYSICAL.density_kg_m3).optional(),
+    cp: inRange(PHYSICAL.specificHeat_J_kgK),
+  })
   .strict()
 
 const materialSchema = z

@@ -174,7 +174,9 @@ const tableMaterial = increasingTemperatures(2).chain((temps) =>
   }),
 )
 
-const hCurve = increasingTemperatures(3).chain((temps) => fc.tuple(...temps.map((T_C) => fc.record({ T_C: fc.constant(T_C), h: logIn(PHYSICAL.heatTransfer_W_m2K) }))))
+const hCurve = increasingTemperatures(3).chain((temps) =>
+  fc.tuple(...temps.map((T_C) => fc.record({ T_C: fc.constant(T_C), h: logIn(PHYSICAL.heatTransfer_W_m2K) }))),
+)
 
 /** h or an h(T_s) curve, with a radiating surface now and then. */
 const convective = fc
