@@ -31,7 +31,7 @@ export async function startMailCatcher(smtpPort: number, webPort: number): Promi
 }
 
 /** A built server on `port`; its DATABASE_URL lists the nodes in the order it should prefer them. */
-export async function startInstance(port: number, env: NodeJS.ProcessEnv, log: string[]): Promise<ChildProcess> {
+export async function startInstance(port: number, env: Record<string, string>, log: string[]): Promise<ChildProcess> {
   const child = spawn('node', ['.output/server/index.mjs'], { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], env: { ...process.env, ...env, PORT: String(port), NITRO_HOST: '127.0.0.1', NODE_ENV: 'production' } })
   child.stderr!.setEncoding('utf8').on('data', (text: string) => log.push(...text.trim().split('\n').map((line) => `[:${port}] ${line}`)))
   await waitForUrl(`http://127.0.0.1:${port}/api/health`, `The app instance on port ${port}`)
