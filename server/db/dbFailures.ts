@@ -41,7 +41,9 @@ export function isWriteConflict(error: unknown): boolean {
 
 /** The statement never ran: it is safe to send it to another node. */
 export function neverReachedNode(error: unknown): boolean {
-  return layers(error).some((layer) => layer.errno === NODE_NOT_READY_ERRNO || (layer.code !== undefined && CONNECT_CODES.has(layer.code)) || closedBeforeSending(layer))
+  return layers(error).some(
+    (layer) => layer.errno === NODE_NOT_READY_ERRNO || (layer.code !== undefined && CONNECT_CODES.has(layer.code)) || closedBeforeSending(layer),
+  )
 }
 
 /** The node cannot serve now (down, unreachable, not synced, or its connection died): use another for a while. */

@@ -13,7 +13,7 @@ describe('database error classes', () => {
     ['node not synced', driver({ errno: 1047, code: 'ER_UNKNOWN_COM_ERROR', message: 'WSREP has not yet prepared node for application use' }), false, true, true],
     ['connection refused', driver({ code: 'ECONNREFUSED' }), false, true, true],
     ['connect timeout', driver({ code: 'ETIMEDOUT' }), false, true, true],
-    ['connection closed before the command', driver({ fatal: true, message: "Can't add new command when connection is in closed state" }), false, true, true],
+    ['connection closed before the command', driver({ fatal: true, message: 'Can\'t add new command when connection is in closed state' }), false, true, true],
     ['connection lost mid-statement', driver({ code: 'PROTOCOL_CONNECTION_LOST', fatal: true }), false, true, false],
     ['server shutting down', driver({ errno: 1053, code: 'ER_SERVER_SHUTDOWN' }), false, true, false],
     ['duplicate key', driver({ errno: 1062, code: 'ER_DUP_ENTRY' }), false, false, false],

@@ -19,7 +19,8 @@ function fakeNode(name: string) {
     execute: answer,
     async getConnection() {
       if (state.failure) throw state.failure()
-      return { query: answer, execute: answer, destroy: () => void (state.destroyed += 1), release: () => void (state.released += 1) } as unknown as PoolConnection
+      const connection = { query: answer, execute: answer, destroy: () => void (state.destroyed += 1), release: () => void (state.released += 1) }
+      return connection as unknown as PoolConnection
     },
     async end() {},
   } as unknown as NodePool
