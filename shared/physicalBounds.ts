@@ -62,8 +62,10 @@ export const CASE_LIMITS = {
   conductivityJump: 1000,
   /** Distinct x of a profile closer than this are a jump written badly, not a layer. */
   profileSpacing: 1e-4,
-  /** Table points and reading times of a command-line case. */
-  readings: 200,
+  /** Points read in a command-line case's table. */
+  readingPoints: 200,
+  /** Times read: a probe log replayed at 10 Hz for a quarter of an hour (server/measurements). */
+  readingTimes: 10000,
 } as const
 
 /**

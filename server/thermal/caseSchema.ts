@@ -102,8 +102,8 @@ export const caseSchema = z
     centre: z.union([z.literal('symmetry'), surfaceSchema]).default('symmetry'),
     stages: z.array(stageSchema).min(1).max(CASE_LIMITS.stages, `at most ${CASE_LIMITS.stages} stages`),
     target: targetSchema.optional(),
-    points: z.array(fraction).max(CASE_LIMITS.readings, `at most ${CASE_LIMITS.readings} points`).optional(),
-    times_s: z.array(inRange(PHYSICAL.readingTime_s)).max(CASE_LIMITS.readings, `at most ${CASE_LIMITS.readings} times`).optional(),
+    points: z.array(fraction).max(CASE_LIMITS.readingPoints, `at most ${CASE_LIMITS.readingPoints} points`).optional(),
+    times_s: z.array(inRange(PHYSICAL.readingTime_s)).max(CASE_LIMITS.readingTimes, `at most ${CASE_LIMITS.readingTimes} times`).optional(),
     modes: z.number().int().min(1).max(400).optional(),
     check: z.literal('finite-difference').optional(),
   })
