@@ -25,7 +25,9 @@
  * for stages with different surroundings against the long-body 1-D limit and
  * Crank–Nicolson products.
  */
-import { CaseError, caseToProblem, parseCase } from './caseSchema'
+import { caseToProblem, parseCase } from './caseSchema'
+import type { Deadline } from './deadline'
+import { CaseError } from './errors'
 import { solveCrankNicolson } from './crankNicolson'
 import { brent } from './roots'
 import { CURVE_POINTS, FIRST_PASS_FO, PROFILE_X, curveTimes, stageStarts } from './runCase'
@@ -108,7 +110,7 @@ interface Superposition {
  */
 const UNDISTURBED_FO = 0.002
 
-function superpose(input: ProductInput, earliest: (size_m: number) => number): Superposition {
+function superpose(input: ProductInput, earliest: (size_m: number) => number, deadline: Deadline | undefined): Superposition {
   const starts = stageStarts(input.stages)
   const ambients = input.stages.map((s) => s.ambient_C)
   const alpha = input.material.k / (input.material.rho * input.material.cp)
@@ -121,6 +123,7 @@ function superpose(input: ProductInput, earliest: (size_m: number) => number): S
     solutions: input.body.directions.map((d, i) =>
       solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, from, weight_K || 1))), {
         earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!),
+        deadline,
       }),
     ),
   })
@@ -173,19 +176,19 @@ function surfaceTemperature(sp: Superposition, n: number, t: number): number {
   return a + best
 }
 
-export function runProduct(input: ProductInput, options: { times_s?: number[] } = {}): ModelRun {
+export function runProduct(input: ProductInput, options: { times_s?: number[]; deadline?: Deadline } = {}): ModelRun {
   const alpha = input.material.k / (input.material.rho * input.material.cp)
   const sizes = input.body.directions.map((d) => d.size_m)
   const shortest = Math.min(...sizes)
   const goal = input.target.below_C ?? (input.target.above_C as number)
   // A cheap first pass (accurate from FIRST_PASS_FO of each direction) finds the target; the second is accurate from the first curve sample.
   const firstPass_s = (L: number) => (FIRST_PASS_FO * L * L) / alpha
-  let sp = superpose(input, firstPass_s)
+  let sp = superpose(input, firstPass_s, options.deadline)
   let targetTime = crossing(sp, input, goal, shortest, alpha)
   const end_s = 1.25 * targetTime
   farDirections(input, alpha, end_s)
   const firstSample = Math.min(end_s / CURVE_POINTS, ...(options.times_s ?? []).filter((t) => t > 0))
-  sp = superpose(input, (L) => Math.min(firstPass_s(L), firstSample))
+  sp = superpose(input, (L) => Math.min(firstPass_s(L), firstSample), options.deadline)
   targetTime = crossing(sp, input, goal, shortest, alpha)
 
   const n = input.body.directions.length
@@ -321,16 +324,16 @@ function productSeries(sp: Superposition, stages: ProductInput['stages'], at: 'c
  * times; the product's difference is at most the sum of the factors' differences, each
  * in K at its term's scale.
  */
-export function checkProduct(input: ProductInput, times_s: number[]): number {
+export function checkProduct(input: ProductInput, times_s: number[], deadline?: Deadline): number {
   const alpha = input.material.k / (input.material.rho * input.material.cp)
-  const sp = superpose(input, (L) => Math.min((FIRST_PASS_FO * L * L) / alpha, ...times_s.filter((t) => t > 0)))
+  const sp = superpose(input, (L) => Math.min((FIRST_PASS_FO * L * L) / alpha, ...times_s.filter((t) => t > 0)), deadline)
   const xs = [0, 0.5, 1]
   return sp.terms.reduce((total, term) => {
     const own = times_s.map((t) => t - term.start_s).filter((tau) => tau > 0)
     if (own.length === 0) return total
     const factorsDifference = input.body.directions.reduce((sum, d, i) => {
       const problem = caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, term.from, term.scale_K)))
-      const fd = solveCrankNicolson(problem, { times_s: own, points: xs })
+      const fd = solveCrankNicolson(problem, { times_s: own, points: xs, deadline })
       let max = 0
       fd.t_s.forEach((t, a) => xs.forEach((x, b) => (max = Math.max(max, Math.abs(fd.T_C[a]![b]! - term.solutions[i]!.evaluate(t, x))))))
       return sum + max

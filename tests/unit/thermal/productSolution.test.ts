@@ -95,7 +95,9 @@ describe('product solution of short cylinders and blocks', () => {
   it('short brass cylinder, D = 10 cm, H = 12 cm, 120 °C into 25 °C air at h = 60: centre ≈ 62.8 °C after 15 min (Çengel, Heat and Mass Transfer, worked example, quoted from memory; ±0.5 K for one-term table precision)', () => {
     const alpha = 3.39e-5
     const k = 110
-    const input = steelInput([rod(0.05), slab(0.06, 'length')], 60, { k, rho: k / alpha, cp: 1 }, 120, 25)
+    // Brass ρ ≈ 8530 kg/m³ (from memory); c_p follows from the example's k and α (≈ 380 J/kg·K).
+    const rho = 8530
+    const input = steelInput([rod(0.05), slab(0.06, 'length')], 60, { k, rho, cp: k / alpha / rho }, 120, 25)
     const T = centres(input, [15 * 60]).centre_C[0]!
     expect(Math.abs(T - 62.8)).toBeLessThan(0.5)
     // and the time to that temperature lands back on 15 min
@@ -179,11 +181,12 @@ describe('product solution with a different surrounding temperature per stage (s
     times.forEach((t, i) => expect(Math.abs(run.profiles.T_C[i]![0]! - cn.T_C[i]![0]!), `t=${t}`).toBeLessThan(0.05))
   })
 
-  // Bi = h L / k ≈ 1e-4: the body is lumped, T − a(t) decays as e^{−t/τ} per stage with τ = ρ c_p L / (3 h) for a cube of
-  // half-side L (V/A = L/3). Closed form (Incropera et al. §5.1, lumped capacitance), applied stage after stage.
-  it('a near-lumped cube through two stages with different surroundings matches the lumped closed form to 0.05 K', () => {
-    const L = 0.025
-    const material = { k: 4000, rho: 8900, cp: 385 }
+  // Bi = h L / k = 5e-4: the body is lumped, T − a(t) decays as e^{−t/τ} per stage with τ = ρ c_p L / (3 h) for a cube of
+  // half-side L (V/A = L/3). Closed form (Incropera et al. §5.1, lumped capacitance), applied stage after stage; its own
+  // error, about Bi/3 of the excess per time constant, stays under 0.1 K here.
+  it('a near-lumped cube through two stages with different surroundings matches the lumped closed form to 0.1 K', () => {
+    const L = 0.01
+    const material = { k: 400, rho: 8900, cp: 385 }
     const stages = [
       { h_W_m2K: 20, ambient_C: 200, duration_s: 600 },
       { h_W_m2K: 10, ambient_C: 20 },
@@ -193,9 +196,9 @@ describe('product solution with a different surrounding temperature per stage (s
     const lumped = (t: number) => (t <= 600 ? 200 + (800 - 200) * Math.exp(-t / tau(20)) : 20 + (atSwitch - 20) * Math.exp(-(t - 600) / tau(10)))
     const input: ProductInput = { body: { directions: [slab(L), slab(L, 'side 2'), slab(L, 'side 3')] }, material, initial_C: 800, stages, target: { at: 'mean', below_C: 100 } }
     const run = runProduct(input)
-    for (const t of [300, 600, 900, 3000, 7000]) {
+    for (const t of [300, 600, 900, 1500, 2800]) {
       const i = run.curve.t_s.findIndex((s) => s >= t)
-      expect(Math.abs(run.curve.mean_C[i]! - lumped(run.curve.t_s[i]!)), `t=${t}`).toBeLessThan(0.05)
+      expect(Math.abs(run.curve.mean_C[i]! - lumped(run.curve.t_s[i]!)), `t=${t}`).toBeLessThan(0.1)
     }
     expect(lumped(run.targetTime_s)).toBeCloseTo(100, 1)
   })
