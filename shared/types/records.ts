@@ -73,7 +73,7 @@ export type DeviationRule = (typeof DEVIATION_RULES)[number]
 
 export interface Deviation {
   rule: DeviationRule
-  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the predicted handling time. */
+  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the safe-to-handle time. */
   planned_s: number
   /** What the recorded events give for the same span. */
   actual_s: number

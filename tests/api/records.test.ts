@@ -122,7 +122,8 @@ describe('the record written on release', () => {
       tapped('furnace_opened', 'unloaded'),
       tapped('quenched', 'quenched'),
       predicted('cooling', clean.at.quenched! + Math.round(s.predicted.quench_s * 1000)),
-      predicted('ready_to_handle', clean.at.quenched! + Math.round(cleanPlan.summary.quenchToHandling_s * 1000)),
+      // Ready to handle at the booked, safe moment: the band's slow end, the one the release guard waits for.
+      predicted('ready_to_handle', clean.at.quenched! + Math.round(qth * 1000)),
       tapped('released', 'released'),
     ])
     expect(s.notRecorded).toEqual([])
@@ -162,11 +163,11 @@ describe('the record written on release', () => {
     expect(lateRecord.snapshot.measured.soak_s).toBe((late.at.unloaded! - late.at.soaking!) / 1000)
   })
 
-  it('release before the predicted handling time is refused (409) and writes no record; the release after it did', async () => {
+  it('release before the safe-to-handle time (the band’s slow end) is refused (409) and writes no record; the release after it did', async () => {
     // releaseLoad() asserted the early 409; here: exactly one record per released batch.
     const list = (await qa.request('/api/records?limit=500')).body as { batchId: number }[]
     for (const batchId of [clean.batchId, shortSoak.batchId, late.batchId]) expect(list.filter((r) => r.batchId === batchId)).toHaveLength(1)
-    expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.quenchToHandling_s * 1000))
+    expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.slowEndToHandling_s! * 1000))
   })
 })
 
