@@ -238,7 +238,7 @@ export interface StoredRecord {
  */
 export function checkIntegrity(row: StoredRecord, key: string | Buffer): { integrity: RecordIntegrity; problems: string[] } {
   const problems: string[] = []
-  let snapshotOk = false
+  let snapshotOk: boolean
   try {
     snapshotOk = verifyRecordSeal(row.snapshot, row.hash, key)
   } catch {
