@@ -12,7 +12,9 @@
  */
 import { createHash } from 'node:crypto'
 import { once } from 'node:events'
+import { existsSync } from 'node:fs'
 import { availableParallelism } from 'node:os'
+import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 
 export class JobTimeoutError extends Error {
@@ -64,6 +66,9 @@ const REPLACEMENT_WAIT_MS = 10_000
 export const defaultThreadCount = (): number => Math.max(1, availableParallelism() - 1)
 
 export function createJobPool(options: JobPoolOptions): JobPool {
+  // A missing entry would leave every job waiting for a thread that never loads: fail at start instead.
+  const entry = options.filename.startsWith('file:') ? fileURLToPath(options.filename) : options.filename
+  if (!existsSync(entry)) throw new Error(`Worker entry not found: ${entry}`)
   const threads = options.threads && options.threads > 0 ? Math.floor(options.threads) : defaultThreadCount()
   const maxQueue = options.maxQueue ?? 64
   const piscina = new Piscina({ filename: options.filename, minThreads: threads, maxThreads: threads })

@@ -19,6 +19,10 @@ describe('job pool', () => {
     expect(defaultThreadCount()).toBe(Math.max(1, availableParallelism() - 1))
   })
 
+  it('refuses to start without its worker entry, naming the file', () => {
+    expect(() => createJobPool({ filename: new URL('../../fixtures/workers/missing.mjs', import.meta.url).href, jobSeconds: 1 })).toThrow(/Worker entry not found: .*missing\.mjs/)
+  })
+
   it('runs a job in a worker thread, not on the calling thread', async () => {
     pool = createJobPool({ filename: worker, threads: 1, jobSeconds: 5 })
     const answer = await pool.run<Spun>('spin', { ms: 1, value: 7 })
