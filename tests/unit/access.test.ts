@@ -53,7 +53,12 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
   ],
   'pages/schedule/[id].vue': [{ call: 'GET /api/batches/[id]' }, { call: 'POST /api/batches/[id]/events', when: 'schedule.book' }],
-  'pages/floor.vue': [{ call: 'GET /api/furnaces' }, { call: 'GET /api/floor' }, { call: 'POST /api/batches/[id]/events', when: 'floor.record' }],
+  'pages/floor.vue': [
+    { call: 'GET /api/furnaces' },
+    { call: 'GET /api/floor' },
+    { call: 'GET /api/floor/curves', via: 'composables/useFloorCurves.ts' },
+    { call: 'POST /api/batches/[id]/events', when: 'floor.record' },
+  ],
   'pages/records/index.vue': [{ call: 'GET /api/records' }, { call: 'GET /api/furnaces' }],
   'pages/records/[id].vue': [
     { call: 'GET /api/records/[id]' },
