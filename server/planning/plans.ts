@@ -82,7 +82,7 @@ async function engine<T>(run: () => Promise<T>): Promise<T> {
       throw createError({ statusCode: 422, statusMessage: 'This plan takes too long to compute', message: `plan: ${message}`, data: { problems: [{ field: 'plan', message }] } })
     }
     if (error instanceof JobQueueFullError) {
-      throw createError({ statusCode: 503, statusMessage: 'The engine is busy', message: 'Too many computations are waiting; try again in a few seconds.', headers: { 'retry-after': '5' } })
+      throw createError({ statusCode: 503, statusMessage: 'The engine is busy', message: 'Too many computations are waiting; try again in a few seconds.' })
     }
     throw error
   }
