@@ -46,6 +46,7 @@ export interface BatchView {
   handlingAt: number
   chargedAt: number | null
   soakingAt: number | null
+  unloadedAt: number | null
   quenchedAt: number | null
   furnaceIsDefault: boolean
   conflictWith: string | null
@@ -57,8 +58,15 @@ export interface BatchEventView {
   id: number
   fromState: BatchState
   toState: BatchState
+  /** The corrected time when the tap was corrected, else the tapped time. */
   at: string
+  actorId: number | null
   actorName: string | null
+  /** Set when the tap was confirmed before the plan said it should come. */
+  shortfallNote: string | null
+  /** The time first tapped, when corrected. */
+  originalAt: string | null
+  corrections: { at: string; reason: string; by: string; madeAt: string }[]
 }
 
 export interface BatchDetail extends BatchView {
@@ -92,6 +100,8 @@ export interface FloorBatch
   quenchDelayAllowance_s: number
   conflictWith?: string
   conflictNote?: string | null
+  /** Taps a person made on the floor (what the card offers to correct); other events stay on the batch's page. */
+  events: BatchEventView[]
 }
 
 export interface FloorResponse {
@@ -113,4 +123,12 @@ export interface PlanOption {
   quenchToHandling_s: number
   furnace_s: number | null
   furnace_C: number | null
+}
+
+/** What the last tap on a floor card led to: shown on that card, beside the button that was tapped. */
+export interface FloorCardFeedback {
+  kind: 'ok' | 'error' | 'shortfall'
+  text: string
+  /** For a shortfall: the move that waits for the second confirmation. */
+  to?: BatchState
 }

@@ -61,7 +61,7 @@ export async function signInAs(email: string, password: string): Promise<Client 
   const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: '/' })
   const response = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
     method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookieHeader(jar) },
+    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': cookieHeader(jar) },
     body: form,
     redirect: 'manual',
   })
