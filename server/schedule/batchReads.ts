@@ -81,7 +81,10 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
 /** The handling-point series of the given plan revisions, for the floor's countdown cards. */
 export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve[]> {
   if (planRevisionIds.length === 0) return []
-  const rows = await useDb().select({ id: planRevisions.id, summary: planRevisions.summary }).from(planRevisions).where(inArray(planRevisions.id, planRevisionIds))
+  const rows = await useDb()
+    .select({ id: planRevisions.id, summary: planRevisions.summary })
+    .from(planRevisions)
+    .where(inArray(planRevisions.id, planRevisionIds))
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
     return summary ? [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries }] : []
