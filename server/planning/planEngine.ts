@@ -3,7 +3,7 @@
  * tests); the server's engine-pool plugin switches to worker threads at boot, so a
  * route only awaits and the request thread stays free for other requests.
  */
-import { CaseError } from '../thermal/caseSchema'
+import { CaseError } from '../thermal/errors'
 import type { JobPool, JobPoolStats } from '../workers/jobPool'
 import { check, compute, type EngineOutcome } from '../workers/engineWorker'
 import type { ResolvedPlan } from '../../shared/schemas/plan'

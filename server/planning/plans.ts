@@ -3,7 +3,7 @@ import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
-import { CaseError } from '../thermal/caseSchema'
+import { CaseError } from '../thermal/errors'
 import { planEngine } from './planEngine'
 import { JobQueueFullError, JobTimeoutError } from '../workers/jobPool'
 import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
@@ -61,7 +61,8 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
 const COARSEN_HINT = 'coarsen the plan: fewer graded-profile points in the material, fewer quench stages, or a handling temperature further above the bath'
 
 /**
- * Engine refusals (CaseError) are 422 naming the plan field; a job over the engine's
+ * Engine refusals (CaseError, EngineLimitError: the engine's own budget) are 422 naming
+ * the plan field; a job over the engine's
  * time cap is 422 naming the cap; a full queue is 503. Anything else is a real failure.
  */
 async function engine<T>(run: () => Promise<T>): Promise<T> {
@@ -69,7 +70,7 @@ async function engine<T>(run: () => Promise<T>): Promise<T> {
     return await run()
   } catch (error) {
     if (error instanceof CaseError) {
-      const message = error.message.replace(/^[^:]*: /, '')
+      const message = error.reason
       throw createError({
         statusCode: 422,
         statusMessage: 'This plan cannot be computed',

@@ -7,7 +7,8 @@
  * Errors lose their class crossing threads, so an engine refusal (CaseError) comes
  * back as a value and the request thread rebuilds it.
  */
-import { CaseError } from '../thermal/caseSchema'
+import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
+import { CaseError } from '../thermal/errors'
 import { checkPlan, computePlan } from '../planning/computePlan'
 import type { ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
@@ -18,10 +19,11 @@ function outcome<T>(run: () => T): EngineOutcome<T> {
   try {
     return { ok: true, value: run() }
   } catch (error) {
-    if (error instanceof CaseError) return { ok: false, field: error.field, message: error.message.replace(/^[^:]*: /, '') }
+    if (error instanceof CaseError) return { ok: false, field: error.field, message: error.reason }
     throw error
   }
 }
 
-export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan))
-export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan))
+// The engine's own budget refuses a slow case with a message; the pool's cap is the backstop for anything it misses.
+export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
+export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
