@@ -1,4 +1,4 @@
-// The app's tsconfig excludes server/ but type-checks the tests that import this file: the reference carries the package's declarations along.
+// The declarations must reach every tsconfig that compiles this file (app, server, tests, scripts).
 // eslint-disable-next-line @typescript-eslint/triple-slash-reference
 /// <reference path="./besselPackage.d.ts" />
 /**
