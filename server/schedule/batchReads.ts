@@ -72,7 +72,10 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       handling_C: readSummary(r.revision.summary)!.handling_C,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
-      events: events.get(r.batch.id)!.filter((event) => event.actorId !== null && FLOOR_TAPS.includes(event.toState)),
+      taps: events
+        .get(r.batch.id)!
+        .filter((event) => event.actorId !== null && FLOOR_TAPS.includes(event.toState))
+        .map(({ id, toState, at, originalAt }) => ({ id, toState, at, originalAt })),
     }
   })
   return { serverNow: now, settings, batches: list }

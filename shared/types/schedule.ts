@@ -101,8 +101,11 @@ export interface FloorBatch
   conflictWith?: string
   conflictNote?: string | null
   /** Taps a person made on the floor (what the card offers to correct); other events stay on the batch's page. */
-  events: BatchEventView[]
+  taps: FloorTap[]
 }
+
+/** What a floor card needs of a tap to offer its correction; who tapped and why stay on the batch's page. */
+export type FloorTap = Pick<BatchEventView, 'id' | 'toState' | 'at' | 'originalAt'>
 
 export interface FloorResponse {
   serverNow: number
