@@ -32,7 +32,14 @@ export async function getBatch(id: number): Promise<BatchDetail> {
     furnaceName: found.furnace.name,
     stationName: found.station.name,
     summary: readSummary(found.revision.summary)!,
-    durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
+    durations: {
+      furnace_s: b.furnace_s,
+      minimumSoak_s: b.minimumSoak_s,
+      transfer_s: b.transfer_s,
+      quench_s: b.quench_s,
+      quenchToHandling_s: b.quenchToHandling_s,
+      quenchDelayAllowance_s: b.quenchDelayAllowance_s,
+    },
     events,
   }
 }
@@ -110,6 +117,13 @@ export async function planOptions(): Promise<PlanOption[]> {
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
     if (!summary) return []
-    return [{ planRevisionId: row.planRevisionId, planName: row.planName, revision: row.revision, quenchToHandling_s: summary.quenchToHandling_s, furnace_s: summary.soak?.total_s ?? null, furnace_C: summary.soak?.furnace_C ?? null }]
+    return [{
+      planRevisionId: row.planRevisionId,
+      planName: row.planName,
+      revision: row.revision,
+      quenchToHandling_s: summary.quenchToHandling_s,
+      furnace_s: summary.soak?.total_s ?? null,
+      furnace_C: summary.soak?.furnace_C ?? null,
+    }]
   })
 }

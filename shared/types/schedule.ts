@@ -75,7 +75,14 @@ export interface BatchDetail extends BatchView {
   furnaceName: string
   stationName: string
   summary: PlanSummary
-  durations: { furnace_s: number; minimumSoak_s: number | null; transfer_s: number; quench_s: number; quenchToHandling_s: number; quenchDelayAllowance_s: number }
+  durations: {
+    furnace_s: number
+    minimumSoak_s: number | null
+    transfer_s: number
+    quench_s: number
+    quenchToHandling_s: number
+    quenchDelayAllowance_s: number
+  }
   events: BatchEventView[]
 }
 
