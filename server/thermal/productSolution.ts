@@ -90,7 +90,11 @@ interface Term {
   from: number
   start_s: number
   weight_K: number
-  /** The weight, or 1 K for a zero weight (a start at the bath temperature), whose modes are still listed. */
+  /**
+   * |weight|, or 1 K for a zero weight (a start at the bath temperature), whose modes are still listed.
+   * Positive: the 1-D problem is linear with zero surroundings, so a heating term (charge below the
+   * furnace) is the cooling one with its sign in the weight, and its start stays within the bounds.
+   */
   scale_K: number
   solutions: CooldownSolution[]
 }
@@ -115,18 +119,21 @@ function superpose(input: ProductInput, earliest: (size_m: number) => number, de
   const ambients = input.stages.map((s) => s.ambient_C)
   const alpha = input.material.k / (input.material.rho * input.material.cp)
   const undisturbed_s = input.body.directions.map((d) => (UNDISTURBED_FO * d.size_m * d.size_m) / alpha)
-  const termAt = (from: number, weight_K: number): Term => ({
-    from,
-    start_s: starts[from]!,
-    weight_K,
-    scale_K: weight_K || 1,
-    solutions: input.body.directions.map((d, i) =>
-      solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, from, weight_K || 1))), {
-        earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!),
-        deadline,
-      }),
-    ),
-  })
+  const termAt = (from: number, weight_K: number): Term => {
+    const scale_K = Math.abs(weight_K) || 1
+    return {
+      from,
+      start_s: starts[from]!,
+      weight_K,
+      scale_K,
+      solutions: input.body.directions.map((d, i) =>
+        solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m, from, scale_K))), {
+          earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!),
+          deadline,
+        }),
+      ),
+    }
+  }
   const terms = [termAt(0, input.initial_C - ambients[0]!)]
   ambients.forEach((a, j) => {
     if (j > 0 && a !== ambients[j - 1]) terms.push(termAt(j, -(a - ambients[j - 1]!)))

@@ -148,6 +148,13 @@ describe('product solution of short cylinders and blocks', () => {
     expect(timeTo(block, 100).targetTime_s).toBeLessThan(timeTo(bar, 100).targetTime_s)
   })
 
+  it('a short cylinder charged at 20 °C into a furnace at 860 °C heats as the closed form says (the heating term carries its sign in its weight)', () => {
+    const input: ProductInput = { ...steelInput([rod(0.06), slab(0.02, 'length')], 150, undefined, 20, 860), target: { at: 'centre', above_C: 850 } }
+    const run = runProduct(input)
+    expect(referenceCentre_C(referenceOf(input), run.targetTime_s)).toBeCloseTo(850, 6)
+    expect(checkProduct(input, [60, 600, run.targetTime_s])).toBeLessThan(0.2)
+  })
+
   const cylinder = steelInput([rod(0.03), slab(0.05, 'length')], 500)
   it.each([
     ['material.k', { ...cylinder, material: { k: 0, rho: RHO, cp: CP } }],
