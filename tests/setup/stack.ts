@@ -57,6 +57,8 @@ async function startStack(): Promise<Stack> {
       OUTBOX_RETRY_BASE_MS: '300',
       OUTBOX_RETRY_MAX_MS: '1500',
       NODE_ENV: 'production',
+      // The sign-in limit tests pose as many client addresses through X-Forwarded-For.
+      SLAKEWISE_TRUST_PROXY: '1',
     },
   })
   await waitFor(`${BASE_URL}/api/health`, 'The Slakewise server')
