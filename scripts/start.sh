@@ -15,7 +15,7 @@ started_db=0
 stop_all() {
   trap - INT TERM EXIT
   echo; echo "[start] stopping…"
-  for pid in "${children[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for pid in "${children[@]}"; do stop_process "$pid" 10 & done
   wait 2>/dev/null || true
   [ "$started_db" = 1 ] && scripts/db.sh stop dev || true
 }
