@@ -58,8 +58,9 @@ cat <<MSG
   Slakewise is running:   http://localhost:$PORT
   Mail catcher (inbox):   http://localhost:$MAIL_WEB_PORT   (SMTP on 127.0.0.1:$MAIL_SMTP_PORT)
 
-  Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop):
+  Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop; on loopback only):
 $(npx tsx scripts/demo-sign-ins.ts)
+  A shop's own first administrator: see "Putting Slakewise on the shop network" in README.md.
 
   Press Ctrl-C to stop.
 MSG
