@@ -69,6 +69,9 @@ export default defineNuxtConfig({
   runtimeConfig: {
     authSecret: '', // NUXT_AUTH_SECRET
     recordSealKey: '', // NUXT_RECORD_SEAL_KEY: seals cooldown records and sign-offs (HMAC-SHA-256)
+    shopName: 'Slakewise', // NUXT_SHOP_NAME: printed on hold-time sheets
+    loadPrefix: 'SW', // NUXT_LOAD_PREFIX: load numbers start with it (the shop's initials)
+    siteOrigin: '', // NUXT_SITE_ORIGIN: where links in mail point (default: AUTH_ORIGIN without /api/auth)
     databaseUrl: '', // NUXT_DATABASE_URL (DATABASE_URL is read too)
     public: { appVersion: version },
   },

@@ -1,5 +1,4 @@
-import { LIBRARY_EDIT_ROLES } from '~~/shared/library'
-import { roleAllows } from '~~/shared/roles'
+import { can } from '~~/shared/access'
 
 /**
  * The editing state of a library page: whether the signed-in role may edit (the server
@@ -8,7 +7,7 @@ import { roleAllows } from '~~/shared/roles'
  */
 export function useLibraryEditing<Entry>(dataKey: string) {
   const { role } = useRole()
-  const canEdit = computed(() => roleAllows(role.value, LIBRARY_EDIT_ROLES))
+  const canEdit = computed(() => can(role.value, 'library.edit'))
   const editing = shallowRef<Entry | 'new' | null>(null)
   const saved = ref('')
   const formAnchor = ref<HTMLElement | null>(null)

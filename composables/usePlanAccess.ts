@@ -1,6 +1,8 @@
-/** Metallurgists and administrators edit plans; operators and QA read them (the server enforces the same). */
+import { can } from '~~/shared/access'
+
+/** Whether the signed-in role may edit plans (shared/access.ts; the server enforces the same). */
 export function usePlanAccess() {
   const { role } = useRole()
-  const canEdit = computed(() => role.value === 'metallurgist' || role.value === 'admin')
+  const canEdit = computed(() => can(role.value, 'plans.edit'))
   return { canEdit }
 }

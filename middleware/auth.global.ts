@@ -1,11 +1,12 @@
-import { roleAllows, type Role } from '~~/shared/roles'
+import { type Capability, can } from '~~/shared/access'
+import type { Role } from '~~/shared/roles'
 
 declare module '#app' {
   interface PageMeta {
     /** Open without signing in (the sign-in page). */
     public?: boolean
-    /** Roles that may open the page; absent means any signed-in role. */
-    roles?: Role[]
+    /** What opening the page takes (shared/access.ts); absent means any signed-in role. */
+    capability?: Capability
   }
 }
 
@@ -19,7 +20,7 @@ export default defineNuxtRouteMiddleware(async (to) => {
     return navigateTo({ path: '/login', query: { next: to.fullPath } })
   }
   if (user.mustChangePassword && to.path !== '/account/password') return navigateTo('/account/password')
-  if (to.meta.roles && !roleAllows(user.role, to.meta.roles)) {
+  if (to.meta.capability && !can(user.role, to.meta.capability)) {
     return navigateTo({ path: '/', query: { denied: to.path } })
   }
 })

@@ -3,7 +3,9 @@
 // query and bookings made by 10 concurrent bookers through the real booking code.
 import { users } from '../server/db/schema'
 import { demoPlanRevisions } from '../server/db/demo/schedule'
-import { bookBatch, listBatches } from '../server/utils/batches'
+import { DEMO_LOAD_PREFIX } from '../server/db/demo/shop'
+import { bookBatch } from '../server/schedule/booking'
+import { listBatches } from '../server/schedule/batchReads'
 import { quantiles } from './bench/quantiles'
 import { benchBatch, benchLines, insertBatches, scratchDatabase } from './bench/scratchDatabase'
 
@@ -61,7 +63,7 @@ try {
         for (;;) {
           const t = performance.now()
           try {
-            await bookBatch({ planRevisionId: plans[0]!.planRevisionId, ...line, plannedCharge: new Date(charge).toISOString(), partCount: 10, mass_kg: 200, reference: `Booker ${booker}` }, metallurgist!, db)
+            await bookBatch({ planRevisionId: plans[0]!.planRevisionId, ...line, plannedCharge: new Date(charge).toISOString(), partCount: 10, mass_kg: 200, reference: `Booker ${booker}` }, metallurgist!, { loadPrefix: DEMO_LOAD_PREFIX }, db)
             bookingTimes.push(performance.now() - t)
             break
           } catch (error) {

@@ -33,6 +33,9 @@ export PORT NITRO_HOST=${HOST:-127.0.0.1}
 export AUTH_ORIGIN=${AUTH_ORIGIN:-http://localhost:$PORT/api/auth}
 export NUXT_AUTH_SECRET=${NUXT_AUTH_SECRET:-$(ensure_secret auth-secret)}
 export NUXT_RECORD_SEAL_KEY=${NUXT_RECORD_SEAL_KEY:-$(ensure_secret record-seal-key)}
+# The demo shop's name on sheets and initials on load numbers.
+export NUXT_SHOP_NAME=${NUXT_SHOP_NAME:-Kestrel Bay Heat Treat}
+export NUXT_LOAD_PREFIX=${NUXT_LOAD_PREFIX:-KB}
 npx tsx scripts/migrate.ts
 npx tsx scripts/seed.ts
 

@@ -1,8 +1,4 @@
-import type { Role } from './roles'
 import type { QuenchantKind } from './schemas/quenchant'
-
-/** Who may add or edit library entries; every signed-in role may read them. */
-export const LIBRARY_EDIT_ROLES: readonly Role[] = ['metallurgist', 'admin']
 
 export const QUENCHANT_KIND_LABELS: Record<QuenchantKind, string> = {
   oil: 'Oil',

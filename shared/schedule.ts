@@ -4,6 +4,7 @@
  * slots a plan revision needs, overlap and the next free start. Pure functions;
  * all times are epoch milliseconds unless the name says seconds.
  */
+import { type Capability, can } from './access'
 import type { Role } from './roles'
 import type { PlanSummary } from './types/plan'
 
@@ -26,15 +27,10 @@ export const OPEN_STATES: readonly BatchState[] = ['planned', 'charged', 'soakin
 /** States shown on the floor. */
 export const FLOOR_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
 
-/** Who records floor moves. */
-export const FLOOR_ROLES: readonly Role[] = ['operator', 'admin']
-/** Who books and withdraws loads. */
-export const PLANNING_ROLES: readonly Role[] = ['metallurgist', 'admin']
-
 export interface Transition {
   from: readonly BatchState[]
-  /** Who may record it; empty means only the clock moves it (from the plan's times). */
-  roles: readonly Role[]
+  /** Who may record it (shared/access.ts); null means only the clock moves it (from the plan's times). */
+  capability: Capability | null
   /** The floor button's wording. */
   action: string
 }
@@ -45,13 +41,19 @@ export interface Transition {
  * temperature at times the plan fixes once the quench is recorded.
  */
 export const TRANSITIONS: Record<Exclude<BatchState, 'planned'>, Transition> = {
-  charged: { from: ['planned'], roles: FLOOR_ROLES, action: 'Load charged' },
-  soaking: { from: ['charged'], roles: FLOOR_ROLES, action: 'Core at heat' },
-  quenched: { from: ['soaking'], roles: FLOOR_ROLES, action: 'Quench started' },
-  cooling: { from: ['quenched'], roles: [], action: 'Out of the bath' },
-  ready: { from: ['cooling'], roles: [], action: 'Safe to handle' },
-  released: { from: ['ready'], roles: FLOOR_ROLES, action: 'Hand on' },
-  cancelled: { from: ['planned', 'charged', 'soaking'], roles: PLANNING_ROLES, action: 'Withdraw' },
+  charged: { from: ['planned'], capability: 'floor.record', action: 'Load charged' },
+  soaking: { from: ['charged'], capability: 'floor.record', action: 'Core at heat' },
+  quenched: { from: ['soaking'], capability: 'floor.record', action: 'Quench started' },
+  cooling: { from: ['quenched'], capability: null, action: 'Out of the bath' },
+  ready: { from: ['cooling'], capability: null, action: 'Safe to handle' },
+  released: { from: ['ready'], capability: 'floor.record', action: 'Hand on' },
+  cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Withdraw' },
+}
+
+/** True when `role` may record the move to `requested` at all (whatever the batch's state). */
+export function canRecord(role: Role | undefined, requested: Exclude<BatchState, 'planned'>): boolean {
+  const capability = TRANSITIONS[requested].capability
+  return capability !== null && can(role, capability)
 }
 
 export type MoveCheck =
@@ -65,8 +67,8 @@ export type MoveCheck =
 export function checkMove(current: BatchState, requested: BatchState, role: Role): MoveCheck {
   if (requested === 'planned') return { ok: false, status: 409, message: `A batch cannot go back to ${BATCH_STATE_LABELS.planned} (planned); it is ${BATCH_STATE_LABELS[current]} (${current})` }
   const rule = TRANSITIONS[requested]
-  if (rule.roles.length === 0) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} (${requested}) follows from the plan's times; nobody records it` }
-  if (!rule.roles.includes(role)) return { ok: false, status: 403, message: `A ${role} cannot record ${BATCH_STATE_LABELS[requested]} (${requested})` }
+  if (rule.capability === null) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} (${requested}) follows from the plan's times; nobody records it` }
+  if (!canRecord(role, requested)) return { ok: false, status: 403, message: `A ${role} cannot record ${BATCH_STATE_LABELS[requested]} (${requested})` }
   if (!rule.from.includes(current)) {
     return {
       ok: false,

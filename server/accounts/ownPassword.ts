@@ -1,7 +1,9 @@
 import { eq, sql } from 'drizzle-orm'
+import { createError } from 'h3'
 import type { OwnPasswordChange } from '../../shared/schemas/user'
 import { users } from '../db/schema'
 import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
 import { hashPassword, verifyPassword } from '../utils/password'
 import { assertPasswordAcceptable } from '../security/passwordPolicy'
 

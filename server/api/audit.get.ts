@@ -8,7 +8,7 @@ const Query = z.object({
 })
 
 export default defineEventHandler(async (event): Promise<AuditEntry[]> => {
-  await requireRole(event, ['admin', 'qa'])
+  await requireRole(event, 'audit.read')
   const { entityType, limit } = queryValid(event, Query)
   const { auditLog, users } = tables
   const rows = await useDb()

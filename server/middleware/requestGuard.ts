@@ -14,7 +14,7 @@ export default defineEventHandler((event) => {
       origin: header('origin'),
       secFetchSite: header('sec-fetch-site'),
     },
-    appOrigins(getRequestURL(event).origin),
+    appOrigins(getRequestURL(event).origin, [process.env.AUTH_ORIGIN, useRuntimeConfig().siteOrigin]),
   )
   if (refusal) {
     throw createError({

@@ -1,12 +1,12 @@
 /**
  * A saved or previewed plan (spec + copied library values) → engine cases → the
  * editor's result and the PlanSummary the schedule and floor read. Framework-free:
- * routes call it through server/utils/plans.ts, tests import it directly.
+ * routes call it through server/planning/plans.ts, tests import it directly.
  *
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
  * stages, graded materials). Short cylinders and blocks go through product
- * solutions (./product.ts): uniform properties, every stage at the same bath
- * temperature, handling point centre or mean.
+ * solutions (../thermal/productSolution.ts): uniform properties, every stage at
+ * the same bath temperature, handling point centre or mean.
  */
 import { CaseError } from '../thermal/caseSchema'
 import { runCase, type CaseResult } from '../thermal/runCase'
@@ -15,10 +15,9 @@ import type { CoefficientChoice, QuenchantSnapshot, ResolvedPlan } from '../../s
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanMode, PlanResult, PlanStageResult } from '../../shared/types/planResult'
 import { furnaceCoefficient_W_m2K } from './furnace'
-import { checkProduct, runProduct, type ModelRun, type ProductInput } from './product'
+import { MODES_LISTED, checkProduct, runProduct, type ModelRun, type ProductInput } from '../thermal/productSolution'
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 
-const MODES_LISTED = 8
 const PROFILE_TIMES = 25
 
 /** The library values of the stages' quenchants, in stage order. */

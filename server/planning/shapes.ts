@@ -3,6 +3,7 @@
  * Framework-free (unit tests import it directly).
  */
 import type { Part } from '../../shared/schemas/plan'
+import type { ProductDirection } from '../thermal/productSolution'
 
 /** A one-dimensional body for the series engine: half-thickness or radius. */
 export interface OneDimensional {
@@ -14,7 +15,7 @@ export interface OneDimensional {
 /** A short cylinder or block: one 1-D factor per finite direction (product solution). */
 export interface ProductBody {
   kind: 'product'
-  directions: { label: string; geometry: 'slab' | 'rod'; size_m: number }[]
+  directions: ProductDirection[]
 }
 
 export type EngineBody = OneDimensional | ProductBody

@@ -1,6 +1,6 @@
 import { outboxConfigFromEnv, createMailTransport } from '../outbox/config'
 import { runOutboxOnce } from '../outbox/worker'
-import { queueDailyDigest } from '../utils/records'
+import { queueDailyDigest } from '../records/service'
 
 /**
  * Runs the outbox worker in every server process (several may run side by side; the
@@ -29,7 +29,7 @@ export default defineNitroPlugin((nitro) => {
       again = result.claimed === batchSize
       const today = new Date().toISOString().slice(0, 10)
       if (today !== digestDay) {
-        await queueDailyDigest(useDb(), new Date())
+        await queueDailyDigest(useDb(), new Date(), useShopConfig())
         digestDay = today
       }
       lastProblem = ''

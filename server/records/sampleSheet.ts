@@ -1,12 +1,11 @@
 /**
- * A complete hold-time sheet for a fictional load at Kestrel Bay Heat Treat (the demo
- * shop): the admin's test sheet, which checks the mail path without releasing a load.
+ * A complete hold-time sheet for a fictional load, under the shop's own name: the
+ * admin's test sheet, which checks the mail path without releasing a load.
  * The events are placed before `now`; the transfer to the quench is deliberately slow
  * so the sheet shows a deviation.
  */
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import type { CurvePoint, DeviationPlan, HoldTimeSheet, RecordEvent } from '../../shared/types/records'
-import { DEMO_SHOP_NAME } from '../db/demo/shop'
 import { STANDARD_CAUTIONS } from './cautions'
 import { findDeviations, measureTimes } from './deviations'
 
@@ -21,7 +20,7 @@ const series: PointStage[] = [{ start_s: 0, steady_C: BATH_C, terms: [{ amplitud
 /** Where the one-term curve crosses the handling temperature: t = ln((T0 − Tb)/(Th − Tb)) / k. */
 const QUENCH_TO_HANDLING_S = Math.log((START_C - BATH_C) / (HANDLING_C - BATH_C)) / DECAY_PER_S
 
-export function sampleHoldTimeSheet(input: { loadNumber: string; now?: Date }): HoldTimeSheet {
+export function sampleHoldTimeSheet(input: { loadNumber: string; shopName: string; now?: Date }): HoldTimeSheet {
   const now = (input.now ?? new Date()).getTime()
   const plan: DeviationPlan = { heatUp_s: 70 * 60, minimumSoak_s: 60 * 60, quenchDelayAllowance_s: 30, quenchToHandling_s: QUENCH_TO_HANDLING_S }
 
@@ -45,7 +44,7 @@ export function sampleHoldTimeSheet(input: { loadNumber: string; now?: Date }): 
   for (let t = 0; t <= curveEnd; t += 30) predictedCurve.push({ t_s: t, T_C: pointValue(series, t) })
 
   return {
-    shopName: DEMO_SHOP_NAME,
+    shopName: input.shopName,
     loadNumber: input.loadNumber,
     part: { name: 'Drive flange', number: 'KB-DF-220', quantity: 24, section: 'Ø 80 mm × 120 mm' },
     material: '42CrMo4 (1.7225)',

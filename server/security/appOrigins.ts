@@ -1,11 +1,11 @@
 /**
  * The origins this server answers as: the address the request was sent to (its Host
- * header), the sign-in address (AUTH_ORIGIN) and the address in mail links (PUBLIC_ORIGIN).
- * Behind a TLS proxy the last two carry the https:// address browsers see.
+ * header) and the configured addresses (AUTH_ORIGIN, NUXT_SITE_ORIGIN), which behind a
+ * TLS proxy carry the https:// address browsers see.
  */
-export function appOrigins(requestOrigin: string, env: NodeJS.ProcessEnv = process.env): string[] {
+export function appOrigins(requestOrigin: string, configured: readonly (string | undefined)[]): string[] {
   const origins = [requestOrigin]
-  for (const value of [env.AUTH_ORIGIN, env.PUBLIC_ORIGIN]) {
+  for (const value of configured) {
     if (!value) continue
     try {
       origins.push(new URL(value).origin)

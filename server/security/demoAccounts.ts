@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm'
 import { users } from '../db/schema'
+import { useDb } from '../utils/db'
 
 /** True while an active demo account (published password) exists. */
 export async function demoShopActive(): Promise<boolean> {

@@ -4,6 +4,7 @@
  * (score 3 of 4, about 10^8 guesses) by the zxcvbn strength estimator with its common
  * passwords, names and keyboard patterns.
  */
+import { createError } from 'h3'
 import { ZxcvbnFactory } from '@zxcvbn-ts/core'
 import { adjacencyGraphs, dictionary } from '@zxcvbn-ts/language-common'
 

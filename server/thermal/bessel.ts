@@ -3,7 +3,7 @@
  * J0, J1 and their zeros.
  *
  * Values come from the `bessel` package (polynomial/asymptotic fits, absolute
- * error ≈ 3e-9, checked against Abramowitz & Stegun Table 9.1). Zeros are
+ * error ≈ 3e-9, checked against mpmath values in tests/fixtures/reference-values.json). Zeros are
  * bracketed around McMahon's asymptotic estimates j0,n ≈ (n − ¼)π,
  * j1,n ≈ (n + ¼)π (A&S 9.5.12) — the estimate is within 0.1 of the zero and
  * consecutive zeros are ≈ π apart, so a ±0.4 bracket holds exactly one — and

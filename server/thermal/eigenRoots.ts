@@ -12,8 +12,8 @@
  * the n-th zero of J0 (Bi = ∞: the zero of J0).
  * Sphere: 1 − λ cot λ = Bi, written cos λ + (Bi − 1) sin λ/λ = 0 so that it is
  * finite at λ = 0 (value Bi > 0) and equals (−1)^j at jπ: λ_n ∈ ((n − 1)π, nπ).
- * Checked against Incropera et al., Fundamentals of Heat and Mass Transfer,
- * Table 5.1 (tests/unit/thermal/eigenRoots.test.ts).
+ * Checked against roots and coefficients computed with mpmath
+ * (scripts/reference/generate.py; tests/unit/thermal/eigenRoots.test.ts).
  */
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
 import type { Geometry } from './types'
@@ -104,36 +104,37 @@ export function surfaceValues(geometry: Geometry, lam: number): SurfaceValues {
  */
 
 export function uniformMass(mode: SurfaceValues): number {
-  return massOf(mode.lam, mode.df1)
+  return -mode.df1 / (mode.lam * mode.lam)
 }
 
 export function uniformNorm(m: 0 | 1 | 2, mode: SurfaceValues): number {
-  return normOf(m, mode.lam, mode.f1, mode.df1)
+  const l2 = mode.lam * mode.lam
+  return 0.5 * (mode.f1 * mode.f1 + (mode.df1 * mode.df1) / l2) + ((m - 1) * mode.f1 * mode.df1) / (2 * l2)
 }
 
 /** ∫ x^m f_a f_b dx; equal roots (the same surface condition) give the norm. */
 export function uniformOverlap(m: 0 | 1 | 2, a: SurfaceValues, b: SurfaceValues): number {
-  return overlapOf(m, a.lam, a.f1, a.df1, b.lam, b.f1, b.df1)
-}
-
-// The same three integrals from plain numbers, for the fast path (uniformSolution.ts),
-// which keeps its modes in typed arrays rather than SurfaceValues objects.
-
-/** ∫ x^m f from λ and f′(1). */
-export function massOf(lam: number, df1: number): number {
-  return -df1 / (lam * lam)
-}
-
-/** ∫ x^m f² from λ, f(1) and f′(1). */
-export function normOf(m: 0 | 1 | 2, lam: number, f1: number, df1: number): number {
-  const l2 = lam * lam
-  return 0.5 * (f1 * f1 + (df1 * df1) / l2) + ((m - 1) * f1 * df1) / (2 * l2)
-}
-
-/** ∫ x^m f_a f_b from both modes' λ, f(1) and f′(1). */
-export function overlapOf(m: 0 | 1 | 2, lamA: number, f1A: number, df1A: number, lamB: number, f1B: number, df1B: number): number {
-  const d = lamB * lamB - lamA * lamA
+  const d = b.lam * b.lam - a.lam * a.lam
   // Closer than 1e-8 the formula loses more digits to cancellation than the norm is off.
-  if (Math.abs(d) <= 1e-8 * lamA * lamA) return normOf(m, lamA, f1A, df1A)
-  return (df1A * f1B - f1A * df1B) / d
+  if (Math.abs(d) <= 1e-8 * a.lam * a.lam) return uniformNorm(m, a)
+  return (a.df1 * b.f1 - a.f1 * b.df1) / d
+}
+
+/** A term A_i g_i of a start given as modes over its steady state. */
+export interface UniformTerm {
+  amplitude_K: number
+  surface: SurfaceValues
+}
+
+/**
+ * Amplitude of the symmetric uniform mode f_n when the stage starts from
+ * T = T_start,ss + Σ_i A_i g_i over its steady state T_ss:
+ *   a_n = ((T_start,ss − T_ss) ∫x^m f_n + Σ_i A_i ∫x^m g_i f_n) / ∫x^m f_n².
+ * A uniform start is the case without terms, where mass/norm is the textbook C_n
+ * (uniformInitialCoefficient). Both series paths take their amplitudes from here.
+ */
+export function uniformAmplitude(m: 0 | 1 | 2, startExcess_K: number, terms: readonly UniformTerm[], mode: SurfaceValues): number {
+  let projection = startExcess_K * uniformMass(mode)
+  for (const term of terms) projection += term.amplitude_K * uniformOverlap(m, term.surface, mode)
+  return projection / uniformNorm(m, mode)
 }

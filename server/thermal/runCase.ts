@@ -7,8 +7,9 @@
 import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
 import { solveCrankNicolson } from './crankNicolson'
 import { pointValues, type PointStage } from '../../shared/pointSeries'
-import { solveCooldown, type CooldownSolution, type PointRef, type StageSummary } from './solveCooldown'
+import { solveCooldown } from './solveCooldown'
 import type { TargetSpec } from './targetTime'
+import type { CooldownSolution, PointRef, StageSummary } from './types'
 
 export interface RunOptions {
   /** Also solve with Crank–Nicolson and report the largest difference. */
@@ -29,7 +30,10 @@ export interface CaseResult {
 
 /** Equal steps of a result curve (plus its exact moments). */
 export const CURVE_POINTS = 600
-const PROFILE_POINTS = 21
+/** Where a temperature profile is read, centre (0) to surface (1). */
+export const PROFILE_X = Array.from({ length: 21 }, (_, i) => i / 20)
+/** The cheap first pass is accurate from this Fourier number on: a handful of modes. */
+export const FIRST_PASS_FO = 0.05
 
 export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResult {
   const c = parseCase(caseInput)
@@ -38,7 +42,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
   const points = c.points ?? [0, 0.5, 1]
   const target = c.target ? targetSpec(c.target) : null
   const at: PointRef = c.target?.at ?? 'centre'
-  const starts = stageStarts(c)
+  const starts = stageStarts(c.stages)
   const solveWith = (earliestCurve_s: number) =>
     solveCooldown(problem, {
       minModes: c.modes,
@@ -48,7 +52,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
         return Math.min(earliestCurve_s, ...taus)
       }),
     })
-  // A cheap first pass (accurate from Fo = 0.05 on) finds the target and hence the
+  // A cheap first pass (accurate from FIRST_PASS_FO on) finds the target and hence the
   // curve's end and spacing; the second pass is accurate from the first curve sample.
   const cheapFrom_s = firstGuess(problem, c)
   let solution = solveWith(cheapFrom_s)
@@ -70,7 +74,6 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     const values = pointValues(series, tCurve)
     return tCurve.map((t, i) => (t <= 0 ? initial_C : values[i]))
   }
-  const profileX = Array.from({ length: PROFILE_POINTS }, (_, i) => i / (PROFILE_POINTS - 1))
   const table = times.map((t) => points.map((x) => solution.evaluate(t, x)))
   const result: CaseResult = {
     targetTime_s: targetTime,
@@ -78,7 +81,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     centreX: solution.centreX,
     stages: solution.summaries.map((s, i) => ({ ...s, pointSeries: solution.pointSeries(at)[i] })),
     table: { points, t_s: times, T_C: table },
-    profiles: { x: profileX, t_s: times, T_C: times.map((t) => profileX.map((x) => solution.evaluate(t, x))) },
+    profiles: { x: PROFILE_X, t_s: times, T_C: times.map((t) => PROFILE_X.map((x) => solution.evaluate(t, x))) },
     curve: {
       t_s: tCurve,
       centre_C: curveOf(centre, solution.initialAt(solution.centreX)),
@@ -94,17 +97,18 @@ function targetSpec(t: NonNullable<Case['target']>): TargetSpec {
   return t.below_C !== undefined ? { below_C: t.below_C } : { above_C: t.above_C as number }
 }
 
-function stageStarts(c: Case): number[] {
+/** Each stage's start time; every stage but the last has a duration. */
+export function stageStarts(stages: readonly { duration_s?: number }[]): number[] {
   const starts = [0]
-  for (const s of c.stages.slice(0, -1)) starts.push(starts[starts.length - 1] + (s.duration_s as number))
+  for (const s of stages.slice(0, -1)) starts.push(starts[starts.length - 1] + (s.duration_s as number))
   return starts
 }
 
-/** Fo = 0.05 of the whole body: a handful of modes. */
+/** FIRST_PASS_FO of the whole body, with its fastest diffusivity. */
 function firstGuess(problem: ReturnType<typeof caseToProblem>, c: Case): number {
   const k = Math.max(...problem.domain.properties.map((p) => p.k_W_mK))
   const rc = Math.min(...problem.domain.properties.map((p) => p.rhoCp_J_m3K))
-  return (0.05 * c.size_m ** 2 * rc) / k
+  return (FIRST_PASS_FO * c.size_m ** 2 * rc) / k
 }
 
 /**

@@ -19,8 +19,7 @@
 import type { Mode, ModeFamily } from './modeFamily'
 import { maxCapacityRatio, weightedRule, type ScaledDomain } from './properties'
 import { heatCapacity, modeIntegrals, modeOverlap } from './modeIntegrals'
-import { uniformInitialCoefficient, uniformMass, uniformNorm, uniformOverlap, type SurfaceValues } from './eigenRoots'
-import type { Geometry } from './types'
+import { uniformAmplitude, uniformMass, type SurfaceValues } from './eigenRoots'
 
 export const TRUNCATION_TOLERANCE_K = 0.01
 
@@ -49,7 +48,6 @@ export interface ModalStart {
 }
 
 export interface SeriesInput {
-  geometry: Geometry
   domain: ScaledDomain
   family: ModeFamily
   steady: (x: number) => number
@@ -72,6 +70,14 @@ export interface SeriesInput {
 
 /** Terms computed past the guess: the three truncate() needs to bound the tail. */
 const LOOKAHEAD = 3
+
+/** Without a caller's earliest_s, a stage's series is accurate from this Fourier number on. */
+const DEFAULT_EARLIEST_FO = 0.01
+
+/** Earliest time after stage i's start its series must be accurate at: the caller's (one value or one per stage), else DEFAULT_EARLIEST_FO. */
+export function stageEarliest_s(earliest_s: number | number[] | undefined, i: number, timeScale_s: number): number {
+  return (Array.isArray(earliest_s) ? earliest_s[i] : earliest_s) ?? DEFAULT_EARLIEST_FO * timeScale_s
+}
 
 /** Tail allowed at the earliest time: 0.01 K, or 80 % of a caller's accuracy_K. */
 export function truncationTolerance(accuracy_K: number | undefined): number {
@@ -155,8 +161,8 @@ interface Projection {
 
 /**
  * Symmetric uniform modes from a uniform start (the closed forms C_n) or from the
- * previous stage's modes (eigenRoots.ts: Green's identity), with no quadrature:
- *     a_n = ((T_prev,ss − T_ss) ∫x^m f_n + Σ_j A_j ∫x^m g_j f_n) / ∫x^m f_n².
+ * previous stage's modes (Green's identity), with no quadrature: uniformAmplitude
+ * in eigenRoots.ts, as the fast path uses it.
  * |f_n| ≤ f_n(0) = 1 for cos, J0 and sin(λx)/(λx). Null when they do not apply.
  */
 function closedFormProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection | null {
@@ -164,19 +170,14 @@ function closedFormProjection(input: SeriesInput, modes: Mode[], tauMin: number)
   if (typeof input.start !== 'number' && !input.startModes?.terms.every((term) => term.mode.surface)) return null
   const m = input.domain.m
   const steady = input.steady(0)
+  const start = typeof input.start === 'number' ? { steady_C: input.start, terms: [] } : (input.startModes as ModalStart)
+  const startTerms = start.terms.map((term) => ({ amplitude_K: term.amplitude_K, surface: term.mode.surface as SurfaceValues }))
   const amplitudes: number[] = []
   const means: number[] = []
   const terms: number[] = []
   for (const mode of modes) {
     const surface = mode.surface as SurfaceValues
-    let a: number
-    if (typeof input.start === 'number') a = (input.start - steady) * uniformInitialCoefficient(input.geometry, surface.lam)
-    else {
-      const start = input.startModes as ModalStart
-      let projection = (start.steady_C - steady) * uniformMass(surface)
-      for (const term of start.terms) projection += term.amplitude_K * uniformOverlap(m, term.mode.surface as SurfaceValues, surface)
-      a = projection / uniformNorm(m, surface)
-    }
+    const a = uniformAmplitude(m, start.steady_C - steady, startTerms, surface)
     amplitudes.push(a)
     means.push((m + 1) * uniformMass(surface))
     terms.push(Math.abs(a) * Math.exp(-mode.rate * tauMin))

@@ -7,59 +7,14 @@
  * single-stage answer (tests/unit/thermal/stages.test.ts).
  */
 import { modeFamily } from './modeFamily'
-import type { PointStage } from '../../shared/pointSeries'
-import { pointValue } from '../../shared/pointSeries'
+import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { scaleDomain, weightedRule, type ScaledDomain } from './properties'
-import { buildStageSeries, seriesValue, truncationTolerance, type ModalStart, type StageSeries } from './series'
+import { buildStageSeries, seriesValue, stageEarliest_s, truncationTolerance, type ModalStart, type StageSeries } from './series'
 import { FINE_SHOOTING, shootingAccuracy } from './shooting'
 import { steadyProfile, type ScaledEnd } from './steadyState'
-import { firstCrossing, type TargetSpec } from './targetTime'
-import type { Boundary, CooldownProblem, TemperaturePoint } from './types'
+import { firstCrossing } from './targetTime'
+import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOptions, StageSummary, TemperaturePoint } from './types'
 import { solveUniformSymmetric } from './uniformSolution'
-
-/** Where a temperature is read: a named place, or x as a fraction of length_m. */
-export type PointRef = 'centre' | 'surface' | 'mean' | { x: number }
-
-export interface SolveOptions {
-  /** Earliest time after each stage's start the series must be accurate at (one value or one per stage). */
-  earliest_s?: number | number[]
-  /** Use at least this many modes in every stage. */
-  minModes?: number
-  /**
-   * Temperature accuracy to aim for, in K. Absent: the product default (series
-   * truncated at 0.01 K, graded rates polished to 1e-10). A value loosens the
-   * truncation to 80 % of it and the graded shooting to a matching tolerance
-   * (shootingAccuracy), e.g. 0.05 K to compare with a grid tuned to 0.05 K.
-   */
-  accuracy_K?: number
-}
-
-export interface StageSummary {
-  start_s: number
-  /** Null for an open-ended stage. */
-  end_s: number | null
-  modes: number
-  decayRates_per_s: number[]
-  timeConstants_s: number[]
-  truncationError_K: number
-  /** h L / k_ref at the surface (null when fixed); innerBiot likewise for a slab face. */
-  biot: number | null
-  innerBiot?: number | null
-}
-
-export interface CooldownSolution {
-  domain: ScaledDomain
-  stages: StageSeries[]
-  summaries: StageSummary[]
-  /** x of the centre: 0, or 0.5 (mid-plane) when x = 0 is a face. */
-  centreX: number
-  initialAt: (x: number) => number
-  evaluate: (t_s: number, x: number) => number
-  /** Heat-content mean ∫ρc x^m T / ∫ρc x^m (the mass mean when c is uniform). */
-  mean: (t_s: number) => number
-  pointSeries: (at: PointRef) => PointStage[]
-  targetTime: (at: PointRef, target: TargetSpec) => number | null
-}
 
 const MAX_MODES_ANALYTIC = 400
 const MAX_MODES_SHOOTING = 60
@@ -117,9 +72,7 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
     const outer = scaledEnd(stage.outer, domain)
     const family = modeFamily(geometry, domain, inner.biot, outer.biot, shooting)
     const previous = stages[i - 1]
-    const earliest = Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s
     const series = buildStageSeries({
-      geometry,
       domain,
       family,
       steady: steadyProfile(domain.pieces, inner, outer),
@@ -131,7 +84,7 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
       ...(previous && problem.stages[i - 1].inner.type === 'symmetry' ? { startModes: modalEnd(previous) } : {}),
       breakpoints: i === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [],
       symmetricUniformSteady: inner.biot === 0,
-      earliest_s: earliest ?? 0.01 * domain.timeScale_s,
+      earliest_s: stageEarliest_s(options.earliest_s, i, domain.timeScale_s),
       minModes: options.minModes ?? 1,
       truncationTolerance_K: truncationTolerance(accuracy),
       maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,

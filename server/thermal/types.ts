@@ -7,6 +7,10 @@
  *
  *   ρc(x) ∂T/∂t = x^-m ∂/∂x ( x^m k(x) ∂T/∂x ),   m = 0 slab, 1 rod, 2 sphere.
  */
+import type { PointStage } from '../../shared/pointSeries'
+import type { ScaledDomain } from './properties'
+import type { StageSeries } from './series'
+import type { TargetSpec } from './targetTime'
 
 export type Geometry = 'slab' | 'rod' | 'sphere'
 
@@ -60,4 +64,48 @@ export interface CooldownProblem {
   /** A uniform start temperature, or a profile over 0–1. */
   initial: number | TemperaturePoint[]
   stages: Stage[]
+}
+
+/** Where a temperature is read: a named place, or x as a fraction of length_m. */
+export type PointRef = 'centre' | 'surface' | 'mean' | { x: number }
+
+export interface SolveOptions {
+  /** Earliest time after each stage's start the series must be accurate at (one value or one per stage). */
+  earliest_s?: number | number[]
+  /** Use at least this many modes in every stage. */
+  minModes?: number
+  /**
+   * Temperature accuracy to aim for, in K. Absent: the product default (series
+   * truncated at 0.01 K, graded rates polished to 1e-10). A value loosens the
+   * truncation to 80 % of it and the graded shooting to a matching tolerance
+   * (shootingAccuracy), e.g. 0.05 K to compare with a grid tuned to 0.05 K.
+   */
+  accuracy_K?: number
+}
+
+export interface StageSummary {
+  start_s: number
+  /** Null for an open-ended stage. */
+  end_s: number | null
+  modes: number
+  decayRates_per_s: number[]
+  timeConstants_s: number[]
+  truncationError_K: number
+  /** h L / k_ref at the surface (null when fixed); innerBiot likewise for a slab face. */
+  biot: number | null
+  innerBiot?: number | null
+}
+
+export interface CooldownSolution {
+  domain: ScaledDomain
+  stages: StageSeries[]
+  summaries: StageSummary[]
+  /** x of the centre: 0, or 0.5 (mid-plane) when x = 0 is a face. */
+  centreX: number
+  initialAt: (x: number) => number
+  evaluate: (t_s: number, x: number) => number
+  /** Heat-content mean ∫ρc x^m T / ∫ρc x^m (the mass mean when c is uniform). */
+  mean: (t_s: number) => number
+  pointSeries: (at: PointRef) => PointStage[]
+  targetTime: (at: PointRef, target: TargetSpec) => number | null
 }

@@ -7,8 +7,8 @@
  * same functions in the same brackets as eigenRoots.ts, the closed-form
  * coefficients of series.ts (∫x^m f / ∫x^m f², i.e. C_n, from the uniform start,
  * Green's identity from the previous stage's modes after that), the same
- * truncation rule and so the same modes — but keeps the modes as plain numbers
- * instead of Mode objects with shape closures, and makes the StageSeries,
+ * truncation rule and so the same modes — but keeps each mode as its root and
+ * surface values instead of a Mode object with a shape closure, and makes the StageSeries,
  * summaries and point series only when they are read. For these
  * bodies the arithmetic is a few dozen trigonometric or Bessel calls, so the
  * general path's per-call set-up, closures and per-mode objects were most of the
@@ -21,12 +21,11 @@
  */
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
-import { massOf, normOf, overlapOf, surfaceValues, uniformShape } from './eigenRoots'
+import { surfaceValues, uniformAmplitude, uniformMass, uniformShape, type SurfaceValues, type UniformTerm } from './eigenRoots'
 import type { ScaledDomain } from './properties'
-import { firstModeGuess, modesToCompute, truncate, truncationTolerance, type StageSeries } from './series'
+import { firstModeGuess, modesToCompute, stageEarliest_s, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
-import type { CooldownProblem, Geometry } from './types'
-import type { CooldownSolution, PointRef, SolveOptions, StageSummary } from './solveCooldown'
+import type { CooldownProblem, CooldownSolution, Geometry, PointRef, SolveOptions, StageSummary } from './types'
 
 /**
  * The fast solution, or null when the problem is not a uniform symmetric body from
@@ -58,7 +57,7 @@ export function solveUniformSymmetric(problem: CooldownProblem, domain: ScaledDo
     const outer = stage.outer
     const last = i === stages.length - 1
     const end_s = last ? Infinity : start_s + (stage.duration_s as number)
-    const earliest = (Array.isArray(options.earliest_s) ? options.earliest_s[i] : options.earliest_s) ?? 0.01 * timeScale_s
+    const earliest = stageEarliest_s(options.earliest_s, i, timeScale_s)
     const steady_C = outer.type === 'fixed' ? outer.T_C : outer.ambient_C
     const summaryEnd_s = stage.duration_s === undefined ? null : start_s + stage.duration_s
     const tauMin = Math.max(earliest, 0) / timeScale_s
@@ -71,11 +70,8 @@ export function solveUniformSymmetric(problem: CooldownProblem, domain: ScaledDo
   return new UniformSolution(domain, geometry, initial, modes)
 }
 
-/** Scratch for the truncation terms |a_n| e^{−μ_n τ_min}, reused (solves run one at a time). */
-let scratchTerms = new Float64Array(64)
-
 /**
- * One stage's modes as parallel arrays, index j for the (j + 1)-th mode: plain
+ * One stage's modes (roots with surface values), amplitudes and tails as parallel arrays, index j for the (j + 1)-th mode: plain
  * arrays, because a handful of modes is typical and allocating a typed array per
  * field cost more than everything else in a solve.
  */
@@ -89,12 +85,9 @@ class UniformStage {
   readonly biot: number
   /** Modes kept; the arrays also hold the few computed past the cut. */
   count = 0
-  /** Roots λ; the dimensionless decay rates are λ², squared where used (one array fewer to allocate). */
-  readonly lam: number[] = []
+  /** Roots λ with f(1), f′(1) for the closed-form integrals; the dimensionless decay rates are λ². */
+  readonly surfaces: SurfaceValues[] = []
   readonly amp: number[] = []
-  /** f(1) and f′(1), for the closed-form integrals. */
-  readonly f1: number[] = []
-  readonly df1: number[] = []
   /** Σ_{k ≥ j} |a_k| over the kept modes: with |f| ≤ 1 and rates rising, e^{−μ_j τ} times it bounds what is left of a sum. */
   readonly ampTail: number[] = []
   truncationError_K = 0
@@ -123,48 +116,36 @@ class UniformStage {
     // The previous stage's amplitudes at its end (series.ts, modalEnd).
     // Amplitudes below rounding of the largest are dropped: |∫x^m g f| ≤ 1, so their
     // share of any projection is too, and after a long stage most of them are.
-    let carried: number[] | null = null
+    const carried: UniformTerm[] = []
     if (typeof start !== 'number') {
       const tau = (start.end_s - start.start_s) / timeScale_s
-      carried = []
       let largest = 0
       for (let j = 0; j < start.count; j++) {
-        const a = start.amp[j] * Math.exp(-start.lam[j] * start.lam[j] * tau)
-        carried.push(a)
-        largest = Math.max(largest, Math.abs(a))
+        const surface = start.surfaces[j]
+        const amplitude_K = start.amp[j] * Math.exp(-surface.lam * surface.lam * tau)
+        carried.push({ amplitude_K, surface })
+        largest = Math.max(largest, Math.abs(amplitude_K))
       }
-      while (carried.length > 1 && Math.abs(carried[carried.length - 1]) < 1e-17 * largest) carried.pop()
+      while (carried.length > 1 && Math.abs(carried[carried.length - 1].amplitude_K) < 1e-17 * largest) carried.pop()
     }
+    const startExcess_K = (typeof start === 'number' ? start : start.steady_C) - this.steady_C
+    // The truncation terms |a_n| e^{−μ_n τ_min}.
+    const terms: number[] = []
     let computedSoFar = 0
     let n = firstModeGuess(tauMin, minModes, maxModes)
     for (;;) {
       const computed = modesToCompute(n, maxModes)
-      if (scratchTerms.length < computed) {
-        const larger = new Float64Array(computed)
-        larger.set(scratchTerms)
-        scratchTerms = larger
-      }
       for (let j = computedSoFar; j < computed; j++) {
-        const lam = symmetricRootFrom(m, j + 1, this.biot, j === 0 ? Number.NaN : this.lam[j - 1])
-        const f1 = rootF1
-        const df1 = rootDf1
-        // a_n = ((T_start,ss − T_ss) ∫x^m f_n + Σ_i A_i ∫x^m g_i f_n) / ∫x^m f_n² (series.ts); a uniform
-        // start is the case without terms, where mass/norm is the textbook C_n.
-        let projection = ((typeof start === 'number' ? start : start.steady_C) - this.steady_C) * massOf(lam, df1)
-        if (carried !== null) {
-          const from = start as UniformStage
-          for (let i = 0; i < carried.length; i++) projection += carried[i] * overlapOf(m, from.lam[i], from.f1[i], from.df1[i], lam, f1, df1)
-        }
-        const a = projection / normOf(m, lam, f1, df1)
-        this.lam.push(lam)
+        const surface = symmetricRootFrom(m, j + 1, this.biot, j === 0 ? Number.NaN : this.surfaces[j - 1].lam)
+        const lam = surface.lam
+        const a = uniformAmplitude(m, startExcess_K, carried, surface)
+        this.surfaces.push(surface)
         this.amp.push(a)
-        this.f1.push(f1)
-        this.df1.push(df1)
         // |f| ≤ f(0) = 1 for cos, J0 and sin(λx)/(λx).
-        scratchTerms[j] = Math.abs(a) * Math.exp(-lam * lam * tauMin)
+        terms.push(Math.abs(a) * Math.exp(-lam * lam * tauMin))
       }
       computedSoFar = computed
-      const kept = truncate(scratchTerms, computed, minModes, maxModes, tolerance_K)
+      const kept = truncate(terms, computed, minModes, maxModes, tolerance_K)
       if (kept) {
         this.count = kept.cut
         this.truncationError_K = kept.truncationError_K
@@ -185,10 +166,6 @@ function shapeAt(m: 0 | 1 | 2, lam: number, x: number): number {
   return Math.sin(lam * x) / (lam * x)
 }
 
-/** f(1) and f′(1) at the root symmetricRootFrom last returned, which fall out of its last evaluation. */
-let rootF1 = 0
-let rootDf1 = 0
-
 /**
  * n-th root for a symmetric centre and surface Biot number 0 < bi ≤ ∞: the function
  * and bracket of slabRoot, rodRoot and sphereRoot (eigenRoots.ts), solved by
@@ -200,10 +177,10 @@ let rootDf1 = 0
  * the equation's phase form from previous + π, which lies past the root; for n = 1
  * a blend of the small-Bi limit λ² ≈ (m + 1) Bi and the Bi → ∞ root U,
  * λ² ≈ (m + 1) Bi U² / ((m + 1) Bi + U²). Two or three evaluations per root.
- * Also sets rootF1, rootDf1.
+ * Returns the root with f(1) and f′(1), which fall out of its last evaluation.
  */
-function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number): number {
-  if (bi === Infinity) return surfaceAt(m, m === 0 ? (n - 0.5) * Math.PI : m === 1 ? besselJ0Zero(n) : n * Math.PI)
+function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number): SurfaceValues {
+  if (bi === Infinity) return surfaceValues(GEOMETRY_OF[m], m === 0 ? (n - 0.5) * Math.PI : m === 1 ? besselJ0Zero(n) : n * Math.PI)
   const offset = (n - 1) * Math.PI
   let lo = m === 1 ? (n === 1 ? 0 : besselJ1Zero(n - 1)) : offset
   let hi = m === 1 ? besselJ0Zero(n) : n * Math.PI
@@ -269,16 +246,13 @@ function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number
       if (m === 0) {
         // At the root tan(λ − (n − 1)π) = Bi/λ, so cos λ and sin λ are (−1)^(n−1) (λ, Bi)/√(λ² + Bi²).
         const r = (n % 2 === 1 ? 1 : -1) / Math.sqrt(lam * lam + bi * bi)
-        rootF1 = lam * r
-        rootDf1 = -lam * bi * r
-      } else if (m === 1) {
-        rootF1 = a + b * d + (-a + b / x) * h
-        rootDf1 = -lam * (b - (a - b / x) * d + (-b - a / x + (2 * b) / (x * x)) * h)
-      } else {
-        rootF1 = c - e * d + (-c - (2 * e) / x) * h
-        rootDf1 = b + a * d - b * h - rootF1
+        return { lam, f1: lam * r, df1: -lam * bi * r }
       }
-      return lam
+      if (m === 1) {
+        return { lam, f1: a + b * d + (-a + b / x) * h, df1: -lam * (b - (a - b / x) * d + (-b - a / x + (2 * b) / (x * x)) * h) }
+      }
+      const f1 = c - e * d + (-c - (2 * e) / x) * h
+      return { lam, f1, df1: b + a * d - b * h - f1 }
     }
     if (g < 0) lo = x
     else hi = x
@@ -286,7 +260,7 @@ function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number
     if (!(next > lo && next < hi) || Math.abs(2 * d) > Math.abs(step)) {
       step = 0.5 * (hi - lo)
       x = lo + step
-      if (step <= 1e-14 * x) return surfaceAt(m, x)
+      if (step <= 1e-14 * x) return surfaceValues(GEOMETRY_OF[m], x)
     } else {
       step = -d
       x = next
@@ -295,20 +269,8 @@ function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number
   throw new RangeError(`uniform root ${n} (m = ${m}, Bi = ${bi}): no convergence`)
 }
 
-/** Sets rootF1, rootDf1 for λ as surfaceValues computes them; returns λ. */
-function surfaceAt(m: 0 | 1 | 2, lam: number): number {
-  if (m === 0) {
-    rootF1 = Math.cos(lam)
-    rootDf1 = -lam * Math.sin(lam)
-  } else if (m === 1) {
-    rootF1 = besselJ0(lam)
-    rootDf1 = -lam * besselJ1(lam)
-  } else {
-    rootF1 = Math.sin(lam) / lam
-    rootDf1 = Math.cos(lam) - rootF1
-  }
-  return lam
-}
+/** The geometry whose radial weight is x^m. */
+const GEOMETRY_OF: Record<0 | 1 | 2, Geometry> = { 0: 'slab', 1: 'rod', 2: 'sphere' }
 
 class UniformSolution implements CooldownSolution {
   readonly centreX = 0
@@ -334,7 +296,7 @@ class UniformSolution implements CooldownSolution {
   /** The stages as the general path's StageSeries (closures and all), made when first read. */
   get stages(): StageSeries[] {
     return (this.series ??= this.modes.map((s): StageSeries => {
-      const lam = s.lam.slice(0, s.count)
+      const lam = s.surfaces.slice(0, s.count).map((surface) => surface.lam)
       const steady_C = s.steady_C
       const shapes = lam.map((l) => uniformShape(this.geometry, l, 0))
       return {
@@ -346,7 +308,7 @@ class UniformSolution implements CooldownSolution {
         rates: lam.map((l) => l * l),
         amplitudes_K: s.amp.slice(0, s.count),
         shapes,
-        modeMeans: lam.map((l, j) => (this.m + 1) * massOf(l, s.df1[j])),
+        modeMeans: s.surfaces.slice(0, s.count).map((surface) => (this.m + 1) * uniformMass(surface)),
         truncationError_K: s.truncationError_K,
         modes: lam.map((l, j) => ({ rate: l * l, shape: shapes[j], surface: surfaceValues(this.geometry, l) })),
       }
@@ -355,7 +317,7 @@ class UniformSolution implements CooldownSolution {
 
   get summaries(): StageSummary[] {
     return (this.stageSummaries ??= this.modes.map((s) => {
-      const rates = s.lam.slice(0, s.count).map((l) => (l * l) / this.timeScale_s)
+      const rates = s.surfaces.slice(0, s.count).map(({ lam }) => (lam * lam) / this.timeScale_s)
       return {
         start_s: s.start_s,
         end_s: s.summaryEnd_s,
@@ -385,10 +347,11 @@ class UniformSolution implements CooldownSolution {
     const tau = (t_s - s.start_s) / this.timeScale_s
     let T = s.steady_C
     for (let j = 0; j < s.count; j++) {
-      const decay = Math.exp(-s.lam[j] * s.lam[j] * tau)
+      const lam = s.surfaces[j].lam
+      const decay = Math.exp(-lam * lam * tau)
       // The terms left add less than 1e-15 K, below rounding: most readings need a mode or two.
       if (decay * s.ampTail[j] < 1e-15) break
-      T += s.amp[j] * shapeAt(this.m, s.lam[j], x) * decay
+      T += s.amp[j] * shapeAt(this.m, lam, x) * decay
     }
     return T
   }
@@ -406,8 +369,9 @@ class UniformSolution implements CooldownSolution {
     const result = this.modes.map((s): PointStage => {
       const terms = []
       for (let j = 0; j < s.count; j++) {
-        const weight = at === 'mean' ? (this.m + 1) * massOf(s.lam[j], s.df1[j]) : shapeAt(this.m, s.lam[j], x)
-        terms.push({ amplitude_K: s.amp[j] * weight, decayRate_per_s: (s.lam[j] * s.lam[j]) / this.timeScale_s })
+        const surface = s.surfaces[j]
+        const weight = at === 'mean' ? (this.m + 1) * uniformMass(surface) : shapeAt(this.m, surface.lam, x)
+        terms.push({ amplitude_K: s.amp[j] * weight, decayRate_per_s: (surface.lam * surface.lam) / this.timeScale_s })
       }
       return { start_s: s.start_s, ...(Number.isFinite(s.end_s) ? { end_s: s.end_s } : {}), steady_C: s.steady_C, terms }
     })

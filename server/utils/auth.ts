@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import { getServerSession } from '#auth'
-import { type Role, roleAllows } from '../../shared/roles'
+import type { Role } from '../../shared/roles'
+import { type Capability, can, rolesFor } from '../../shared/access'
 
 export interface SessionUser {
   id: number
@@ -14,9 +15,9 @@ export interface SessionUser {
  * (server/api/auth/[...].ts) reads the account fresh from the database on every
  * request and drops the user of a deactivated account, so a deactivation or a role
  * change takes effect at once, whatever the session token says.
- * 401 without a valid session, 403 when the role is not in `allowed` (empty: any role).
+ * 401 without a valid session, 403 when the role lacks `capability` (shared/access.ts).
  */
-export async function requireRole(event: H3Event, allowed: readonly Role[] = []): Promise<SessionUser> {
+export async function requireRole(event: H3Event, capability: Capability): Promise<SessionUser> {
   const session = await getServerSession(event)
   const user = session?.user as { id?: unknown; email?: string; name?: string; role?: Role; mustChangePassword?: boolean } | undefined
   const id = Number(user?.id)
@@ -27,11 +28,11 @@ export async function requireRole(event: H3Event, allowed: readonly Role[] = [])
     // A generated first password was shown once on a console; only its owner's own choice may act.
     throw createError({ statusCode: 403, statusMessage: 'Choose your own password first', data: { problems: [{ field: 'password', message: 'Change the generated password at /account/password' }] } })
   }
-  if (!roleAllows(user.role, allowed)) {
+  if (!can(user.role, capability)) {
     throw createError({
       statusCode: 403,
       statusMessage: 'Not allowed for your role',
-      data: { role: user.role, allowedRoles: allowed },
+      data: { role: user.role, capability, allowedRoles: rolesFor(capability) },
     })
   }
   return { id, email: user.email as string, displayName: user.name as string, role: user.role }

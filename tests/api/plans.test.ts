@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import bessel from 'bessel'
 import { runCase } from '../../server/thermal/runCase'
-import { productTimeToCentre } from '../../server/thermal/productSolutions'
+import { referenceTimeToCentre_s } from '../support/productReference'
 import { pointValue } from '../../shared/pointSeries'
 import { DEMO_PLANS } from '../../server/db/demo/plans'
 import { anonymous, signInDemo, type Client } from '../support/http'
@@ -239,13 +239,23 @@ describe('plans: short cylinder by product solutions', () => {
     expect(pointValue(cylinder.body.summary.handlingPointSeries, cylinder.body.quenchToHandling_s)).toBeCloseTo(100, 1)
   })
 
-  it('one stage: the centre time equals the engine\'s own short-cylinder product solution', async () => {
-    // Source: productTimeToCentre (Carslaw & Jaeger §1.15 product of the rod and slab series), a separate code path.
+  it('one stage: the centre time equals the closed-form short-cylinder product solution', async () => {
+    // Source: tests/support/productReference.ts (Carslaw & Jaeger §1.15 product of the rod and slab series, bisected roots).
     const spec = { ...barSpec(), name: 'Short cylinder, oil only', part: { shape: 'cylinder', diameter_m: 0.04, length_m: 0.1 }, stages: [{ quenchantId: lib.oil25Id }] }
     const response = await metallurgist.request('/api/plans/preview', { method: 'POST', body: spec })
     expect(response.status).toBe(200)
-    const expected = productTimeToCentre(
-      { body: { shape: 'cylinder', radius_m: 0.02, halfLength_m: 0.05 }, k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
+    const expected = referenceTimeToCentre_s(
+      {
+        directions: [
+          { geometry: 'rod', size_m: 0.02 },
+          { geometry: 'slab', size_m: 0.05 },
+        ],
+        k_W_mK: 40,
+        rhoCp_J_m3K: 7850 * 475,
+        h_W_m2K: 800,
+        initial_C: 850,
+        ambient_C: 25,
+      },
       100,
     )
     expect(response.body.quenchToHandling_s / expected - 1).toBeLessThan(1e-6)

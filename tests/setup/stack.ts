@@ -7,6 +7,7 @@ import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { APP_PORT, AUTH_SECRET, BASE_URL, MAIL_SMTP_PORT, RECORD_SEAL_KEY } from '../support/stackConfig'
 import { startMailCatcher, stopMailCatcher } from '../support/mailCatcher'
+import { DEMO_LOAD_PREFIX, DEMO_SHOP_NAME } from '../../server/db/demo/shop'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 
@@ -36,7 +37,7 @@ async function waitFor(url: string, what: string, seconds = 60): Promise<void> {
 async function startStack(): Promise<Stack> {
   run('bash', ['scripts/db.sh', 'reset', 'test'])
   const databaseUrl = run('bash', ['scripts/db.sh', 'url', 'test']).trim()
-  const env = { ...process.env, DATABASE_URL: databaseUrl, AUTH_ORIGIN: `${BASE_URL}/api/auth`, NUXT_RECORD_SEAL_KEY: RECORD_SEAL_KEY }
+  const env = { ...process.env, DATABASE_URL: databaseUrl, AUTH_ORIGIN: `${BASE_URL}/api/auth`, NUXT_RECORD_SEAL_KEY: RECORD_SEAL_KEY, NUXT_SHOP_NAME: DEMO_SHOP_NAME, NUXT_LOAD_PREFIX: DEMO_LOAD_PREFIX }
   run('npx', ['tsx', 'scripts/migrate.ts'], env)
   run('npx', ['tsx', 'scripts/seed.ts'], env)
   run('bash', ['-c', 'source scripts/lib.sh && mkdir -p .data && build_if_stale'])

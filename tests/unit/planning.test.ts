@@ -3,9 +3,10 @@ import { planSpecSchema, resolvedPlanSchema, type ResolvedPlan } from '../../sha
 import { engineBody, volumeToSurface_m, characteristicLength_m } from '../../server/planning/shapes'
 import { furnaceCoefficient_W_m2K } from '../../server/planning/furnace'
 import { computePlan, curveCsv, planField, quenchCase } from '../../server/planning/computePlan'
-import { productTimeToCentre } from '../../server/thermal/productSolutions'
+import { referenceTimeToCentre_s } from '../support/productReference'
 import { pointValue } from '../../shared/pointSeries'
 import type { PlanResult } from '../../shared/types/planResult'
+import { firstMode } from '../support/referenceValues'
 
 const validSpec = {
   name: 'Shaft 40 mm',
@@ -110,9 +111,10 @@ describe('shape → engine geometry', () => {
 })
 
 describe('Biot, Fourier and the one-term rule', () => {
-  it('a bar at Bi = 1 past Fo = 0.2: the centre follows the one-term solution with Incropera Table 5.1 constants', () => {
-    // Incropera et al., Fundamentals of Heat and Mass Transfer, Table 5.1, infinite cylinder, Bi = 1.0:
-    // ζ1 = 1.2558, C1 = 1.2071; θ*₀ = C1 exp(−ζ1² Fo) (eq. 5.52c) — table values to 4–5 figures.
+  it('a bar at Bi = 1 past Fo = 0.2: the centre follows the one-term solution with the mpmath constants', () => {
+    // Infinite cylinder, Bi = 1: ζ1 and C1 from tests/fixtures/reference-values.json (mpmath);
+    // θ*₀ = C1 exp(−ζ1² Fo).
+    const { zeta, c1 } = firstMode('rod', 1)
     const result = computePlan(resolved({ stages: [{ quenchantId: 3 }], handling: { below_C: 200 } }))
     const stage = result.stages[0]!
     expect(stage.biot).toBeCloseTo((2000 * 0.02) / 40, 12)
@@ -122,10 +124,10 @@ describe('Biot, Fourier and the one-term rule', () => {
     expect(result.fourierAtHandling).toBeCloseTo(fo, 12)
     expect(fo).toBeGreaterThan(0.2)
     expect(result.oneTermValid).toBe(true)
-    const oneTerm = 1.2071 * Math.exp(-(1.2558 ** 2) * fo)
+    const oneTerm = c1 * Math.exp(-(zeta ** 2) * fo)
     expect(oneTerm).toBeCloseTo((200 - 25) / (850 - 25), 3)
     // The slowest decay rate is ζ1² α / R².
-    expect(stage.modes[0]!.decayRate_per_s / ((1.2558 ** 2 * alpha) / 0.02 ** 2)).toBeCloseTo(1, 3)
+    expect(stage.modes[0]!.decayRate_per_s / ((zeta ** 2 * alpha) / 0.02 ** 2)).toBeCloseTo(1, 8)
   })
 
   it('below Fo = 0.2 the one-term estimate is flagged as not valid', () => {
@@ -144,11 +146,12 @@ describe('furnace coefficient (common practice)', () => {
 })
 
 describe('product shapes', () => {
-  it('one stage: a block centre time equals the engine product solution for blocks', () => {
-    // Source: productTimeToCentre (Carslaw & Jaeger §1.15, product of three slab series), a separate code path.
+  it('one stage: a block centre time equals the closed-form product of three slab series', () => {
+    // Source: tests/support/productReference.ts (Carslaw & Jaeger §1.15, product of three slab series, bisected roots).
     const block = computePlan(resolved({ part: { shape: 'block', sides_m: [0.04, 0.08, 0.2] }, stages: [{ quenchantId: 1 }] }))
-    const expected = productTimeToCentre(
-      { body: { shape: 'block', halfWidths_m: [0.02, 0.04, 0.1] }, k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
+    const slab = (size_m: number) => ({ geometry: 'slab' as const, size_m })
+    const expected = referenceTimeToCentre_s(
+      { directions: [slab(0.02), slab(0.04), slab(0.1)], k_W_mK: 40, rhoCp_J_m3K: 7850 * 475, h_W_m2K: 800, initial_C: 850, ambient_C: 25 },
       100,
     )
     expect(block.method).toBe('product')

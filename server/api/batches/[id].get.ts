@@ -1,7 +1,9 @@
+import { getBatch } from '../../schedule/batchReads'
+
 const Params = idParams('Batch')
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'schedule.read')
   const { id } = await paramsValid(event, Params)
   return await getBatch(id)
 })

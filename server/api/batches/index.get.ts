@@ -1,9 +1,10 @@
 import { batchQuerySchema } from '../../../shared/schemas/schedule'
+import { listBatches } from '../../schedule/batchReads'
 
 const MAX_SPAN_MS = 45 * 24 * 3600_000
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'schedule.read')
   const query = queryValid(event, batchQuerySchema)
   const from = new Date(query.from)
   const to = new Date(query.to)

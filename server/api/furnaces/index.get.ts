@@ -1,4 +1,6 @@
+import { listFurnaces } from '../../schedule/equipment'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'equipment.read')
   return await listFurnaces()
 })

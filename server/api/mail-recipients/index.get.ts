@@ -1,4 +1,6 @@
+import { listRecipientSettings } from '../../outbox/mailRecipients'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['admin'])
+  await requireRole(event, 'mail.manage')
   return await listRecipientSettings()
 })

@@ -1,5 +1,7 @@
+import { listMaterials } from '../../library/materials'
+
 // Every signed-in role reads the library: operators and QA see what plans were built on.
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'library.read')
   return await listMaterials()
 })

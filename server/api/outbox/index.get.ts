@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { OUTBOX_STATUSES } from '../../../shared/types/outbox'
+import { listOutbox } from '../../outbox/messages'
 
 const Query = z.object({
   status: z.enum(OUTBOX_STATUSES, { message: `Status must be one of ${OUTBOX_STATUSES.join(', ')}` }).optional(),
@@ -7,6 +8,6 @@ const Query = z.object({
 })
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['admin'])
+  await requireRole(event, 'outbox.manage')
   return await listOutbox(queryValid(event, Query))
 })

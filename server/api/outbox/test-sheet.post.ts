@@ -2,6 +2,8 @@ import { randomUUID } from 'node:crypto'
 import { z } from 'zod'
 import { sampleHoldTimeSheet } from '../../records/sampleSheet'
 import { holdTimeSheetMail } from '../../records/sheetMail'
+import { recipientsFor } from '../../outbox/mailRecipients'
+import { enqueueMail } from '../../outbox/enqueue'
 
 const Body = z.strictObject({
   loadNumber: z
@@ -16,12 +18,12 @@ const Body = z.strictObject({
  * Admin "send a test sheet": queues the hold-time sheet of a fictional Kestrel Bay load,
  * PDF and CSV attached, to the released-sheet recipients (or `to`), so an administrator
  * can check the mail server and the recipients before a real release depends on them.
- * Real sheets are queued by the release itself (server/utils/records.ts).
+ * Real sheets are queued by the release itself (server/records/service.ts).
  */
 export default defineEventHandler(async (event) => {
-  const admin = await requireRole(event, ['admin'])
+  const admin = await requireRole(event, 'outbox.manage')
   const body = await readValid(event, Body)
-  const sheet = sampleHoldTimeSheet({ loadNumber: body.loadNumber })
+  const sheet = sampleHoldTimeSheet({ loadNumber: body.loadNumber, shopName: useShopConfig().shopName })
   const dedupeKey = `test-sheet:${body.dedupeKey ?? randomUUID()}`
   // Rendered before the transaction so the PDF work does not hold row locks.
   const mail = await holdTimeSheetMail(sheet, [], dedupeKey)

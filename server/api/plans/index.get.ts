@@ -1,4 +1,6 @@
+import { listPlans } from '../../planning/plans'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'plans.read')
   return await listPlans()
 })

@@ -1,4 +1,6 @@
+import { planOptions } from '../../schedule/batchReads'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['metallurgist', 'admin'])
+  await requireRole(event, 'schedule.book')
   return await planOptions()
 })

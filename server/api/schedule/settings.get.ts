@@ -1,4 +1,6 @@
+import { readShopSettings } from '../../schedule/shopSettings'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'equipment.read')
   return await readShopSettings()
 })

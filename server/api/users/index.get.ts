@@ -1,4 +1,6 @@
+import { listUsers } from '../../accounts/users'
+
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['admin'])
+  await requireRole(event, 'people.manage')
   return await listUsers()
 })

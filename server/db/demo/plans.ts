@@ -1,7 +1,7 @@
 import { count, eq, inArray } from 'drizzle-orm'
 import type { Database } from '../client'
 import { materials, plans, quenchants, users } from '../schema'
-import { createPlan } from '../../utils/plans'
+import { createPlan } from '../../planning/plans'
 import { planSpecSchema, type PlanSpecInput } from '../../../shared/schemas/plan'
 
 type DemoStage = { quenchant: string; duration_s?: number }

@@ -1,13 +1,15 @@
 import { and, count, eq, inArray } from 'drizzle-orm'
 import type { Database } from '../client'
 import { batchEvents, batches, furnaceStations, furnaces, planRevisions, plans, quenchStations, users } from '../schema'
-import { bookBatch } from '../../utils/batches'
-import { writeCooldownRecord } from '../../utils/records'
+import { bookBatch } from '../../schedule/booking'
+import type { RecordConfig } from '../../records/config'
+import { writeCooldownRecord } from '../../records/service'
 import { deriveSlots, type BatchState } from '../../../shared/schedule'
 import type { ResolvedPlan } from '../../../shared/schemas/plan'
 import type { QuenchantKind } from '../../../shared/schemas/quenchant'
 import type { PlanSummary } from '../../../shared/types/plan'
 import { DEMO_PLANS } from './plans'
+import { DEMO_LOAD_PREFIX } from './shop'
 
 export interface DemoPlanRevision {
   planRevisionId: number
@@ -43,11 +45,11 @@ export interface DemoScheduleResult {
  * Three furnaces, three stations and about two days of loads around now. Loads
  * whose charge time has passed are advanced as if the floor had followed the plan
  * to the minute, except that every fifth one went into the bath two and a half
- * minutes late; loads already released get their cooldown record (sealed with
- * `sealKey`, their hold-time sheets queued as on a real release), so the QA lead has
- * records to review, one of them with a deviation. Runs once.
+ * minutes late; loads already released get their cooldown record (sealed and linked
+ * as `recordConfig` says, their hold-time sheets queued as on a real release), so the
+ * QA lead has records to review, one of them with a deviation. Runs once.
  */
-export async function seedDemoSchedule(db: Database, sealKey: string | null): Promise<DemoScheduleResult | null> {
+export async function seedDemoSchedule(db: Database, recordConfig: RecordConfig | null): Promise<DemoScheduleResult | null> {
   const [{ total }] = await db.select({ total: count() }).from(furnaces)
   if (total > 0) return null
   const [metallurgist] = await db.select().from(users).where(eq(users.role, 'metallurgist'))
@@ -81,6 +83,7 @@ export async function seedDemoSchedule(db: Database, sealKey: string | null): Pr
   const hour = 3600_000
   let sequence = 0
   let records = 0
+  const booking = { loadPrefix: DEMO_LOAD_PREFIX }
   for (const [f, furnaceId] of furnaceIds.entries()) {
     let charge = now - 14 * hour + f * 40 * 60_000
     while (charge < now + 36 * hour) {
@@ -90,15 +93,15 @@ export async function seedDemoSchedule(db: Database, sealKey: string | null): Pr
       const input = { planRevisionId: plan.planRevisionId, furnaceId, stationId, plannedCharge: new Date(charge).toISOString(), partCount: 12 + (sequence % 5) * 6, mass_kg: 150 + (sequence % 4) * 90, reference: `WO-${4100 + sequence}` }
       let booked
       try {
-        booked = await bookBatch(input, metallurgist, db)
+        booked = await bookBatch(input, metallurgist, booking, db)
       } catch (error) {
         const next = (error as { data?: { nextFreeStart?: string } }).data?.nextFreeStart
         if (!next) throw error
-        booked = await bookBatch({ ...input, plannedCharge: next }, metallurgist, db)
+        booked = await bookBatch({ ...input, plannedCharge: next }, metallurgist, booking, db)
       }
       const state = await followPlan(db, booked.id, now, operator.id, sequence % 5 === 2 ? LATE_QUENCH_S : 0)
-      if (state === 'released' && sealKey) {
-        await db.transaction((tx) => writeCooldownRecord(tx, booked.id, operator, sealKey))
+      if (state === 'released' && recordConfig) {
+        await db.transaction((tx) => writeCooldownRecord(tx, booked.id, operator, recordConfig))
         records += 1
       }
       charge = booked.furnaceEnd + 20 * 60_000

@@ -5,6 +5,8 @@ import type { Role } from '../../../shared/roles'
  * demonstration only; no real company, person or address.
  */
 export const DEMO_SHOP_NAME = 'Kestrel Bay Heat Treat'
+/** The demo's load numbers start with the shop's initials. */
+export const DEMO_LOAD_PREFIX = 'KB'
 
 export interface DemoUser {
   email: string

@@ -6,7 +6,7 @@ import { escapeHtml, renderSheetHtml, renderSheetText } from '../../../server/re
 import { renderSheetPdf } from '../../../server/records/sheetPdf'
 import { pdfText } from '../../support/pdfText'
 
-const sheet = sampleHoldTimeSheet({ loadNumber: 'KB-24-0117', now: new Date('2026-03-04T10:00:00Z') })
+const sheet = sampleHoldTimeSheet({ loadNumber: 'KB-24-0117', shopName: 'Kestrel Bay Heat Treat', now: new Date('2026-03-04T10:00:00Z') })
 
 describe('renderCurveCsv', () => {
   it('writes units in the header and one CRLF-terminated row per point', () => {

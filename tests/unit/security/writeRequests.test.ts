@@ -36,8 +36,8 @@ describe('which API writes are refused (CSRF, media type, size)', () => {
     expect(refuseWrite(request, [APP])?.status ?? null).toBe(status)
   })
 
-  it('accepts the request origin, AUTH_ORIGIN and PUBLIC_ORIGIN as the app', () => {
-    expect(appOrigins('http://10.0.0.5:3000', { AUTH_ORIGIN: 'https://slake.shop.example/api/auth', PUBLIC_ORIGIN: 'https://slake.shop.example:8443' })).toEqual([
+  it('accepts the request origin and the configured addresses (AUTH_ORIGIN, NUXT_SITE_ORIGIN) as the app', () => {
+    expect(appOrigins('http://10.0.0.5:3000', ['https://slake.shop.example/api/auth', 'https://slake.shop.example:8443', undefined, 'not a url'])).toEqual([
       'http://10.0.0.5:3000',
       'https://slake.shop.example',
       'https://slake.shop.example:8443',

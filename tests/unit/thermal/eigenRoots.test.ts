@@ -1,49 +1,40 @@
 import { describe, expect, it } from 'vitest'
-import { besselJ0, besselJ0Zero, besselJ1 } from '../../../server/thermal/bessel'
+import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from '../../../server/thermal/bessel'
 import { rodRoot, slabRoot, sphereRoot, symmetricRoot, uniformInitialCoefficient } from '../../../server/thermal/eigenRoots'
 import type { Geometry } from '../../../server/thermal/types'
+import { besselValues, besselZeros, biotRoots } from '../../support/referenceValues'
 
+// Reference values: mpmath (scripts/reference/generate.py → tests/fixtures/reference-values.json).
 describe('Bessel functions', () => {
-  // Abramowitz & Stegun (NBS Applied Mathematics Series 55), Table 9.1.
-  it.each([
-    [0, 1, 0.7651976866, 'A&S Table 9.1'],
-    [1, 1, 0.4400505857, 'A&S Table 9.1'],
-    [0, 2, 0.2238907791, 'A&S Table 9.1'],
-    [1, 2, 0.5767248078, 'A&S Table 9.1'],
-  ])('J%i(%f) = %f (%s)', (order, x, value) => {
-    expect((order === 0 ? besselJ0 : besselJ1)(x)).toBeCloseTo(value, 8)
+  // The bessel package's fits carry ≈ 3e-9 absolute error (server/thermal/bessel.ts).
+  it.each(besselValues.map((row) => [row.x, row] as const))('J0(%f) and J1 agree with mpmath to 1e-8', (x, row) => {
+    expect(Math.abs(besselJ0(x) - row.J0)).toBeLessThan(1e-8)
+    expect(Math.abs(besselJ1(x) - row.J1)).toBeLessThan(1e-8)
   })
 
-  // A&S Table 9.5, zeros j0,s of J0; the library's J values limit us to ~1e-8.
-  it.each([
-    [1, 2.404825558],
-    [2, 5.52007811],
-    [3, 8.653727913],
-    [4, 11.79153444],
-    [5, 14.93091771],
-  ])('zero %i of J0 is %f (A&S Table 9.5), and is the fixed-surface rod root', (n, zero) => {
-    expect(Math.abs(besselJ0Zero(n) - zero)).toBeLessThan(1e-8)
-    expect(Math.abs(rodRoot(n, Infinity) - zero)).toBeLessThan(1e-8)
+  it.each(besselZeros.J0.map((zero, i) => [i + 1, zero] as const))(
+    'zero %i of J0 is %f (mpmath besseljzero) to 1e-8, and is the fixed-surface rod root',
+    (n, zero) => {
+      expect(Math.abs(besselJ0Zero(n) - zero)).toBeLessThan(1e-8)
+      expect(Math.abs(rodRoot(n, Infinity) - zero)).toBeLessThan(1e-8)
+    },
+  )
+
+  it.each(besselZeros.J1.map((zero, i) => [i + 1, zero] as const))('zero %i of J1 is %f (mpmath besseljzero) to 1e-8', (n, zero) => {
+    expect(Math.abs(besselJ1Zero(n) - zero)).toBeLessThan(1e-8)
   })
 })
 
-describe('first eigenvalue and one-term coefficient', () => {
-  // Incropera, DeWitt, Bergman & Lavine, Fundamentals of Heat and Mass Transfer,
-  // Table 5.1 (values from memory, tabulated to 4 decimals).
-  it.each([
-    ['slab', 0.1, 0.3111, 1.0161],
-    ['slab', 1, 0.8603, 1.1191],
-    ['slab', 10, 1.4289, 1.262],
-    ['rod', 0.1, 0.4417, 1.0246],
-    ['rod', 1, 1.2558, 1.2071],
-    ['rod', 10, 2.1795, 1.5677],
-    ['sphere', 0.1, 0.5423, 1.0298],
-    ['sphere', 1, 1.5708, 1.2732],
-    ['sphere', 10, 2.8363, 1.9249],
-  ] as [Geometry, number, number, number][])('%s at Bi = %f: ζ1 = %f, C1 = %f (Incropera Table 5.1)', (g, bi, zeta, c1) => {
-    const lam = symmetricRoot(g, 1, bi)
-    expect(Math.abs(lam - zeta)).toBeLessThan(1.5e-4)
-    expect(Math.abs(uniformInitialCoefficient(g, lam) - c1)).toBeLessThan(1.5e-4)
+describe('roots and one-term coefficients against mpmath', () => {
+  // Slab and sphere roots are polished to rtol 1e-15 from exact trigonometry, so 1e-12
+  // relative holds with room; rods inherit the ≈ 1e-8 of the Bessel values.
+  it.each(biotRoots.map((row) => [row.geometry, row.bi, row] as const))('%s at Bi = %f: λ1 … λ6 and C1 … C6', (g, bi, row) => {
+    const tol = g === 'rod' ? 1e-8 : 1e-12
+    row.roots.forEach((zeta, i) => {
+      const lam = symmetricRoot(g, i + 1, bi)
+      expect(Math.abs(lam / zeta - 1), `λ${i + 1}`).toBeLessThan(tol)
+      expect(Math.abs(uniformInitialCoefficient(g, lam) - row.coefficients[i]!), `C${i + 1}`).toBeLessThan(tol)
+    })
   })
 })
 

@@ -1,4 +1,4 @@
-import type { Boundary, CooldownProblem, Geometry, Stage } from '../../../server/thermal/types'
+import type { Boundary, CooldownProblem, Geometry, PropertyPoint, Stage } from '../../../server/thermal/types'
 
 /** A uniform body from k, ρc. */
 export function uniformProblem(
@@ -18,3 +18,11 @@ export function uniformProblem(
 
 export const convective = (h_W_m2K: number, ambient_C: number) => ({ type: 'convective' as const, h_W_m2K, ambient_C })
 export const fixed = (T_C: number) => ({ type: 'fixed' as const, T_C })
+
+/** A case-hardened rod: a graded core, and a jump in k and ρc at x = 0.85 into the case. */
+export const casedRod: PropertyPoint[] = [
+  { x: 0, k_W_mK: 28, rhoCp_J_m3K: 3.7e6 },
+  { x: 0.85, k_W_mK: 40, rhoCp_J_m3K: 3.8e6 },
+  { x: 0.85, k_W_mK: 18, rhoCp_J_m3K: 4.1e6 },
+  { x: 1, k_W_mK: 20, rhoCp_J_m3K: 4.1e6 },
+]

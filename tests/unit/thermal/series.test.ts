@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { symmetricRoot, uniformInitialCoefficient } from '../../../server/thermal/eigenRoots'
 import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import type { Geometry } from '../../../server/thermal/types'
+import { centreSeries, fixedSurfaceSphere } from '../../support/referenceValues'
 import { convective, fixed, uniformProblem } from './helpers'
 
 const K = 40
@@ -24,6 +25,31 @@ describe('decay rates of fixed-face slabs (separation of variables, Carslaw & Ja
     // Mid-plane of the full-thickness slab is the "centre".
     expect(sol.centreX).toBe(0.5)
   })
+})
+
+describe('full series against mpmath (tests/fixtures/reference-values.json)', () => {
+  // The fixture sums the series to 40 digits; the engine truncates at 0.01 K unless
+  // asked for more modes, so it gets 40 here, far past any term that matters at Fo ≥ 0.05.
+  it.each(centreSeries.map((row) => [row.geometry, row.bi, row.fo, row.centreRatio] as const))(
+    '%s, Bi = %f, Fo = %f: centre excess ratio %f',
+    (g, bi, fo, ratio) => {
+      const L = 0.03
+      const outer = bi === Infinity ? fixed(20) : convective((bi * K) / L, 20)
+      const sol = solveCooldown(uniformProblem(g, L, K, RHOCP, 820, [{ outer }]), { earliest_s: (0.05 * L * L) / KAPPA, minModes: 40 })
+      const theta = (sol.evaluate((fo * L * L) / KAPPA, 0) - 20) / 800
+      // Slab and sphere: exact trigonometry, 1e-10; rods: the Bessel values' ≈ 1e-8.
+      expect(Math.abs(theta - ratio)).toBeLessThan(g === 'rod' ? 1e-7 : 1e-10)
+    },
+  )
+
+  it.each(fixedSurfaceSphere.map((row) => [row.x, row.fo, row.ratio] as const))(
+    'sphere held at its surface, x = %f, Fo = %f: the sine series gives %f',
+    (x, fo, ratio) => {
+      const R = 0.02
+      const sol = solveCooldown(uniformProblem('sphere', R, K, RHOCP, 820, [{ outer: fixed(20) }]), { earliest_s: (0.02 * R * R) / KAPPA, minModes: 60 })
+      expect(Math.abs((sol.evaluate((fo * R * R) / KAPPA, x) - 20) / 800 - ratio)).toBeLessThan(1e-10)
+    },
+  )
 })
 
 describe('one-term approximation (Incropera §5.5: within 2% for Fo ≥ 0.2)', () => {
@@ -66,7 +92,7 @@ describe('lumped-capacitance limit (Incropera §5.1: Bi < 0.1 within ~5%)', () =
 
 describe('textbook worked example', () => {
   // Çengel & Ghajar, Heat and Mass Transfer, Ch. 4, "cooling of a long stainless steel
-  // cylindrical shaft" (from memory): D = 20 cm, T_i = 600 °C, T∞ = 200 °C, h = 80 W/m²K,
+  // cylindrical shaft" (provenance: DEVELOPERS.md, "Provenance of numbers"): D = 20 cm, T_i = 600 °C, T∞ = 200 °C, h = 80 W/m²K,
   // k = 14.9 W/mK, α = 3.95e-6 m²/s; after 45 min the one-term table (Bi = 0.537,
   // λ1 = 0.970, A1 = 1.122, τ = 1.07) gives θ0 = 0.41, T0 ≈ 364 °C. Tolerance ±2 K for
   // the 3-figure table values.

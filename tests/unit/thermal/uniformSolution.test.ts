@@ -2,10 +2,10 @@ import { beforeAll, describe, expect, it, vi } from 'vitest'
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
 import { runCase } from '../../../server/thermal/runCase'
 import { scaleDomain } from '../../../server/thermal/properties'
-import { solveCooldown, type PointRef, type SolveOptions } from '../../../server/thermal/solveCooldown'
+import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import { solveUniformSymmetric } from '../../../server/thermal/uniformSolution'
 import type { TargetSpec } from '../../../server/thermal/targetTime'
-import type { CooldownProblem, Geometry, Stage } from '../../../server/thermal/types'
+import type { CooldownProblem, Geometry, PointRef, SolveOptions, Stage } from '../../../server/thermal/types'
 import { convective, fixed, uniformProblem } from './helpers'
 
 const K = 40

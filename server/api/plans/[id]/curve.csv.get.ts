@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { curveCsv } from '../../../planning/computePlan'
+import { PlanIdParams, getPlan } from '../../../planning/plans'
 
 const Query = z.object({
   revision: z.coerce.number({ message: 'Revision must be a number' }).int().positive('Revision must be positive').optional(),
@@ -7,7 +8,7 @@ const Query = z.object({
 })
 
 export default defineEventHandler(async (event) => {
-  await requireRole(event)
+  await requireRole(event, 'plans.read')
   const { id } = await paramsValid(event, PlanIdParams)
   const { revision, temperature } = queryValid(event, Query)
   const plan = await getPlan(id, revision)

@@ -1,7 +1,8 @@
 import { planRevisionInputSchema } from '../../../../../shared/schemas/plan'
+import { PlanIdParams, addRevision } from '../../../../planning/plans'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireRole(event, ['metallurgist', 'admin'])
+  const user = await requireRole(event, 'plans.edit')
   const { id } = await paramsValid(event, PlanIdParams)
   const { note, ...spec } = await readValid(event, planRevisionInputSchema)
   setResponseStatus(event, 201)

@@ -1,11 +1,13 @@
 import { asc, eq } from 'drizzle-orm'
+import { createError } from 'h3'
 import type { z } from 'zod'
 import { furnaceStations, furnaces, quenchStations, type FurnaceRow } from '../db/schema'
 import type { furnaceInputSchema, stationInputSchema } from '../../shared/schemas/schedule'
 import type { Furnace, QuenchStation } from '../../shared/types/schedule'
 import type { Transaction } from '../db/client'
-import { recordAudit } from './audit'
-import { isDuplicateKey } from './dbErrors'
+import { recordAudit } from '../utils/audit'
+import { isDuplicateKey } from '../utils/dbErrors'
+import { useDb } from '../utils/db'
 
 type FurnaceData = z.output<typeof furnaceInputSchema>
 type StationData = z.output<typeof stationInputSchema>

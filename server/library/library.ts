@@ -1,12 +1,14 @@
 // The library has no delete: plans copy the values they used, so an entry that is no
 // longer wanted is renamed or annotated instead, and the audit trail keeps its history.
 import { asc, eq } from 'drizzle-orm'
+import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import type { materials, quenchants } from '../db/schema'
-import { recordAudit } from './audit'
-import { isDuplicateKey } from './dbErrors'
-import { invalidRequest } from './validation'
+import { recordAudit } from '../utils/audit'
+import { isDuplicateKey } from '../utils/dbErrors'
+import { invalidRequest } from '../utils/validation'
+import { useDb } from '../utils/db'
 
 /** The `[id]` of a library route. */
 export const libraryIdParams = z.object({

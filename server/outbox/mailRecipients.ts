@@ -8,7 +8,8 @@ import {
 } from '../../shared/schemas/mailRecipients'
 import type { Database, Transaction } from '../db/client'
 import { mailRecipients, users, type MailRecipientRow } from '../db/schema'
-import { recordAudit } from './audit'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
 
 async function activeAddressesOf(db: Database | Transaction, role: MailRecipientSetting['defaultRole']): Promise<string[]> {
   const rows = await db.select({ email: users.email }).from(users).where(and(eq(users.role, role), eq(users.active, true))).orderBy(asc(users.email))

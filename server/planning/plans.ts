@@ -4,13 +4,13 @@ import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
 import { CaseError } from '../thermal/caseSchema'
-import { checkPlan, computePlan } from '../planning/computePlan'
+import { checkPlan, computePlan } from './computePlan'
 import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
-import { recordAudit } from './audit'
-import { useDb } from './db'
-import { positiveId } from './validation'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
+import { positiveId } from '../utils/validation'
 
 const planId = positiveId('Plan')
 /** Path parameters of the /api/plans/[id] routes. */

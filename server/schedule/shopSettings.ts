@@ -1,7 +1,8 @@
 import type { Database, Transaction } from '../db/client'
 import { shopSettings } from '../db/schema'
 import { DEFAULT_SHOP_SETTINGS, type ShopSettings } from '../../shared/schedule'
-import { recordAudit } from './audit'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
 
 /** The shop's scheduling figures: stored values over the product defaults. */
 export async function readShopSettings(db: Database | Transaction = useDb()): Promise<ShopSettings> {

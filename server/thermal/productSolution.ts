@@ -12,19 +12,28 @@
  *
  * Each factor comes from the series engine (solveCooldown) for a slab or rod; the
  * heat-content mean of a product is the product of the 1-D means (the volume
- * integral factorises).
+ * integral factorises). Checked in tests/unit/thermal/productSolution.test.ts
+ * against closed-form slab and rod series, one-term values and a worked example.
  */
-import { CaseError, caseToProblem, parseCase } from '../thermal/caseSchema'
-import { CURVE_POINTS, curveTimes } from '../thermal/runCase'
-import { solveCooldown, type CooldownSolution } from '../thermal/solveCooldown'
-import { brent } from '../thermal/roots'
-import { solveCrankNicolson } from '../thermal/crankNicolson'
+import { CaseError, caseToProblem, parseCase } from './caseSchema'
+import { solveCrankNicolson } from './crankNicolson'
+import { brent } from './roots'
+import { CURVE_POINTS, FIRST_PASS_FO, PROFILE_X, curveTimes, stageStarts } from './runCase'
+import { solveCooldown } from './solveCooldown'
+import type { CooldownSolution } from './types'
 import { pointValue, type PointStage, type PointTerm } from '../../shared/pointSeries'
 import type { PlanMode } from '../../shared/types/planResult'
-import type { ProductBody } from './shapes'
+
+/** One finite direction of the body: a slab half-thickness or a rod radius. */
+export interface ProductDirection {
+  /** The part's own word for it ("diameter", "side 2"), used in messages. */
+  label: string
+  geometry: 'slab' | 'rod'
+  size_m: number
+}
 
 export interface ProductInput {
-  body: ProductBody
+  body: { directions: ProductDirection[] }
   material: { k: number; rho: number; cp: number }
   initial_C: number
   stages: { h_W_m2K: number; ambient_C: number; duration_s?: number }[]
@@ -40,11 +49,11 @@ export interface ModelRun {
   series: PointStage[]
 }
 
-const PROFILE_X = Array.from({ length: 21 }, (_, i) => i / 20)
 /** The shipped series is trimmed for size; it stays within 0.05 K from this fraction into each stage's span on (checked against the curve in tests). */
 export const PRODUCT_SERIES_FROM = 0.001
 const SERIES_TOLERANCE_K = 0.05
-const MODES_LISTED = 8
+/** Slowest modes a plan lists per stage, for 1-D bodies and products alike. */
+export const MODES_LISTED = 8
 
 function directionCase(input: ProductInput, geometry: 'slab' | 'rod', size_m: number) {
   return {
@@ -99,13 +108,14 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
   const sizes = input.body.directions.map((d) => d.size_m)
   const shortest = Math.min(...sizes)
   const goal = input.target.below_C ?? (input.target.above_C as number)
-  // A cheap first pass (accurate from Fo = 0.05 of each direction) finds the target; the second is accurate from the first curve sample.
-  let factors = solveFactors(input, (L) => (0.05 * L * L) / alpha)
+  // A cheap first pass (accurate from FIRST_PASS_FO of each direction) finds the target; the second is accurate from the first curve sample.
+  const firstPass_s = (L: number) => (FIRST_PASS_FO * L * L) / alpha
+  let factors = solveFactors(input, firstPass_s)
   let targetTime = crossing(factors, input, goal, shortest, alpha)
   const end_s = 1.25 * targetTime
   farDirections(input, alpha, end_s)
   const firstSample = Math.min(end_s / CURVE_POINTS, ...(options.times_s ?? []).filter((t) => t > 0))
-  factors = solveFactors(input, (L) => Math.min((0.05 * L * L) / alpha, firstSample))
+  factors = solveFactors(input, (L) => Math.min(firstPass_s(L), firstSample))
   targetTime = crossing(factors, input, goal, shortest, alpha)
 
   const n = input.body.directions.length
@@ -122,7 +132,7 @@ export function runProduct(input: ProductInput, options: { times_s?: number[] } 
     }
     return ambient_C + theta0 * best
   }
-  const starts = stageStarts(input)
+  const starts = stageStarts(input.stages)
   const tCurve = curveTimes(end_s, [...starts.slice(1).filter((s) => s < end_s), targetTime])
   // Each direction's centre factor once per curve time: the centre and the surface curves both use it.
   const centres = tCurve.map((t) => factorsAt('centre', t))
@@ -170,12 +180,6 @@ function farDirections(input: ProductInput, alpha: number, end_s: number): void 
       throw new CaseError('part', `the ${d.label} is so large against the other sizes that its faces do not reach the centre before handling; plan this part as ${instead}`)
     }
   })
-}
-
-function stageStarts(input: ProductInput): number[] {
-  const starts = [0]
-  for (const s of input.stages.slice(0, -1)) starts.push(starts[starts.length - 1]! + (s.duration_s as number))
-  return starts
 }
 
 /** Product mode (n₁, n₂, …) decays at Σ rate_{n_d}: the slowest few are listed. */
@@ -244,7 +248,7 @@ function productSeries(factors: Factors, at: 'centre' | 'mean', target_s: number
  */
 export function checkProduct(input: ProductInput, times_s: number[]): number {
   const alpha = input.material.k / (input.material.rho * input.material.cp)
-  const factors = solveFactors(input, (L) => Math.min((0.05 * L * L) / alpha, ...times_s.filter((t) => t > 0)))
+  const factors = solveFactors(input, (L) => Math.min((FIRST_PASS_FO * L * L) / alpha, ...times_s.filter((t) => t > 0)))
   return input.body.directions.reduce((sum, d, i) => {
     const problem = caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m)))
     const xs = [0, 0.5, 1]

@@ -1,10 +1,10 @@
 import { and, asc, count, desc, eq, sql } from 'drizzle-orm'
+import { createError } from 'h3'
 import type { OutboxEntry, OutboxStatus } from '../../shared/types/outbox'
 import { OUTBOX_STATUSES } from '../../shared/types/outbox'
 import { outboxMessages, type OutboxMessageRow } from '../db/schema'
-import { recordAudit } from './audit'
-
-export { enqueueMail } from '../outbox/enqueue'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
 
 function toEntry(row: OutboxMessageRow): OutboxEntry {
   return {

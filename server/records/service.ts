@@ -2,49 +2,23 @@ import { and, asc, desc, eq, gte, lt, sql, type SQL } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
-import { DEMO_SHOP_NAME } from '../db/demo/shop'
-import { isSealKey, recordSeal } from '../records/canonical'
-import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from '../records/cooldownRecord'
-import { escapeHtml } from '../records/sheetHtml'
-import { holdTimeSheetMail } from '../records/sheetMail'
-import { formatInstant } from '../records/format'
+import { recordSeal } from './canonical'
+import { recordUrl, sealKeyOf, type RecordConfig } from './config'
+import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from './cooldownRecord'
+import { holdTimeSheetMail } from './sheetMail'
+import { digestMail, rejectionMail } from './recordMails'
+import { can } from '../../shared/access'
 import { BATCH_STATE_LABELS } from '../../shared/schedule'
-import { palette } from '../../shared/palette'
 import type { RecordDetail, RecordListItem, RecordSnapshot } from '../../shared/types/cooldownRecord'
 import type { RecordListQuery } from '../../shared/schemas/records'
-import type { SessionUser } from './auth'
-import { recordAudit } from './audit'
-import { batchEventsOf, readSummary, selectBatchesInContext } from './batches'
-import { recipientsFor } from './mailRecipients'
+import type { SessionUser } from '../utils/auth'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
+import { batchEventsOf, readSummary, selectBatchesInContext } from '../schedule/batchQueries'
+import { recipientsFor } from '../outbox/mailRecipients'
 import { enqueueMail } from '../outbox/enqueue'
 
-const SHOP_NAME = process.env.SLAKEWISE_SHOP_NAME || DEMO_SHOP_NAME
 const DAY_MS = 24 * 3600_000
-
-/**
- * The address people open links in mail at: PUBLIC_ORIGIN when set, else AUTH_ORIGIN
- * without its /api/auth path (it must already be the address browsers use).
- */
-export function publicOrigin(env: Readonly<Record<string, string | undefined>> = process.env): string {
-  if (env.PUBLIC_ORIGIN) return env.PUBLIC_ORIGIN.replace(/\/+$/, '')
-  if (env.AUTH_ORIGIN) return env.AUTH_ORIGIN.replace(/\/api\/auth\/?$/, '').replace(/\/+$/, '')
-  throw new Error('Neither PUBLIC_ORIGIN nor AUTH_ORIGIN is set, so mail cannot link to the record')
-}
-
-/**
- * The key that seals records and sign-offs (NUXT_RECORD_SEAL_KEY). Keep it with the
- * server and its backups, apart from the database: with the database alone nobody
- * can re-seal an edited record, and without the key no record can be checked.
- */
-function sealKey(): string {
-  const key = useRuntimeConfig().recordSealKey
-  if (!isSealKey(key)) {
-    throw createError({ statusCode: 503, statusMessage: 'Records cannot be sealed or checked: NUXT_RECORD_SEAL_KEY is not set to a secret of at least 32 characters' })
-  }
-  return key
-}
-
-export const recordUrl = (id: number) => `${publicOrigin()}/records/${id}`
 
 /** 409 for a batch whose record is signed: its account is closed, nothing more may be added to it. */
 export async function refuseIfRecordSigned(tx: Transaction, batchId: number): Promise<void> {
@@ -68,7 +42,7 @@ export async function writeCooldownRecord(
   tx: Transaction,
   batchId: number,
   releasedBy: Pick<SessionUser, 'id' | 'displayName'>,
-  key: string = sealKey(),
+  config: RecordConfig,
 ): Promise<{ id: number; hash: string; outboxId: number }> {
   const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
   if (!found) throw new Error(`Batch ${batchId} not found`)
@@ -86,7 +60,7 @@ export async function writeCooldownRecord(
     events,
     releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
   })
-  const hash = recordSeal(snapshot, key)
+  const hash = recordSeal(snapshot, sealKeyOf(config))
   const [{ id }] = await tx
     .insert(cooldownRecords)
     .values({ batchId, snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
@@ -96,7 +70,7 @@ export async function writeCooldownRecord(
   if (to.length === 0) {
     throw createError({ statusCode: 422, statusMessage: 'Release not recorded: nobody receives released-load sheets; an administrator must name recipients under Mail recipients' })
   }
-  const mail = await holdTimeSheetMail(sheetFromSnapshot(snapshot, SHOP_NAME, recordUrl(id)), to, `sheet:record-${id}`)
+  const mail = await holdTimeSheetMail(sheetFromSnapshot(snapshot, config.shopName, recordUrl(config, id)), to, `sheet:record-${id}`)
   const queued = await enqueueMail(tx, mail)
   await recordAudit(tx, {
     actorId: releasedBy.id,
@@ -181,7 +155,7 @@ export async function listRecords(query: RecordListQuery): Promise<RecordListIte
 
 /** Why `user` may not sign this record, or null when they may. */
 async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, user: Pick<SessionUser, 'id' | 'role'>, intact: boolean): Promise<{ status: 403 | 409; message: string } | null> {
-  if (user.role !== 'qa') return { status: 403, message: 'Only a QA lead signs cooldown records' }
+  if (!can(user.role, 'records.signOff')) return { status: 403, message: 'Only a QA lead signs cooldown records' }
   if (row.state !== 'unsigned') return { status: 409, message: `This record is already ${row.state}; a signed record cannot be changed` }
   if (!intact) return { status: 409, message: 'This record was altered after it was written; it cannot be signed' }
   const own = await db
@@ -196,12 +170,12 @@ async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, u
   return null
 }
 
-export async function getRecord(id: number, viewer: Pick<SessionUser, 'id' | 'role'>): Promise<RecordDetail> {
+export async function getRecord(id: number, viewer: Pick<SessionUser, 'id' | 'role'>, config: Pick<RecordConfig, 'sealKey'>): Promise<RecordDetail> {
   const db = useDb()
   const [row] = await db.select().from(cooldownRecords).where(eq(cooldownRecords.id, id))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
   const [listed] = await listQuery(db).where(eq(cooldownRecords.id, id))
-  const { integrity, problems } = checkIntegrity(row, sealKey())
+  const { integrity, problems } = checkIntegrity(row, sealKeyOf(config))
   const refusal = await signRefusal(db, row, viewer, integrity === 'intact')
   return {
     ...toListItem(listed!),
@@ -220,23 +194,23 @@ export async function getRecord(id: number, viewer: Pick<SessionUser, 'id' | 'ro
  * the same moment the second sees the first's decision and gets 409. A rejection mails
  * the metallurgists (rejection recipients) with the comment, in the same transaction.
  */
-export async function signRecord(id: number, decision: Decision, comment: string | null, user: SessionUser): Promise<RecordDetail> {
+export async function signRecord(id: number, decision: Decision, comment: string | null, user: SessionUser, config: RecordConfig): Promise<RecordDetail> {
   const action = decision === 'approved' ? 'record.approve' : 'record.reject'
   const refused = await useDb().transaction(async (tx) => {
     const [row] = await tx.select().from(cooldownRecords).where(eq(cooldownRecords.id, id)).for('update')
     if (!row) throw createError({ statusCode: 404, statusMessage: 'Record not found' })
-    const { integrity, problems } = checkIntegrity(row, sealKey())
+    const { integrity, problems } = checkIntegrity(row, sealKeyOf(config))
     const refusal = await signRefusal(tx, row, user, integrity === 'intact')
     if (refusal) return { ...refusal, state: row.state, integrity, problems }
     const signedAt = new Date()
-    const signature = signatureSeal(row.hash, decision, user.id, signedAt, sealKey())
+    const signature = signatureSeal(row.hash, decision, user.id, signedAt, sealKeyOf(config))
     await tx.update(cooldownRecords).set({ state: decision, signedBy: user.id, signedAt, signComment: comment, signatureHash: signature }).where(and(eq(cooldownRecords.id, id), eq(cooldownRecords.state, 'unsigned')))
     const snapshot = row.snapshot as unknown as RecordSnapshot
     let outboxId: number | null = null
     if (decision === 'rejected') {
       const to = await recipientsFor(tx, 'rejection')
       if (to.length === 0) throw createError({ statusCode: 422, statusMessage: 'Not rejected: nobody receives rejected records; an administrator must name recipients under Mail recipients' })
-      outboxId = (await enqueueMail(tx, rejectionMail(id, snapshot, comment!, user.displayName, signedAt, to))).id
+      outboxId = (await enqueueMail(tx, rejectionMail(id, snapshot, comment!, user.displayName, signedAt, to, recordUrl(config, id)))).id
     }
     await recordAudit(tx, {
       actorId: user.id,
@@ -252,25 +226,7 @@ export async function signRecord(id: number, decision: Decision, comment: string
     await recordAudit(useDb(), { actorId: user.id, action: `${action}_refused`, entityType: 'cooldown_record', entityId: id, details: { reason: refused.message, state: refused.state, integrity: refused.integrity, problems: refused.problems } })
     throw createError({ statusCode: refused.status, statusMessage: refused.message, data: { recordState: refused.state, integrity: refused.integrity } })
   }
-  return await getRecord(id, user)
-}
-
-function rejectionMail(id: number, snapshot: RecordSnapshot, comment: string, by: string, at: Date, to: string[]) {
-  const load = snapshot.batch.loadNumber
-  const url = recordUrl(id)
-  return {
-    dedupeKey: `rejection:record-${id}`,
-    to,
-    subject: `Cooldown record rejected · Load ${load} · ${snapshot.plan.name}`,
-    html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
-<h1 style="font-size:20px;">Load ${escapeHtml(load)}: cooldown record rejected</h1>
-<p>${escapeHtml(by)} rejected the record on ${escapeHtml(formatInstant(at.toISOString()))}.</p>
-<blockquote style="border-left:4px solid ${palette.alarm[600]};margin:12px 0;padding:6px 12px;background:${palette.alarm[50]};" data-role="comment">${escapeHtml(comment)}</blockquote>
-<p>Plan: ${escapeHtml(snapshot.plan.name)}, revision ${snapshot.plan.revision}. Deviations recorded: ${snapshot.deviations.length ? snapshot.deviations.map((d) => escapeHtml(d.message)).join('; ') : 'none'}.</p>
-<p><a href="${escapeHtml(url)}">Open the record</a></p>
-</body></html>`,
-    text: `Load ${load}: cooldown record rejected by ${by} on ${formatInstant(at.toISOString())}.\n\nComment: ${comment}\n\nPlan: ${snapshot.plan.name}, revision ${snapshot.plan.revision}\nRecord: ${url}\n`,
-  }
+  return await getRecord(id, user, config)
 }
 
 /** The UTC day the digest belongs to, as its dedupe key. */
@@ -291,7 +247,7 @@ export interface DigestResult {
  * the dedupe key is the date, so a second call that day queues nothing. Nothing to
  * list means no message.
  */
-export async function queueDailyDigest(db: Database, now: Date, actorId: number | null = null): Promise<DigestResult> {
+export async function queueDailyDigest(db: Database, now: Date, config: Pick<RecordConfig, 'publicOrigin'>, actorId: number | null = null): Promise<DigestResult> {
   const dedupeKey = digestKey(now)
   return await db.transaction(async (tx) => {
     const rows = await listQuery(tx)
@@ -302,17 +258,7 @@ export async function queueDailyDigest(db: Database, now: Date, actorId: number 
     const to = records.length ? await recipientsFor(tx, 'daily_digest') : []
     if (records.length === 0 || to.length === 0) return { dedupeKey, queued: false, created: false, outboxId: null, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
     const day = dedupeKey.slice('digest:'.length)
-    const line = (r: (typeof records)[number]) => `${r.loadNumber} · ${r.plan} · ${r.furnace} · released ${formatInstant(r.releasedAt)} · ${r.deviations} deviation${r.deviations === 1 ? '' : 's'}`
-    const queued = await enqueueMail(tx, {
-      dedupeKey,
-      to,
-      subject: `Records waiting for sign-off · ${day} · ${records.length}`,
-      html: `<!doctype html><html lang="en"><body style="font-family:'IBM Plex Sans',Helvetica,Arial,sans-serif;color:${palette.ink[900]};">
-<h1 style="font-size:20px;">${records.length} cooldown record${records.length === 1 ? '' : 's'} unsigned for more than a day</h1>
-<ul>${records.map((r) => `<li data-load="${escapeHtml(r.loadNumber)}"><a href="${escapeHtml(recordUrl(r.id))}">${escapeHtml(line(r))}</a></li>`).join('')}</ul>
-</body></html>`,
-      text: `Cooldown records unsigned for more than a day (${day}):\n${records.map((r) => `  - ${line(r)}  ${recordUrl(r.id)}`).join('\n')}\n`,
-    })
+    const queued = await enqueueMail(tx, digestMail(dedupeKey, to, records, (recordId) => recordUrl(config, recordId)))
     if (queued.created) await recordAudit(tx, { actorId, action: 'record.digest', entityType: 'outbox_message', entityId: queued.id, details: { day, records: records.map((r) => r.loadNumber), to } })
     return { dedupeKey, queued: true, created: queued.created, outboxId: queued.id, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
   })

@@ -1,0 +1,78 @@
+import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
+import { createError } from 'h3'
+import type { Database } from '../db/client'
+import { batches, planRevisions, plans } from '../db/schema'
+import { FLOOR_STATES } from '../../shared/schedule'
+import type { BatchDetail, FloorBatch, PlanOption } from '../../shared/types/schedule'
+import { useDb } from '../utils/db'
+import { batchEventsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
+import { readShopSettings } from './shopSettings'
+
+/** Batches whose time (charge to handling) touches [from, to); the schedule's week query. */
+export async function listBatches(from: Date, to: Date, furnaceId?: number, db: Database = useDb()) {
+  const settings = await readShopSettings(db)
+  const conditions = [lt(batches.furnaceStart, to), gt(batches.handlingAt, from)]
+  if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
+  const rows = await db.select().from(batches).where(and(...conditions)).orderBy(asc(batches.furnaceStart))
+  const now = Date.now()
+  return { serverNow: now, batches: rows.map((row) => toBatchView(row, settings, now)) }
+}
+
+export async function getBatch(id: number): Promise<BatchDetail> {
+  const db = useDb()
+  const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
+  if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  const events = await batchEventsOf(db, id)
+  const b = found.batch
+  return {
+    ...toBatchView(b, await readShopSettings()),
+    planName: found.plan.name,
+    revision: found.revision.revision,
+    furnaceName: found.furnace.name,
+    stationName: found.station.name,
+    summary: readSummary(found.revision.summary)!,
+    durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
+    events: events.map(({ id: eventId, fromState, toState, at, actorName }) => ({ id: eventId, fromState, toState, at: at.toISOString(), actorName })),
+  }
+}
+
+/**
+ * What the floor works on: every batch in the furnaces, the bath or cooling, not
+ * yet handed on, and booked loads due within the next `aheadHours`.
+ */
+export async function floorBatches(furnaceId: number | undefined, aheadHours = 12) {
+  const settings = await readShopSettings()
+  const now = Date.now()
+  const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, new Date(now + aheadHours * 3600_000))]
+  if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
+  const rows = await selectBatchesInContext(useDb())
+    .where(and(...conditions))
+    .orderBy(asc(batches.furnaceStart))
+    .limit(200)
+  const list: FloorBatch[] = rows.map((r) => ({
+    ...toBatchView(r.batch, settings, now),
+    planName: r.plan.name,
+    furnaceName: r.furnace.name,
+    stationName: r.station.name,
+    summary: readSummary(r.revision.summary)!,
+    minimumSoak_s: r.batch.minimumSoak_s,
+    quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
+  }))
+  return { serverNow: now, settings, batches: list }
+}
+
+/** Plan revisions with a computed summary, newest first: what the booking form offers. */
+export async function planOptions(): Promise<PlanOption[]> {
+  const rows = await useDb()
+    .select({ planRevisionId: planRevisions.id, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary })
+    .from(planRevisions)
+    .innerJoin(plans, eq(plans.id, planRevisions.planId))
+    .where(and(eq(plans.archived, false), sql`${planRevisions.summary} IS NOT NULL`))
+    .orderBy(asc(plans.name), desc(planRevisions.revision))
+    .limit(500)
+  return rows.flatMap((row) => {
+    const summary = readSummary(row.summary)
+    if (!summary) return []
+    return [{ planRevisionId: row.planRevisionId, planName: row.planName, revision: row.revision, quenchToHandling_s: summary.quenchToHandling_s, furnace_s: summary.soak?.total_s ?? null, furnace_C: summary.soak?.furnace_C ?? null }]
+  })
+}
