@@ -9,12 +9,13 @@ import { demoUser, signInAs } from '../support/http'
 import { until } from '../support/poll'
 
 // Issue 11 items 2 and 6: a shop's first administrator without a published password,
-// demo sign-ins off loopback, and the start-up refusal of bad secrets.
+// demo sign-ins off loopback, and the start-up refusal of bad secrets. Commands and
+// extra servers start slowly on a loaded machine, hence the long timeouts.
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const run = promisify(execFile)
 
 function createAdmin(email: string, name: string) {
-  return run('npx', ['tsx', 'scripts/create-admin.ts', '--email', email, '--name', name], { cwd: root, env: { ...process.env, DATABASE_URL: testDatabaseUrl() } })
+  return run('node_modules/.bin/tsx', ['scripts/create-admin.ts', '--email', email, '--name', name], { cwd: root, env: { ...process.env, DATABASE_URL: testDatabaseUrl() } })
 }
 
 /** A second server on the same test database, with its own port and environment. */
@@ -46,7 +47,7 @@ afterAll(() => {
   for (const server of started) server.child.kill('SIGTERM')
 })
 
-describe('the first administrator', () => {
+describe('the first administrator', { timeout: 180_000 }, () => {
   const email = `first-admin-${Date.now()}@kestrelbay.example`
 
   it('is created by a command that prints a generated password once; the account must change it before anything else', async () => {
@@ -74,7 +75,7 @@ describe('the first administrator', () => {
   })
 })
 
-describe('the demo shop', () => {
+describe('the demo shop', { timeout: 180_000 }, () => {
   it('is announced while its accounts exist', async () => {
     expect(await (await fetch(`${BASE_URL}/api/demo-shop`)).json()).toEqual({ demoShop: true })
   })
@@ -83,7 +84,7 @@ describe('the demo shop', () => {
     const port = APP_PORT + 7
     const server = startServer(port, { NITRO_HOST: '0.0.0.0' })
     started.push(server)
-    await until(() => fetch(`http://127.0.0.1:${port}/api/health`).then((r) => r.ok, () => false), (ok) => ok, 30, 'second server up')
+    await until(() => fetch(`http://127.0.0.1:${port}/api/health`).then((r) => r.ok, () => false), (ok) => ok, 120, 'second server up')
     const via = { baseUrl: `http://127.0.0.1:${port}`, address: '198.51.100.200' }
     expect(await signInAs(demoUser('admin').email, demoUser('admin').password, via)).toBeNull()
     const email = `lan-user-${Date.now()}@kestrelbay.example`
@@ -93,7 +94,7 @@ describe('the demo shop', () => {
   })
 })
 
-describe('secrets at start-up', () => {
+describe('secrets at start-up', { timeout: 180_000 }, () => {
   it.each([
     ['the .env.example auth secret', { NUXT_AUTH_SECRET: 'change-me-to-a-long-random-string' }, 'NUXT_AUTH_SECRET still holds a placeholder ("change-me")'],
     ['a 10-character seal key', { NUXT_RECORD_SEAL_KEY: 'short-key1' }, 'NUXT_RECORD_SEAL_KEY has 10 characters; at least 32 are needed'],
@@ -101,7 +102,7 @@ describe('secrets at start-up', () => {
   ])('refuses to start with %s, saying which and why', async (_label, env, message) => {
     const server = startServer(APP_PORT + 8, env)
     started.push(server)
-    const code = await Promise.race([server.exited, new Promise<string>((resolve) => setTimeout(() => resolve('still running'), 20_000))])
+    const code = await Promise.race([server.exited, new Promise<string>((resolve) => setTimeout(() => resolve('still running'), 120_000))])
     expect(code).toBe(1)
     expect(server.output()).toContain(message)
   })

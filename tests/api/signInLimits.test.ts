@@ -57,7 +57,7 @@ describe('sign-in limits per account and per address', () => {
     expect(refused.retryAfter).toBe('30')
     // A refused attempt is not counted against the account it named.
     expect((await countOf('account:spray-last@kestrelbay.example')) ?? 0).toBe(0)
-  })
+  }, 180_000)
 
   it('keeps counts in the database and clears the account on a good sign-in', async () => {
     const address = '198.51.100.90'
@@ -90,5 +90,5 @@ describe('sign-in limits per account and per address', () => {
     const ratio = median(unknown) / median(known)
     expect(ratio).toBeGreaterThan(0.6)
     expect(ratio).toBeLessThan(1.6)
-  })
+  }, 120_000)
 })

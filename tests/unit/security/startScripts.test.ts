@@ -18,12 +18,13 @@ describe('scripts/lib.sh', () => {
 
   it('stop_process ends a server busy in a computation that ignores TERM, after the grace period', async () => {
     // It says "busy" once its TERM handler is in place and the loop is about to start.
-    const busy = spawn('node', ['-e', "process.on('SIGTERM', () => {}); process.stdout.write('busy', () => { for (;;) {} })"], { stdio: ['ignore', 'pipe', 'ignore'] })
+    const busy = spawn('node', ['-e', 'process.on(\'SIGTERM\', () => {}); process.stdout.write(\'busy\', () => { for (;;) {} })'], { stdio: ['ignore', 'pipe', 'ignore'] })
     await new Promise((resolve) => busy.stdout.once('data', resolve))
     const started = Date.now()
     execFileSync('bash', ['-c', `source ${lib} && stop_process ${busy.pid} 1`], { stdio: 'ignore' })
     const exited = await new Promise<NodeJS.Signals | null>((resolve) => busy.once('exit', (_code, signal) => resolve(signal)))
     expect(exited).toBe('SIGKILL')
-    expect(Date.now() - started).toBeLessThan(3000)
+    // One second of grace, then KILL; the margin is for a loaded test machine.
+    expect(Date.now() - started).toBeLessThan(15_000)
   })
 })
