@@ -1,6 +1,6 @@
 import { secretProblems } from '../security/secrets'
 
-const MAKE_ONE = "Make one with: node -e \"console.log(require('crypto').randomBytes(32).toString('hex'))\""
+const MAKE_ONE = 'Make one with: node -e "console.log(require(\'crypto\').randomBytes(32).toString(\'hex\'))"'
 
 // Refuses to start with a missing, placeholder or guessable secret, before any request,
 // instead of failing at the first sign-in or, for the seal key, the first released load.

@@ -31,5 +31,7 @@ export interface AccountChange {
 
 /** An administrator's change that must end the account's open sessions. */
 export function changeEndsSessions(before: { role: string; active: boolean }, change: AccountChange): boolean {
-  return change.password !== undefined || (change.role !== undefined && change.role !== before.role) || (change.active !== undefined && change.active !== before.active)
+  const roleChanged = change.role !== undefined && change.role !== before.role
+  const activeChanged = change.active !== undefined && change.active !== before.active
+  return change.password !== undefined || roleChanged || activeChanged
 }

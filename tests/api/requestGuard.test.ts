@@ -48,7 +48,7 @@ describe('cross-site writes are refused before anything is written', () => {
   })
 
   it('a JSON POST /api/users from another port of the same host is 403 and creates no account', async () => {
-    const response = await post(admin, '/api/users', { 'content-type': 'application/json', origin: FOREIGN_ORIGIN }, JSON.stringify(newAdmin))
+    const response = await post(admin, '/api/users', { 'content-type': 'application/json', 'origin': FOREIGN_ORIGIN }, JSON.stringify(newAdmin))
     expect(response.status).toBe(403)
     expect((await response.json()).data.problems[0].field).toBe('Origin')
     expect(await forged()).toBe(0)
@@ -65,7 +65,7 @@ describe('cross-site writes are refused before anything is written', () => {
     const unsigned = await countRows('SELECT COUNT(*) AS total FROM cooldown_records WHERE signed_at IS NULL')
     const [rows] = await db.query('SELECT id FROM cooldown_records WHERE signed_at IS NULL LIMIT 1')
     const id = (rows as { id: number }[])[0]?.id ?? 1
-    const response = await post(qa, `/api/records/${id}/approve`, { 'content-type': 'application/x-www-form-urlencoded', origin: FOREIGN_ORIGIN }, 'comment=ok')
+    const response = await post(qa, `/api/records/${id}/approve`, { 'content-type': 'application/x-www-form-urlencoded', 'origin': FOREIGN_ORIGIN }, 'comment=ok')
     expect(response.status).toBe(403)
     expect(await countRows('SELECT COUNT(*) AS total FROM cooldown_records WHERE signed_at IS NULL')).toBe(unsigned)
   })
@@ -73,7 +73,7 @@ describe('cross-site writes are refused before anything is written', () => {
   it('the sign-in endpoint keeps its form body but refuses a foreign Origin', async () => {
     const response = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
       method: 'POST',
-      headers: { 'content-type': 'application/x-www-form-urlencoded', origin: FOREIGN_ORIGIN },
+      headers: { 'content-type': 'application/x-www-form-urlencoded', 'origin': FOREIGN_ORIGIN },
       body: 'email=admin%40kestrelbay.example&password=x',
       redirect: 'manual',
     })
@@ -81,7 +81,7 @@ describe('cross-site writes are refused before anything is written', () => {
   })
 
   it('the same JSON write from the app\'s own origin goes through (control)', async () => {
-    const response = await post(admin, '/api/users', { 'content-type': 'application/json', origin: BASE_URL }, JSON.stringify({ ...newAdmin, role: 'qa', email: 'csrf-control@kestrelbay.example' }))
+    const response = await post(admin, '/api/users', { 'content-type': 'application/json', 'origin': BASE_URL }, JSON.stringify({ ...newAdmin, role: 'qa', email: 'csrf-control@kestrelbay.example' }))
     expect(response.status).toBe(201)
   })
 })
@@ -97,7 +97,7 @@ describe('request bodies over 1 MB', () => {
   it('a PATCH is limited too (the limit is not only for POST)', async () => {
     const response = await fetch(`${BASE_URL}/api/users/1`, {
       method: 'PATCH',
-      headers: { cookie: admin.cookie, 'content-type': 'application/json' },
+      headers: { 'cookie': admin.cookie, 'content-type': 'application/json' },
       body: JSON.stringify({ displayName: 'y'.repeat(1_100_000) }),
     })
     expect(response.status).toBe(413)
@@ -109,7 +109,7 @@ describe('response headers', () => {
     const response = await fetch(`${BASE_URL}/login`)
     expect(response.status).toBe(200)
     const csp = response.headers.get('content-security-policy') ?? ''
-    expect(csp).toContain("frame-ancestors 'none'")
+    expect(csp).toContain('frame-ancestors \'none\'')
     expect(csp).toMatch(/script-src [^;]*'nonce-[A-Za-z0-9+/=]+'/)
     expect(csp).not.toContain('upgrade-insecure-requests')
     expect(response.headers.get('x-frame-options')).toBe('DENY')
@@ -131,7 +131,7 @@ describe('response headers', () => {
     expect(page.headers.get('content-encoding')).toBe('gzip')
     expect(await page.text()).toContain('<!DOCTYPE html>')
     // The material library is several kilobytes of JSON.
-    const json = await fetch(`${BASE_URL}/api/materials`, { headers: { cookie: admin.cookie, 'accept-encoding': 'gzip' } })
+    const json = await fetch(`${BASE_URL}/api/materials`, { headers: { 'cookie': admin.cookie, 'accept-encoding': 'gzip' } })
     expect(json.headers.get('content-encoding')).toBe('gzip')
     expect(json.headers.get('content-type')).toContain('application/json')
     expect(JSON.stringify(await json.json()).length).toBeGreaterThan(1024)

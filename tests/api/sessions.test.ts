@@ -36,7 +36,7 @@ describe('revocable sessions', () => {
     const csrf = (await client.request('/api/auth/csrf')).body.csrfToken as string
     const out = await fetch(`${BASE_URL}/api/auth/signout`, {
       method: 'POST',
-      headers: { cookie: client.cookie, 'content-type': 'application/x-www-form-urlencoded' },
+      headers: { 'cookie': client.cookie, 'content-type': 'application/x-www-form-urlencoded' },
       body: new URLSearchParams({ csrfToken: csrf, json: 'true', callbackUrl: '/login' }),
       redirect: 'manual',
     })
