@@ -15,10 +15,17 @@ export function useFormatTime() {
   function clock(ms: number): string {
     return new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })
   }
+  /** To the second: what the floor and the records say about when something was recorded. */
+  function clockSeconds(ms: number): string {
+    return new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' })
+  }
   function dateTime(ms: number): string {
     return new Date(ms).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })
   }
+  function dateTimeSeconds(ms: number): string {
+    return new Date(ms).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' })
+  }
   // One duration format everywhere: rounding to whole minutes here could show a
   // deviation's planned and recorded spans as the same "15 min".
-  return { countdown, clock, dateTime, duration: formatDuration }
+  return { countdown, clock, clockSeconds, dateTime, dateTimeSeconds, duration: formatDuration }
 }

@@ -5,7 +5,7 @@ import { batches, planRevisions, plans } from '../db/schema'
 import { FLOOR_STATES } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
-import { batchEventsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
+import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
 import { readShopSettings } from './shopSettings'
 
 /** Batches whose time (charge to handling) touches [from, to); the schedule's week query. */
@@ -22,7 +22,7 @@ export async function getBatch(id: number): Promise<BatchDetail> {
   const db = useDb()
   const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
   if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
-  const events = await batchEventsOf(db, id)
+  const events = (await eventViewsOf(db, [id])).get(id)!
   const b = found.batch
   return {
     ...toBatchView(b, await readShopSettings()),
@@ -32,7 +32,7 @@ export async function getBatch(id: number): Promise<BatchDetail> {
     stationName: found.station.name,
     summary: readSummary(found.revision.summary)!,
     durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
-    events: events.map(({ id: eventId, fromState, toState, at, actorName }) => ({ id: eventId, fromState, toState, at: at.toISOString(), actorName })),
+    events,
   }
 }
 
@@ -49,6 +49,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     .where(and(...conditions))
     .orderBy(asc(batches.furnaceStart))
     .limit(200)
+  const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
   const list: FloorBatch[] = rows.map((r) => ({
     ...toBatchView(r.batch, settings, now),
     planName: r.plan.name,
@@ -57,6 +58,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     summary: readSummary(r.revision.summary)!,
     minimumSoak_s: r.batch.minimumSoak_s,
     quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
+    events: events.get(r.batch.id)!,
   }))
   return { serverNow: now, settings, batches: list }
 }

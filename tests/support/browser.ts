@@ -20,9 +20,10 @@ async function launchBrowser(): Promise<Browser> {
 /**
  * One browser for a test file: launched before its tests, closed after them. Call it at
  * the top level of the file; each `tabletPage()` is a fresh 1280×800 landscape page
- * (the shop-floor tablet size) in a context of its own, so sign-ins never leak between tests.
+ * (the shop-floor tablet size) and each `desktopPage()` a 1920×1080 one, in a context of
+ * its own, so sign-ins never leak between tests.
  */
-export function useBrowser(): { tabletPage: () => Promise<Page> } {
+export function useBrowser(): { tabletPage: () => Promise<Page>; desktopPage: () => Promise<Page> } {
   let browser: Browser | undefined
   beforeAll(async () => {
     browser = await launchBrowser()
@@ -30,13 +31,12 @@ export function useBrowser(): { tabletPage: () => Promise<Page> } {
   afterAll(async () => {
     await browser?.close()
   })
-  return {
-    async tabletPage() {
-      if (!browser) throw new Error('no browser: call useBrowser() at the top level of the test file')
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: BASE_URL })
-      return context.newPage()
-    },
+  async function pageOf(width: number, height: number) {
+    if (!browser) throw new Error('no browser: call useBrowser() at the top level of the test file')
+    const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE_URL })
+    return context.newPage()
   }
+  return { tabletPage: () => pageOf(1280, 800), desktopPage: () => pageOf(1920, 1080) }
 }
 
 export async function signInThroughPage(page: Page, role: Role, next = '/'): Promise<void> {

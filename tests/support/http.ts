@@ -75,7 +75,7 @@ export async function attemptSignIn(email: string, password: string, via: SignIn
   const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: '/' })
   const response = await fetch(`${base}/api/auth/callback/credentials`, {
     method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookieHeader(jar), ...forwarded },
+    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': cookieHeader(jar), ...forwarded },
     body: form,
     redirect: 'manual',
   })
