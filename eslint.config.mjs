@@ -60,6 +60,6 @@ export default createConfigForNuxt({
   })
   .append({
     name: 'slakewise/seed-may-read-demo',
-    files: ['server/db/demo/**', 'scripts/seed.ts', 'scripts/demo-sign-ins.ts', 'tests/**', 'scripts/bench/**', 'scripts/bench-*.ts'],
+    files: ['server/db/demo/**', 'scripts/seed.ts', 'scripts/demo-sign-ins.ts', 'tests/**', 'scripts/bench/**', 'scripts/bench-*.ts', 'scripts/test-cluster.ts'],
     rules: { 'no-restricted-imports': 'off' },
   })

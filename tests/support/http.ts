@@ -20,7 +20,7 @@ function cookieHeader(jar: Map<string, string>) {
   return [...jar].map(([name, value]) => `${name}=${value}`).join('; ')
 }
 
-function makeClient(jar: Map<string, string>, base = BASE_URL): Client {
+function makeClient(jar: Map<string, string>, baseUrl = BASE_URL): Client {
   return {
     get cookie() {
       return cookieHeader(jar)
@@ -35,7 +35,7 @@ function makeClient(jar: Map<string, string>, base = BASE_URL): Client {
         headers['content-type'] = 'application/json'
         body = JSON.stringify(init.body)
       }
-      const response = await fetch(`${base}${path}`, { method: init.method ?? 'GET', headers, body })
+      const response = await fetch(`${baseUrl}${path}`, { method: init.method ?? 'GET', headers, body })
       const text = await response.text()
       let parsed: unknown = text
       try {
@@ -46,6 +46,12 @@ function makeClient(jar: Map<string, string>, base = BASE_URL): Client {
       return { status: response.status, body: parsed }
     },
   }
+}
+
+/** The same session (its cookies, copied) sent to another server instance, as a proxy without sticky sessions would. */
+export function sameSessionAt(client: Client, baseUrl: string): Client {
+  const jar = new Map(client.cookie.split('; ').filter(Boolean).map((pair) => [pair.slice(0, pair.indexOf('=')), pair.slice(pair.indexOf('=') + 1)] as [string, string]))
+  return makeClient(jar, baseUrl)
 }
 
 export function anonymous(): Client {
