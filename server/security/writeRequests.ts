@@ -7,7 +7,8 @@
  * or a script on another origin. Refusing every body but application/json closes the
  * first; the Origin check (or, where a browser sends no Origin, Sec-Fetch-Site) closes
  * the second. Another port of the same host is another origin, and only "same-site"
- * to Sec-Fetch-Site, so both refuse it.
+ * to Sec-Fetch-Site, so both refuse it. File uploads are multipart by nature: they keep
+ * the Origin check and leave the body's type and size to the upload route.
  */
 
 export const JSON_BODY_LIMIT_BYTES = 1_000_000
@@ -40,6 +41,13 @@ function isAuthEndpoint(path: string): boolean {
   return path.startsWith('/api/auth/')
 }
 
+/** Routes that read a multipart file with their own media-type check and size limit (server/utils/upload.ts). */
+const UPLOAD_PATHS = new Set(['/api/logs', '/api/logs/preview'])
+
+function isUpload(request: WriteRequest): boolean {
+  return request.method.toUpperCase() === 'POST' && UPLOAD_PATHS.has(request.path.split('?')[0]!)
+}
+
 function originRefusal(request: WriteRequest, allowedOrigins: readonly string[]): Refusal | null {
   if (request.origin !== undefined) {
     if (allowedOrigins.includes(request.origin)) return null
@@ -53,6 +61,7 @@ function originRefusal(request: WriteRequest, allowedOrigins: readonly string[])
 }
 
 function bodyRefusal(request: WriteRequest): Refusal | null {
+  if (isUpload(request)) return null
   const length = request.contentLength === undefined ? undefined : Number(request.contentLength)
   const hasBody = (length !== undefined && length > 0) || request.transferEncoding !== undefined || request.contentType !== undefined
   if (!hasBody) return null

@@ -80,6 +80,21 @@ describe('cross-site writes are refused before anything is written', () => {
     expect(response.status).toBe(403)
   })
 
+  it('a log upload keeps its multipart body but refuses a foreign Origin, storing nothing', async () => {
+    const logFile = () => {
+      const form = new FormData()
+      form.set('file', new Blob(['time_s,T (°C)\n0,850\n1,800\n']), 'forged.csv')
+      return form
+    }
+    const stored = await countRows('SELECT COUNT(*) AS total FROM measurement_logs')
+    const forgedUpload = await post(admin, '/api/logs', { origin: FOREIGN_ORIGIN }, logFile())
+    expect(forgedUpload.status).toBe(403)
+    expect((await forgedUpload.json()).data.problems[0].field).toBe('Origin')
+    expect(await countRows('SELECT COUNT(*) AS total FROM measurement_logs')).toBe(stored)
+    const ownPreview = await post(admin, '/api/logs/preview', { origin: BASE_URL }, logFile())
+    expect(ownPreview.status).toBe(200)
+  })
+
   it('the same JSON write from the app\'s own origin goes through (control)', async () => {
     const response = await post(admin, '/api/users', { 'content-type': 'application/json', 'origin': BASE_URL }, JSON.stringify({ ...newAdmin, role: 'qa', email: 'csrf-control@kestrelbay.example' }))
     expect(response.status).toBe(201)

@@ -32,6 +32,10 @@ describe('which API writes are refused (CSRF, media type, size)', () => {
     ['a PATCH of 1 000 001 bytes', json({ method: 'PATCH', contentLength: '1000001' }), 413],
     ['exactly 1 000 000 bytes', json({ contentLength: '1000000' }), null],
     ['a chunked body with no length', json({ contentLength: undefined, transferEncoding: 'chunked' }), 411],
+    ['a 5 MB multipart log upload (the route applies its own 10 MB limit)', json({ path: '/api/logs', contentType: 'multipart/form-data; boundary=x', contentLength: '5000000' }), null],
+    ['a multipart log preview from the app', json({ path: '/api/logs/preview', contentType: 'multipart/form-data; boundary=x' }), null],
+    ['a multipart log upload from another port of the same host', json({ path: '/api/logs', contentType: 'multipart/form-data; boundary=x', origin: 'http://127.0.0.1:3001' }), 403],
+    ['a multipart POST to a path that only starts like the upload route', json({ path: '/api/logs/7/parts', contentType: 'multipart/form-data; boundary=x' }), 415],
   ])('%s', (_label, request, status) => {
     expect(refuseWrite(request, [APP])?.status ?? null).toBe(status)
   })
