@@ -134,6 +134,7 @@ describe('deviationPlanFromSummary', () => {
   }
   it('takes heat-up, soak and handling time from the stored summary and the allowance from the shop', () => {
     expect(deviationPlanFromSummary(summary, 30)).toEqual({ heatUp_s: 4200, minimumSoak_s: 3600, quenchDelayAllowance_s: 30, quenchToHandling_s: 979.5 })
-    expect(deviationPlanFromSummary({ ...summary, soak: null }, 45)).toEqual({ heatUp_s: null, minimumSoak_s: null, quenchDelayAllowance_s: 45, quenchToHandling_s: 979.5 })
+    expect(deviationPlanFromSummary({ ...summary, soak: null }, 45))
+      .toEqual({ heatUp_s: null, minimumSoak_s: null, quenchDelayAllowance_s: 45, quenchToHandling_s: 979.5 })
   })
 })
