@@ -1,23 +1,38 @@
-import { gzipSync } from 'node:zlib'
+import { promisify } from 'node:util'
+import { gzip } from 'node:zlib'
 
-/** Below this, gzip's header and the CPU are not worth it. */
+const gzipAsync = promisify(gzip)
+/** Below this a response fits in a packet or two; compressing it costs more than it saves. */
 const MIN_BYTES = 1024
 
-// Pages and JSON answers are gzipped for browsers that accept it (bundles and fonts are
-// pre-compressed at build time, nitro.compressPublicAssets). Streams and binary files
-// such as the PDF sheets pass unchanged.
-export default defineNitroPlugin((nitroApp) => {
-  nitroApp.hooks.hook('beforeResponse', (event, response) => {
+/**
+ * Gzips API answers and rendered pages for clients that accept it (Nitro compresses
+ * only prebuilt static files). Bodies that are streams, buffers (PDFs, already
+ * compressed), web Responses or server-sent events pass untouched, as does anything
+ * another layer has already encoded. zlib runs on libuv's thread pool, not the
+ * request thread.
+ */
+export default defineNitroPlugin((nitro) => {
+  nitro.hooks.hook('beforeResponse', async (event, response) => {
     const body = response.body
-    if (body === null || body === undefined || typeof body === 'number' || typeof body === 'boolean') return
-    if (typeof body !== 'string' && (body instanceof Uint8Array || typeof (body as { pipe?: unknown }).pipe === 'function' || body instanceof ReadableStream)) return
-    if (!/\bgzip\b/.test(getRequestHeader(event, 'accept-encoding') ?? '') || getResponseHeader(event, 'content-encoding')) return
+    if (typeof body !== 'string' && !isPlainJson(body)) return
+    if (!/\bgzip\b/.test(getRequestHeader(event, 'accept-encoding') ?? '')) return
+    if (getResponseHeader(event, 'content-encoding')) return
+    const type = String(getResponseHeader(event, 'content-type') ?? '')
+    if (type.includes('text/event-stream')) return
     const text = typeof body === 'string' ? body : JSON.stringify(body)
     if (Buffer.byteLength(text) < MIN_BYTES) return
-    if (typeof body !== 'string' && !getResponseHeader(event, 'content-type')) setResponseHeader(event, 'content-type', 'application/json')
+    if (!type) setResponseHeader(event, 'content-type', typeof body === 'string' ? 'text/html; charset=utf-8' : 'application/json')
     setResponseHeader(event, 'content-encoding', 'gzip')
     appendResponseHeader(event, 'vary', 'accept-encoding')
-    removeResponseHeader(event, 'content-length')
-    response.body = gzipSync(text)
+    response.body = await gzipAsync(text)
   })
 })
+
+/** Objects and arrays h3 would send as JSON (not streams, buffers, Responses or errors). */
+function isPlainJson(body: unknown): body is object {
+  if (body === null || typeof body !== 'object') return false
+  if (Array.isArray(body)) return true
+  const proto = Object.getPrototypeOf(body)
+  return proto === Object.prototype || proto === null
+}

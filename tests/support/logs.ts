@@ -4,7 +4,7 @@ import type { Client } from './http'
 /** Posts a log file as multipart/form-data (the browser's way) with optional text fields. */
 export async function postLog(client: Client, path: string, file: { name: string; bytes: Uint8Array | string }, fields: Record<string, string> = {}) {
   const form = new FormData()
-  form.set('file', new Blob([file.bytes]), file.name)
+  form.set('file', new Blob([typeof file.bytes === 'string' ? file.bytes : new Uint8Array(file.bytes)]), file.name)
   for (const [name, value] of Object.entries(fields)) form.set(name, value)
   const response = await fetch(`${BASE_URL}${path}`, { method: 'POST', headers: { cookie: client.cookie, accept: 'application/json' }, body: form })
   const text = await response.text()
