@@ -56,7 +56,7 @@ describe('findDeviations', () => {
   })
 
   it('heat-up shorter than predicted: core at heat 14 s after charging against 2 min 39 s is 2 min 25 s sooner', () => {
-    // Issue 14's early tap: 159 − 14 = 145 s = 2 min 25 s
+    // An early tap seen on a tablet: 159 − 14 = 145 s = 2 min 25 s
     const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
     expect(findDeviations(shortPlan, at({ charged: 0, soaking: 14 }))).toEqual([
       {
@@ -69,7 +69,7 @@ describe('findDeviations', () => {
     ])
   })
 
-  it('issue 14 load: early core-at-heat, 20 s soak to a quench with no door tap, no quench delay derived', () => {
+  it('a load tapped early: early core-at-heat, 20 s soak to a quench with no door tap, no quench delay derived', () => {
     // heat-up 14 s (145 s short); soak 34 − 14 = 20 s against 120 s (100 s = 1 min 40 s short); door missing: no delay rule
     const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
     const found = findDeviations(shortPlan, at({ charged: 0, soaking: 14, quenched: 34, released: 700 }))
