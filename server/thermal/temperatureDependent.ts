@@ -143,12 +143,14 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     // Maximum principle: the body stays between its coldest and hottest data, so a truncated
     // series' overshoot (early on, next to a sudden surface change) must not pick coefficients.
     const clamp = (T: number) => Math.min(bounds.max, Math.max(bounds.min, T))
+    // Every frozen problem of a stage is close to the one before: its eigenvectors start the next eigen solve.
+    let warmStart: Float64Array | undefined
     const frozenAt = (T: Float64Array, T0: number, T1: number, c0: Float64Array): FrozenSeries => {
       for (let i = 0; i < q; i++) clamped[i] = clamp(T[i])
       material(clamped, k, rhoCp)
       T0 = clamp(T0)
       T1 = clamp(T1)
-      return frozenSeries(
+      const series = frozenSeries(
         basis,
         {
           length_m: L,
@@ -160,7 +162,10 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
           innerAmbient_C: innerLaw ? innerLaw.ambient_C : 0,
         },
         c0,
+        warmStart,
       )
+      warmStart = series.rotation
+      return series
     }
     let c = projectOnto(basis, profile)
     let t = start_s
