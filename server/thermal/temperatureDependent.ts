@@ -23,6 +23,15 @@
  * open-ended stage ends in an open-ended sub-step once the body is within
  * OPEN_END_K of its steady state, where the coefficients no longer change.
  *
+ * Cost (issue 12, the benchmark's oil-quenched steel bar, 17 basis functions on 128
+ * quadrature nodes): ~650 sub-steps of two frozen solves each, a solve being the
+ * assembly of mass and stiffness from the node coefficients (weighted sums of the
+ * basis's precomputed node products, ~40 % of the time), Cholesky and the
+ * symmetrised matrix (~10 %) and a Jacobi eigen solve warm-started from the last
+ * solve's eigenvectors (~30 %); evaluating the readings is negligible. The sub-step
+ * count is what bounds it: the steps are second order, and the error collects
+ * where a step straddles a kink of the h curve or the cp peak.
+ *
  * solveCooldown sends only problems whose tables are not flat here; flat tables take
  * today's constant-property path unchanged. Checked against a refined finite-volume
  * solution (crankNicolsonNonlinear.ts) and the Kirchhoff closed form
