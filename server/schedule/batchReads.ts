@@ -2,7 +2,6 @@ import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database } from '../db/client'
 import { batches, planRevisions, plans } from '../db/schema'
-import { handlingBasis } from '../../shared/safeHandling'
 import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, FloorCurve, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
@@ -79,8 +78,9 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       furnaceName: r.furnace.name,
       stationName: r.station.name,
       handling_C: summary.handling_C,
-      handlingBasis: handlingBasis(r.batch.quenchToHandling_s, summary),
-      headlineToHandling_s: summary.quenchToHandling_s,
+      // Tenths of a second: the floor poll stays small, and the basis compares to a second.
+      headline_s: Math.round(summary.quenchToHandling_s * 10) / 10,
+      slowEnd_s: summary.slowEndToHandling_s === undefined ? null : Math.round(summary.slowEndToHandling_s * 10) / 10,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
       taps: events

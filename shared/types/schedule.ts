@@ -104,9 +104,9 @@ export interface FloorBatch
   stationName: string
   /** The plan's handling temperature (°C), for the countdown's caption. */
   handling_C: number
-  /** Which moment the booked handling time stands on (shared/safeHandling.ts), and the headline estimate beside it. */
-  handlingBasis: string
-  headlineToHandling_s: number
+  /** The plan's headline and slow-end times to handling (0.1 s), from which the card says what the booked time stands on. */
+  headline_s: number
+  slowEnd_s: number | null
   quenchDelayAllowance_s: number
   conflictWith?: string
   conflictNote?: string | null
