@@ -59,7 +59,6 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
   const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
   const list: FloorBatch[] = rows.map((r) => {
     const view = toBatchView(r.batch, settings, now)
-    const summary = readSummary(r.revision.summary)!
     return {
       id: view.id,
       loadNumber: view.loadNumber,
@@ -77,10 +76,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       planName: r.plan.name,
       furnaceName: r.furnace.name,
       stationName: r.station.name,
-      handling_C: summary.handling_C,
-      // Tenths of a second: the floor poll stays small, and the basis compares to a second.
-      headline_s: Math.round(summary.quenchToHandling_s * 10) / 10,
-      slowEnd_s: summary.slowEndToHandling_s === undefined ? null : Math.round(summary.slowEndToHandling_s * 10) / 10,
+      handling_C: readSummary(r.revision.summary)!.handling_C,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
       taps: events
@@ -101,7 +97,9 @@ export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve
     .where(inArray(planRevisions.id, planRevisionIds))
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
-    return summary ? [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries }] : []
+    if (!summary) return []
+    const times = { headline_s: summary.quenchToHandling_s, slowEnd_s: summary.slowEndToHandling_s ?? null }
+    return [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries, times }]
   })
 }
 

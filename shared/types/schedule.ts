@@ -104,9 +104,6 @@ export interface FloorBatch
   stationName: string
   /** The plan's handling temperature (°C), for the countdown's caption. */
   handling_C: number
-  /** The plan's headline and slow-end times to handling (0.1 s), from which the card says what the booked time stands on. */
-  headline_s: number
-  slowEnd_s: number | null
   quenchDelayAllowance_s: number
   conflictWith?: string
   conflictNote?: string | null
@@ -127,6 +124,13 @@ export interface FloorResponse {
 export interface FloorCurve {
   planRevisionId: number
   handlingPointSeries: PointStage[]
+  /** The revision's headline and slow-end times to handling, from which a card says what its booked time stands on. */
+  times: HandlingTimes
+}
+
+export interface HandlingTimes {
+  headline_s: number
+  slowEnd_s: number | null
 }
 
 export interface PlanOption {
