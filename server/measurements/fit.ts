@@ -120,8 +120,14 @@ function covariance(J: Matrix, variance: number): Matrix {
   return inv.mul(variance)
 }
 
-/** Fits a validated case. */
-export function fitCase(fc: FitCase): FitResult {
+export interface FitProgress {
+  iteration: number
+  /** Root-mean-square misfit of the data points after this step, K. */
+  rms_K: number
+}
+
+/** Fits a validated case; `onProgress` hears each accepted step. */
+export function fitCase(fc: FitCase, onProgress?: (progress: FitProgress) => void): FitResult {
   const n = fc.t_s.length
   const knots = fc.model.kind === 'curve' ? fc.model.knots_C : null
   const parameters = knots ? knots.length : 1
@@ -133,7 +139,9 @@ export function fitCase(fc: FitCase): FitResult {
     return r
   }
   const start = Math.log(lumpedGuess(fc))
-  const solved = levenbergMarquardt(residuals, Array.from({ length: parameters }, () => start))
+  // The cost also holds the smoothness rows; close enough to the data misfit for a progress line.
+  const onIteration = onProgress && ((iteration: number, cost: number) => onProgress({ iteration, rms_K: Math.sqrt(cost / n) }))
+  const solved = levenbergMarquardt(residuals, Array.from({ length: parameters }, () => start), { onIteration })
   const p = solved.params
   const final = forwardTemperatures(fc.problem, fc.x, fc.ambient_C, trialOf(fc, p), fc.t_s)
   let squares = 0
