@@ -19,7 +19,10 @@ interface WorkerEntry {
   fileName: string
 }
 
-const ENTRIES: WorkerEntry[] = [{ virtual: 'fit-worker', exportName: 'fitWorkerUrl', source: 'server/workers/fitWorker.ts', fileName: 'workers/fitWorker.mjs' }]
+const ENTRIES: WorkerEntry[] = [
+  { virtual: 'engine-worker', exportName: 'engineWorkerUrl', source: 'server/workers/engineWorker.ts', fileName: 'workers/engineWorker.mjs' },
+  { virtual: 'fit-worker', exportName: 'fitWorkerUrl', source: 'server/workers/fitWorker.ts', fileName: 'workers/fitWorker.mjs' },
+]
 
 function workerEntryPlugin(rootDir: string, entry: WorkerEntry): Plugin {
   const virtualId = `#${entry.virtual}`
