@@ -135,6 +135,7 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
 
   heading(doc, 'Times')
   drawTable(doc, [contentWidth - 260, 130, 130], [['Span', 'Planned', 'Recorded'], ...spanRows(sheet)])
+  if (sheet.handlingNote) doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(sheet.handlingNote, { width: contentWidth })
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {
