@@ -58,7 +58,7 @@ export function floorCountdown(
     case 'quenched':
     case 'cooling':
       seconds = until(b.handlingAt)
-      caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the bath stage ends`
+      caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the quench stage ends`
       if (b.quenchedAt !== null) coreNow_C = pointValue(b.summary.handlingPointSeries, (now - b.quenchedAt) / 1000)
       break
     case 'ready':

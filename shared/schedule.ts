@@ -5,7 +5,7 @@
  * all times are epoch milliseconds unless the name says seconds.
  */
 import { type Capability, can } from './access'
-import type { Role } from './roles'
+import { ROLE_LABELS, type Role } from './roles'
 import type { PlanSummary } from './types/plan'
 
 export const BATCH_STATES = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready', 'released', 'cancelled'] as const
@@ -15,11 +15,11 @@ export const BATCH_STATE_LABELS: Record<BatchState, string> = {
   planned: 'Booked',
   charged: 'In furnace',
   soaking: 'Holding at heat',
-  quenched: 'In the bath',
+  quenched: 'Quenching',
   cooling: 'Cooling to handling',
   ready: 'Safe to handle',
-  released: 'Handed on',
-  cancelled: 'Withdrawn',
+  released: 'Released',
+  cancelled: 'Booking cancelled',
 }
 
 /** States in which a batch still holds (or will hold) furnace or station time. */
@@ -46,8 +46,8 @@ export const TRANSITIONS: Record<Exclude<BatchState, 'planned'>, Transition> = {
   quenched: { from: ['soaking'], capability: 'floor.record', action: 'Quench started' },
   cooling: { from: ['quenched'], capability: null, action: 'Out of the bath' },
   ready: { from: ['cooling'], capability: null, action: 'Safe to handle' },
-  released: { from: ['ready'], capability: 'floor.record', action: 'Hand on' },
-  cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Withdraw' },
+  released: { from: ['ready'], capability: 'floor.record', action: 'Release' },
+  cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Cancel booking' },
 }
 
 /** True when `role` may record the move to `requested` at all (whatever the batch's state). */
@@ -65,15 +65,15 @@ export type MoveCheck =
  * never record the move gets 403 whatever the state; otherwise the order decides.
  */
 export function checkMove(current: BatchState, requested: BatchState, role: Role): MoveCheck {
-  if (requested === 'planned') return { ok: false, status: 409, message: `A batch cannot go back to ${BATCH_STATE_LABELS.planned} (planned); it is ${BATCH_STATE_LABELS[current]} (${current})` }
+  if (requested === 'planned') return { ok: false, status: 409, message: `A load cannot go back to ${BATCH_STATE_LABELS.planned}; it is ${BATCH_STATE_LABELS[current]}` }
   const rule = TRANSITIONS[requested]
-  if (rule.capability === null) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} (${requested}) follows from the plan's times; nobody records it` }
-  if (!canRecord(role, requested)) return { ok: false, status: 403, message: `A ${role} cannot record ${BATCH_STATE_LABELS[requested]} (${requested})` }
+  if (rule.capability === null) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} follows from the plan's times; nobody records it` }
+  if (!canRecord(role, requested)) return { ok: false, status: 403, message: `The ${ROLE_LABELS[role]} role cannot record ${BATCH_STATE_LABELS[requested]}` }
   if (!rule.from.includes(current)) {
     return {
       ok: false,
       status: 409,
-      message: `The batch is ${BATCH_STATE_LABELS[current]} (${current}); it cannot move to ${BATCH_STATE_LABELS[requested]} (${requested})`,
+      message: `The load is ${BATCH_STATE_LABELS[current]}; it cannot move to ${BATCH_STATE_LABELS[requested]}`,
     }
   }
   return { ok: true }

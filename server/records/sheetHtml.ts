@@ -45,7 +45,7 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
         ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '—'],
         ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, measuredOrDash(measured.soak_s)],
         ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, measuredOrDash(measured.quenchDelay_s)],
-        [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), measuredOrDash(measured.quenchToRelease_s)],
+        [`Quench to release (handling point below ${formatTemperature(planned.handling_C)})`, `not before ${formatSpan(planned.quenchToHandling_s)}`, measuredOrDash(measured.quenchToRelease_s)],
       ]
         .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
         .join(''),
@@ -111,7 +111,7 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     '',
     `Soak: planned ${planned.minimumSoak_s === null ? 'n/a' : formatSpan(planned.minimumSoak_s)}, recorded ${measuredOrDash(measured.soak_s)}`,
     `Quench delay: allowed ${formatSpan(planned.quenchDelayAllowance_s)}, recorded ${measuredOrDash(measured.quenchDelay_s)}`,
-    `Quench to handling: predicted ${formatSpan(planned.quenchToHandling_s)}, recorded ${measuredOrDash(measured.quenchToRelease_s)}`,
+    `Quench to release: not before ${formatSpan(planned.quenchToHandling_s)} (predicted handling), recorded ${measuredOrDash(measured.quenchToRelease_s)}`,
     '',
     'Deviations:',
     ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),

@@ -140,7 +140,7 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '-'],
     ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, recorded(measured.soak_s)],
     ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, recorded(measured.quenchDelay_s)],
-    [`Quench to handling (below ${formatTemperature(planned.handling_C)})`, formatSpan(planned.quenchToHandling_s), recorded(measured.quenchToRelease_s)],
+    [`Quench to release (handling point below ${formatTemperature(planned.handling_C)})`, `not before ${formatSpan(planned.quenchToHandling_s)}`, recorded(measured.quenchToRelease_s)],
   ])
 
   heading(doc, 'Deviations')

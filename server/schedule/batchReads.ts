@@ -21,7 +21,7 @@ export async function listBatches(from: Date, to: Date, furnaceId?: number, db: 
 export async function getBatch(id: number): Promise<BatchDetail> {
   const db = useDb()
   const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
-  if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  if (!found) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
   const events = await batchEventsOf(db, id)
   const b = found.batch
   return {

@@ -20,7 +20,7 @@ import { readShopSettings } from './shopSettings'
  */
 export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>, records: RecordConfig, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
   const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
-  if (!pre) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  if (!pre) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
   return await db.transaction(
     async (tx) => {
       await lockResources(tx, pre.furnaceId, pre.stationId)

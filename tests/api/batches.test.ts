@@ -128,9 +128,10 @@ describe('state moves on the floor', () => {
     const skipped = await moveBooked(operator, 'quenched')
     expect(skipped.status).toBe(409)
     expect(skipped.body.data).toEqual({ currentState: 'planned', requestedState: 'quenched' })
-    expect(skipped.body.statusMessage).toContain('(planned)')
-    expect(skipped.body.statusMessage).toContain('(quenched)')
-    expect((await moveBooked(metallurgist, 'charged')).status).toBe(403)
+    expect(skipped.body.statusMessage).toBe('The load is Booked; it cannot move to Quenching')
+    const watcher = await moveBooked(metallurgist, 'charged')
+    expect(watcher.status).toBe(403)
+    expect(watcher.body.statusMessage).toBe('The Metallurgist role cannot record In furnace')
     expect((await moveBooked(qa, 'charged')).status).toBe(403)
     expect((await moveBooked(operator, 'cancelled')).status).toBe(403)
 

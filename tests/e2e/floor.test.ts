@@ -95,7 +95,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'ready', batch.loadNumber, { timeout: 15_000 })
     expect(await card.getByTestId('card-state').textContent()).toContain('Safe to handle')
     await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-ready.png` })
-    await tapAndConfirm(page, card, 'Hand on')
+    await tapAndConfirm(page, card, 'Release')
     await card.waitFor({ state: 'detached' })
     const events = (await admin.request(`/api/batches/${batch.id}`)).body.events.map((e: { toState: string; actorName: string | null }) => [e.toState, e.actorName])
     expect(events).toEqual([

@@ -3,6 +3,7 @@ import { runCase } from '../../server/thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
 import { floorCountdown } from '../../shared/floorCountdown'
 import {
+  BATCH_STATE_LABELS,
   DEFAULT_SHOP_SETTINGS,
   checkMove,
   deriveSlots,
@@ -111,7 +112,7 @@ describe('state moves', () => {
     if (expected === 'ok') expect(verdict).toEqual({ ok: true })
     else {
       expect(verdict).toMatchObject({ ok: false, status: expected })
-      if (expected === 409 && !['cooling', 'ready', 'planned'].includes(to)) expect(!verdict.ok && verdict.message).toContain(`(${from})`)
+      if (expected === 409 && !['cooling', 'ready', 'planned'].includes(to)) expect(!verdict.ok && verdict.message).toBe(`The load is ${BATCH_STATE_LABELS[from]}; it cannot move to ${BATCH_STATE_LABELS[to]}`)
     }
   })
 
