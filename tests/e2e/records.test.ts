@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { createHmac } from 'node:crypto'
 import { canonicalJson } from '../../server/records/canonical'
-import { SCREENSHOT_DIR, useBrowser } from '../support/browser'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { demoUser, signInDemo } from '../support/http'
 import { createLibraryFixture } from '../support/library'
 import { waitForMail } from '../support/mailCatcher'
@@ -37,7 +37,10 @@ describe('signing a record from the e-mailed link', () => {
     const events = await page.getByTestId('record-events').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-type')))
     expect(events).toEqual(['charged', 'soaking', 'furnace_opened', 'quenched', 'cooling', 'ready_to_handle', 'released'])
 
+    // Approving signs for good: the first tap only asks for confirmation.
     await page.getByRole('button', { name: 'Approve record' }).click()
+    expect(await page.getByTestId('record-state').textContent()).toBe('Unsigned')
+    await page.getByRole('button', { name: 'Confirm: approve and sign' }).click()
     await page.getByRole('status').filter({ hasText: 'Record approved.' }).waitFor()
     expect((await page.getByTestId('sign-off-state').textContent())!.trim()).toBe(`Approved by ${user.displayName}`)
     expect(await page.getByTestId('record-state').textContent()).toBe('Approved')
@@ -54,6 +57,22 @@ describe('signing a record from the e-mailed link', () => {
     await page.locator(`tr[data-load="${released.loadNumber}"][data-state="approved"]`).waitFor()
     await page.getByLabel('Sign-off').selectOption('unsigned')
     await page.locator(`tr[data-load="${released.loadNumber}"]`).waitFor({ state: 'detached' })
+    await page.context().close()
+  })
+
+  it('rejecting without a comment shows the field’s own message and no generic banner; nothing is signed', async () => {
+    const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+    const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
+    const released = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, plan, 2500)
+    const listed = (await qa.request('/api/records?state=unsigned&limit=500')).body as { id: number; loadNumber: string }[]
+    const recordId = listed.find((r) => r.loadNumber === released.loadNumber)!.id
+    const path = `/records/${recordId}`
+    const page = await browser.tabletPage()
+    await signInThroughPage(page, 'qa', path)
+    await page.getByRole('button', { name: 'Reject record' }).click()
+    await expect(page.getByTestId('sign-off').locator('.field-error').textContent()).resolves.toBe('A rejection needs a comment saying why')
+    expect(await page.getByTestId('sign-off').getByRole('alert').count()).toBe(0)
+    expect((await qa.request(`/api/records/${recordId}`)).body.state).toBe('unsigned')
     await page.context().close()
   })
 })
