@@ -187,11 +187,13 @@ export function overlaps(a: Interval, b: Interval): boolean {
 }
 
 /**
- * The earliest start at or after `from` at which the furnace holds the load for
- * `furnace_ms` and the station, `stationOffset_ms` after the start, holds it for
- * `station_ms`, clear of every busy interval. The answer is `from` itself or a
+ * The earliest whole-second start at or after `from` at which the furnace holds the
+ * load for `furnace_ms` and the station, `stationOffset_ms` after the start, holds it
+ * for `station_ms`, clear of every busy interval. The answer is `from` itself or a
  * moment at which some busy interval ends (shifted by the offset for the station),
- * so only those candidates need checking.
+ * rounded up to the second, so only those candidates need checking. Whole seconds,
+ * because a charge time is typed and sent to the second: an offer with milliseconds
+ * would come back truncated and collide again.
  */
 export function nextFreeStart(
   from: number,
@@ -201,7 +203,9 @@ export function nextFreeStart(
   furnaceBusy: Interval[],
   stationBusy: Interval[],
 ): number {
+  const wholeSecond = (t: number) => Math.ceil(t / 1000) * 1000
   const candidates = [from, ...furnaceBusy.map((b) => b.end), ...stationBusy.map((b) => b.end - stationOffset_ms)]
+    .map(wholeSecond)
     .filter((t) => t >= from)
     .sort((a, b) => a - b)
   for (const t of candidates) {

@@ -6,6 +6,7 @@ import { FLOOR_STATES } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
 import { batchEventsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
+import { quenchMediumOf } from './quenchMedium'
 import { readShopSettings } from './shopSettings'
 
 /** Batches whose time (charge to handling) touches [from, to); the schedule's week query. */
@@ -64,15 +65,28 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
 /** Plan revisions with a computed summary, newest first: what the booking form offers. */
 export async function planOptions(): Promise<PlanOption[]> {
   const rows = await useDb()
-    .select({ planRevisionId: planRevisions.id, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary })
+    .select({ planRevisionId: planRevisions.id, planId: plans.id, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary, spec: planRevisions.spec })
     .from(planRevisions)
     .innerJoin(plans, eq(plans.id, planRevisions.planId))
     .where(and(eq(plans.archived, false), sql`${planRevisions.summary} IS NOT NULL`))
     .orderBy(asc(plans.name), desc(planRevisions.revision))
     .limit(500)
+  // Rows come newest revision first within each plan, so the first seen is the latest.
+  const seen = new Set<number>()
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
     if (!summary) return []
-    return [{ planRevisionId: row.planRevisionId, planName: row.planName, revision: row.revision, quenchToHandling_s: summary.quenchToHandling_s, furnace_s: summary.soak?.total_s ?? null, furnace_C: summary.soak?.furnace_C ?? null }]
+    const latest = !seen.has(row.planId)
+    seen.add(row.planId)
+    return [{
+      planRevisionId: row.planRevisionId,
+      planName: row.planName,
+      revision: row.revision,
+      latest,
+      quenchKind: quenchMediumOf(row.spec)?.kind ?? null,
+      quenchToHandling_s: summary.quenchToHandling_s,
+      furnace_s: summary.soak?.total_s ?? null,
+      furnace_C: summary.soak?.furnace_C ?? null,
+    }]
   })
 }

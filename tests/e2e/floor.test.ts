@@ -24,9 +24,9 @@ async function tapAndConfirm(page: Page, card: ReturnType<Page['getByTestId']>, 
 }
 
 /** Saves the plan through the planner, then books it on a line of its own, due in ten minutes. */
-async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib)) {
+async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib), stationKind = 'oil') {
   const plan = await savePlan(metallurgist, spec)
-  const line = await createLine(admin, 'Floor')
+  const line = await createLine(admin, 'Floor', stationKind)
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 10 * 60_000, 'Floor run') })
   expect(booked.status).toBe(201)
   return { plan, line, batch: booked.body as { id: number; loadNumber: string } }
@@ -81,7 +81,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
   })
 
   it('a thin sheet reaches handling temperature within seconds: the card turns safe to handle and is handed on', async () => {
-    const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib))
+    const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib), 'water')
     expect(plan.summary.quenchToHandling_s).toBeCloseTo(runCase(THIN_SHEET_QUENCH_CASE).targetTime_s!, 6)
     expect(plan.summary.quenchToHandling_s).toBeLessThan(10)
     const page = await browser.tabletPage()

@@ -29,7 +29,7 @@ export async function move(client: Client, batchId: number, to: string) {
  */
 export async function releaseLoad(clients: { admin: Client; metallurgist: Client; recorder: Client; reader: Client }, plan: SavedPlan, soakWait_ms: number): Promise<Released> {
   const { admin, metallurgist, recorder, reader } = clients
-  const line = await createLine(admin, 'Rec')
+  const line = await createLine(admin, 'Rec', 'water')
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-REC') })
   expect(booked.status).toBe(201)
   const batchId = booked.body.id

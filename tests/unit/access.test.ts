@@ -51,8 +51,17 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/batches' },
     { call: 'GET /api/schedule/plan-revisions', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
     { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'PATCH /api/batches/[id]', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
   ],
-  'pages/schedule/[id].vue': [{ call: 'GET /api/batches/[id]' }, { call: 'POST /api/batches/[id]/events', when: 'schedule.book' }],
+  'pages/schedule/[id].vue': [
+    { call: 'GET /api/batches/[id]' },
+    { call: 'POST /api/batches/[id]/events', when: 'schedule.book' },
+    { call: 'GET /api/furnaces' },
+    { call: 'GET /api/quench-stations' },
+    { call: 'GET /api/schedule/plan-revisions', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'PATCH /api/batches/[id]', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+  ],
   'pages/floor.vue': [{ call: 'GET /api/furnaces' }, { call: 'GET /api/floor' }, { call: 'POST /api/batches/[id]/events', when: 'floor.record' }],
   'pages/records/index.vue': [{ call: 'GET /api/records' }, { call: 'GET /api/furnaces' }],
   'pages/records/[id].vue': [
