@@ -94,7 +94,7 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'PATCH /api/users/[id]' },
     { call: 'POST /api/users', via: 'components/admin/AdminUserForm.vue' },
   ],
-  'pages/admin/audit.vue': [{ call: 'GET /api/audit' }],
+  'pages/admin/audit.vue': [{ call: 'GET /api/audit' }, { call: 'GET /api/audit/people' }],
   'pages/admin/outbox.vue': [{ call: 'GET /api/outbox' }, { call: 'POST /api/outbox/[id]/retry' }, { call: 'POST /api/outbox/test-sheet' }],
   'pages/admin/mail-recipients.vue': [{ call: 'GET /api/mail-recipients' }, { call: 'PUT /api/mail-recipients/[kind]' }],
 }
