@@ -112,11 +112,12 @@ describe('bookings the floor can run', () => {
   it('refuses a station that does not hold the plan\'s quench medium, naming both, and writes nothing', async () => {
     const line = await createLine(admin, 'Kind', 'polymer')
     const oil = (await metallurgist.request(`/api/quenchants/${lib.oilId}`)).body as { name: string }
-    const refused = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
+    const at = futureDay()
+    const refused = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, at) })
     expect(refused.status).toBe(422)
     expect(refused.body.statusMessage).toBe('Quench station does not fit the plan')
     expect(refused.body.data.problems).toEqual([{ field: 'stationId', message: `${line.station.name} is a polymer solution station; the plan quenches in ${oil.name} (oil)` }])
-    const none = await qa.request(`/api/batches?from=${new Date(Date.UTC(2030, 0, 1)).toISOString()}&to=${new Date(Date.UTC(2040, 0, 1)).toISOString()}&furnaceId=${line.furnace.id}`)
+    const none = await qa.request(`/api/batches?from=${new Date(at - HOUR).toISOString()}&to=${new Date(at + 24 * HOUR).toISOString()}&furnaceId=${line.furnace.id}`)
     expect(none.body.batches).toEqual([])
   })
 
