@@ -30,6 +30,8 @@ const ACTIONS: Record<string, string> = {
   'plan.create': 'Saved a new plan',
   'plan.revise': 'Saved a plan revision',
   'plan.duplicate': 'Duplicated a plan',
+  'plan.archive': 'Archived a plan',
+  'plan.restore': 'Brought a plan back from the archive',
   'record.create': 'Wrote a cooldown record',
   'record.approve': 'Approved a cooldown record',
   'record.reject': 'Rejected a cooldown record',

@@ -26,7 +26,7 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/users', via: 'components/shift/ShiftAdminPanel.vue', when: 'admin' },
     { call: 'GET /api/furnaces', via: 'components/shift/ShiftAdminPanel.vue', when: 'admin' },
   ],
-  'pages/plans/index.vue': [{ call: 'GET /api/plans' }],
+  'pages/plans/index.vue': [{ call: 'GET /api/plans' }, { call: 'POST /api/plans/[id]/archive', when: 'plans.edit' }],
   'pages/plans/new.vue': [
     { call: 'POST /api/plans' },
     { call: 'GET /api/plans/library', via: 'components/plan/PlanEditor.vue' },
