@@ -37,6 +37,16 @@ export default createConfigForNuxt({
       'vue/multi-word-component-names': 'off',
       // Short templates read better on one line; long ones are caught by max-len.
       'vue/max-attributes-per-line': 'off',
+      // Grouped by concern (modules, app, auth, runtime), not alphabetically.
+      'nuxt/nuxt-config-keys-order': 'off',
+      // The house style as written: void elements self-closed, `;` between members of a
+      // one-line type literal, a line break after binary operators and before `?`, `:` and type unions.
+      'vue/html-self-closing': ['error', { html: { void: 'always', normal: 'always', component: 'always' }, svg: 'always', math: 'always' }],
+      '@stylistic/member-delimiter-style': ['error', {
+        multiline: { delimiter: 'none', requireLast: false },
+        singleline: { delimiter: 'semi', requireLast: false },
+      }],
+      '@stylistic/operator-linebreak': ['error', 'after', { overrides: { '?': 'before', ':': 'before', '|': 'before', '&': 'before' } }],
       'vue/singleline-html-element-content-newline': 'off',
     },
   })

@@ -21,6 +21,10 @@ export function useFormatTime() {
   function clock(ms: number): string {
     return local.value ? new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' }) : utc(ms, 11, 16)
   }
+  /** To the second: what the floor and the records say about when something was recorded. */
+  function clockSeconds(ms: number): string {
+    return local.value ? new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' }) : utc(ms, 11, 19)
+  }
   function dateTime(ms: number): string {
     return local.value ? new Date(ms).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : utc(ms, 0, 16)
   }
@@ -33,5 +37,5 @@ export function useFormatTime() {
   }
   // One duration format everywhere: rounding to whole minutes here could show a
   // deviation's planned and recorded spans as the same "15 min".
-  return { countdown, clock, dateTime, dateTimeSeconds, date, duration: formatDuration }
+  return { countdown, clock, clockSeconds, dateTime, dateTimeSeconds, date, duration: formatDuration }
 }

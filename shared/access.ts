@@ -22,6 +22,8 @@ export const ACCESS = {
   'floor.record': ['operator', 'admin'],
   'records.read': ['qa', 'metallurgist', 'admin'],
   'records.signOff': ['qa'],
+  /** Correct a floor tap's time at any time before the record is signed (operators only within the shop's correction window). */
+  'records.correct': ['metallurgist', 'qa'],
   'records.digest': ['admin'],
   'people.manage': ['admin'],
   'equipment.read': [],

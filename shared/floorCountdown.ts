@@ -55,6 +55,11 @@ export function floorCountdown(
       seconds = until(b.furnaceEnd)
       caption = seconds >= 0 ? 'until core at heat plus minimum soak' : 'Soak complete: quench now'
       break
+    case 'unloaded':
+      // The door is open: what counts is the allowance from the door to the bath.
+      seconds = until(b.furnaceEnd + b.quenchDelayAllowance_s * 1000)
+      caption = seconds >= 0 ? 'left of the quench delay allowance: into the bath' : 'Quench delay allowance passed: quench now'
+      break
     case 'quenched':
     case 'cooling':
       seconds = until(b.handlingAt)

@@ -8,13 +8,14 @@ import { type Capability, can } from './access'
 import { ROLE_LABELS, type Role } from './roles'
 import type { PlanSummary } from './types/plan'
 
-export const BATCH_STATES = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready', 'released', 'cancelled'] as const
+export const BATCH_STATES = ['planned', 'charged', 'soaking', 'unloaded', 'quenched', 'cooling', 'ready', 'released', 'cancelled'] as const
 export type BatchState = (typeof BATCH_STATES)[number]
 
 export const BATCH_STATE_LABELS: Record<BatchState, string> = {
   planned: 'Booked',
   charged: 'In furnace',
   soaking: 'Holding at heat',
+  unloaded: 'Out of the furnace',
   quenched: 'Quenching',
   cooling: 'Cooling to handling',
   ready: 'Safe to handle',
@@ -23,9 +24,11 @@ export const BATCH_STATE_LABELS: Record<BatchState, string> = {
 }
 
 /** States in which a batch still holds (or will hold) furnace or station time. */
-export const OPEN_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
+export const OPEN_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'unloaded', 'quenched', 'cooling', 'ready']
+/** The moves people tap on the floor, in process order: the ones a correction may retime. */
+export const FLOOR_TAPS: readonly BatchState[] = ['charged', 'soaking', 'unloaded', 'quenched', 'released']
 /** States shown on the floor. */
-export const FLOOR_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'quenched', 'cooling', 'ready']
+export const FLOOR_STATES: readonly BatchState[] = ['planned', 'charged', 'soaking', 'unloaded', 'quenched', 'cooling', 'ready']
 
 export interface Transition {
   from: readonly BatchState[]
@@ -43,8 +46,10 @@ export interface Transition {
 export const TRANSITIONS: Record<Exclude<BatchState, 'planned'>, Transition> = {
   charged: { from: ['planned'], capability: 'floor.record', action: 'Load charged' },
   soaking: { from: ['charged'], capability: 'floor.record', action: 'Core at heat' },
-  quenched: { from: ['soaking'], capability: 'floor.record', action: 'Quench started' },
-  cooling: { from: ['quenched'], capability: null, action: 'Out of the bath' },
+  unloaded: { from: ['soaking'], capability: 'floor.record', action: 'Out of the furnace' },
+  // From "soaking" too: a quench whose door tap was missed is still recorded, and the record says the door time is missing.
+  quenched: { from: ['soaking', 'unloaded'], capability: 'floor.record', action: 'Quench started' },
+  cooling: { from: ['quenched'], capability: null, action: 'Quench stage over' },
   ready: { from: ['cooling'], capability: null, action: 'Safe to handle' },
   released: { from: ['ready'], capability: 'floor.record', action: 'Release' },
   cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Cancel booking' },
@@ -84,7 +89,8 @@ export function nextFloorMove(state: BatchState): Exclude<BatchState, 'planned'>
   const order: [BatchState, Exclude<BatchState, 'planned'>][] = [
     ['planned', 'charged'],
     ['charged', 'soaking'],
-    ['soaking', 'quenched'],
+    ['soaking', 'unloaded'],
+    ['unloaded', 'quenched'],
     ['ready', 'released'],
   ]
   return order.find(([from]) => from === state)?.[1] ?? null
@@ -98,6 +104,8 @@ export interface ShopSettings {
   defaultFurnace_s: number
   /** How long past the end of soak a quench may start before the batch is flagged late. */
   quenchDelayAllowance_s: number
+  /** How long after a tap its operator may still correct its time; later, a metallurgist or QA lead corrects it. */
+  correctionWindow_s: number
   /** How long after "safe to handle" the load may wait for tempering before it is flagged. */
   temperWithin_s: number
 }
@@ -106,6 +114,7 @@ export const DEFAULT_SHOP_SETTINGS: ShopSettings = {
   transfer_s: 60,
   defaultFurnace_s: 4 * 3600,
   quenchDelayAllowance_s: 600,
+  correctionWindow_s: 600,
   temperWithin_s: 2 * 3600,
 }
 
@@ -147,14 +156,16 @@ export interface Slots {
 export interface ActualTimes {
   chargedAt?: number | null
   soakingAt?: number | null
+  unloadedAt?: number | null
   quenchedAt?: number | null
 }
 
 /**
  * Slots from the planned charge, re-planned from whatever the floor has recorded:
  * a recorded charge moves everything after it; "core at heat" restarts the
- * minimum soak when the plan knows it; a recorded quench fixes bath and cooldown
- * and frees the furnace one transfer earlier.
+ * minimum soak when the plan knows it; a recorded door opening ends the furnace
+ * time; a recorded quench fixes bath and cooldown and, without a door tap, frees the
+ * furnace one transfer earlier.
  */
 export function deriveSlots(plannedCharge: number, d: SlotDurations, actual: ActualTimes = {}): Slots {
   // Whole milliseconds, as the database stores them, so a proposed start books exactly.
@@ -162,10 +173,11 @@ export function deriveSlots(plannedCharge: number, d: SlotDurations, actual: Act
   const charge = actual.chargedAt ?? plannedCharge
   let furnaceEnd = charge + ms(d.furnace_s)
   if (actual.soakingAt != null && d.minimumSoak_s !== null) furnaceEnd = actual.soakingAt + ms(d.minimumSoak_s)
+  if (actual.unloadedAt != null) furnaceEnd = actual.unloadedAt
   let quenchStart = furnaceEnd + ms(d.transfer_s)
   if (actual.quenchedAt != null) {
     quenchStart = actual.quenchedAt
-    furnaceEnd = Math.max(charge, quenchStart - ms(d.transfer_s))
+    furnaceEnd = actual.unloadedAt ?? Math.max(charge, quenchStart - ms(d.transfer_s))
   }
   return {
     furnaceStart: charge,
@@ -233,13 +245,13 @@ export interface BatchFlags {
 }
 
 /**
- * Late to quench: still in the furnace after soak end plus the allowance (the
- * plan's own allowance when it states one). Overdue to temper: safe to handle
+ * Late to quench: not in the quench by soak end (or the recorded door opening)
+ * plus the allowance (the plan's own allowance when it states one). Overdue to temper: safe to handle
  * for longer than the shop allows before tempering.
  */
 export function batchFlags(state: BatchState, slots: Slots, now: number, quenchDelayAllowance_s: number, temperWithin_s: number): BatchFlags {
   return {
-    lateToQuench: (state === 'charged' || state === 'soaking') && now > slots.furnaceEnd + quenchDelayAllowance_s * 1000,
+    lateToQuench: (state === 'charged' || state === 'soaking' || state === 'unloaded') && now > slots.furnaceEnd + quenchDelayAllowance_s * 1000,
     overdueToTemper: state === 'ready' && now > slots.handlingAt + temperWithin_s * 1000,
   }
 }

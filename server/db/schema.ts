@@ -244,6 +244,8 @@ export const batches = mysqlTable(
     handlingAt: datetime('handling_at', { mode: 'date', fsp: 3 }).notNull(),
     chargedAt: datetime('charged_at', { mode: 'date', fsp: 3 }),
     soakingAt: datetime('soaking_at', { mode: 'date', fsp: 3 }),
+    /** Furnace door open, load out: the start of the quench delay. */
+    unloadedAt: datetime('unloaded_at', { mode: 'date', fsp: 3 }),
     quenchedAt: datetime('quenched_at', { mode: 'date', fsp: 3 }),
     /** Set when an earlier load ran late into this one's furnace or station time. */
     conflictWith: varchar('conflict_with', { length: 32 }),
@@ -271,14 +273,37 @@ export const batchEvents = mysqlTable(
     toState: mysqlEnum('to_state', BATCH_STATES).notNull(),
     at: datetime('at', { mode: 'date', fsp: 3 }).notNull(),
     actorId: int('actor_id').references(() => users.id),
+    /** Set when the tap came before the plan said it should and the operator confirmed it anyway. */
+    shortfall_s: double('shortfall_s'),
+    shortfallNote: varchar('shortfall_note', { length: 300 }),
   },
   (table) => [uniqueIndex('batch_event_once').on(table.batchId, table.toState)],
+)
+
+/**
+ * A corrected time for a recorded floor event. The event row keeps the original tap;
+ * each correction is added beside it (the latest one counts), so the record and the
+ * audit trail show both.
+ */
+export const batchEventCorrections = mysqlTable(
+  'batch_event_corrections',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    eventId: int('event_id').notNull().references(() => batchEvents.id),
+    batchId: int('batch_id').notNull().references(() => batches.id),
+    correctedAt: datetime('corrected_at', { mode: 'date', fsp: 3 }).notNull(),
+    reason: varchar('reason', { length: 500 }).notNull(),
+    actorId: int('actor_id').notNull().references(() => users.id),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (table) => [index('correction_batch_idx').on(table.batchId)],
 )
 
 export type FurnaceRow = typeof furnaces.$inferSelect
 export type QuenchStationRow = typeof quenchStations.$inferSelect
 export type BatchRow = typeof batches.$inferSelect
 export type BatchEventRow = typeof batchEvents.$inferSelect
+export type BatchEventCorrectionRow = typeof batchEventCorrections.$inferSelect
 
 /**
  * The cooldown record of a released batch, written in the release transaction. The

@@ -3,38 +3,36 @@
  * what the batch, its plan revision and its events say at release; the hold-time sheet
  * rendered from that snapshot; the sign-off signature; the integrity check.
  *
- * Quench delay. The floor records "quench started" but not the moment the furnace door
- * opened, so the record derives that moment: the planned end of soak (the recorded
- * "core at heat" plus the minimum soak, or the recorded charge plus the planned furnace
- * time), or the quench itself when the quench came earlier. The delay is then the
- * recorded quench start minus that moment, which is the same reading the floor's
- * "late to quench" flag uses (shared/schedule.ts batchFlags), and the transfer from
- * door to bath counts against the allowance. A soak cut short shows as a short soak and
- * no delay; a load left in the furnace past its soak end shows as a quench delay. The
- * derived moment is listed among the events with no person against it, so a reader
- * never mistakes it for a floor entry.
+ * Recorded and predicted moments. The events list the floor's taps (charge, core at
+ * heat, out of the furnace, quench, release) at their corrected times where a tap was
+ * corrected, with the original time and every correction beside them, and the moments
+ * the plan's clock gives from the recorded quench (out of the quench, ready to handle),
+ * marked "predicted". Measured spans and deviations come from the taps alone. The quench
+ * delay is the door opening to the quench, as the trade means it; when nobody tapped
+ * the door opening the record lists it as not recorded and measures no delay, rather
+ * than deriving the moment from the plan.
  */
 import { pointValue } from '../../shared/pointSeries'
 import { deriveSlots, type BatchState, type SlotDurations } from '../../shared/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
-import type { CurvePoint, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
+import type { CurvePoint, EventCorrection, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
 import { canonicalJson, hmacSha256Hex, verifyRecordSeal } from './canonical'
 import { STANDARD_CAUTIONS } from './cautions'
 import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
 
-/** Who a derived or clock-written moment is attributed to on the sheet. */
+/** Who a predicted moment is attributed to on the sheet. */
 export const CLOCK_NAME = 'Slakewise (plan clock)'
-export const DERIVED_NAME = 'Slakewise (planned soak end)'
 
-const EVENT_TYPE: Partial<Record<BatchState, RecordEventType>> = {
+/** The floor taps a record lists, in process order. */
+const TAPPED: Partial<Record<BatchState, RecordEventType>> = {
   charged: 'charged',
   soaking: 'soaking',
+  unloaded: 'furnace_opened',
   quenched: 'quenched',
-  cooling: 'cooling',
-  ready: 'ready_to_handle',
   released: 'released',
 }
+const EXPECTED_TAPS: RecordEventType[] = ['charged', 'soaking', 'furnace_opened', 'quenched', 'released']
 
 export interface SnapshotInput {
   batch: {
@@ -50,7 +48,9 @@ export interface SnapshotInput {
   station: { id: number; name: string }
   plan: { id: number; name: string }
   revision: { id: number; revision: number; spec: Record<string, unknown>; summary: PlanSummary }
-  events: { toState: BatchState; at: Date; actorId: number | null; actorName: string | null }[]
+  events: { id: number; toState: BatchState; at: Date; actorId: number | null; actorName: string | null; shortfallNote: string | null }[]
+  /** Corrections of the events, oldest first. */
+  corrections: { eventId: number; correctedAt: Date; reason: string; actorName: string; createdAt: Date }[]
   releasedBy: { id: number; name: string }
 }
 
@@ -67,36 +67,53 @@ export function predictedCurve(summary: PlanSummary, quenchToHandling_s: number)
   return points
 }
 
-export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
-  const { batch, revision } = input
-  const iso = (date: Date) => date.toISOString()
-  const floor = input.events.filter((event) => EVENT_TYPE[event.toState] !== undefined)
-  const firstAt = (state: BatchState) => floor.find((event) => event.toState === state)?.at.getTime() ?? null
-  const charged = firstAt('charged')
-  const soaking = firstAt('soaking')
-  const quenched = firstAt('quenched')
-  const released = firstAt('released')
-  if (quenched === null || released === null) throw new Error(`Load ${batch.loadNumber} has no recorded quench or release`)
-
-  // The batch carries its booked SlotDurations.
-  const soakEnd = deriveSlots(batch.plannedCharge.getTime(), batch, { chargedAt: charged, soakingAt: soaking }).furnaceEnd
-  const handlingAt = deriveSlots(batch.plannedCharge.getTime(), batch, { chargedAt: charged, soakingAt: soaking, quenchedAt: quenched }).handlingAt
-
-  const events: SnapshotEvent[] = floor.map((event) => ({
-    type: EVENT_TYPE[event.toState]!,
-    at: iso(event.at),
+/** A floor tap at its corrected time, with the original time and its corrections beside it. */
+function tappedEvent(event: SnapshotInput['events'][number], type: RecordEventType, corrections: SnapshotInput['corrections']): SnapshotEvent {
+  const original = event.at.toISOString()
+  const own = corrections.filter((c) => c.eventId === event.id)
+  const history: EventCorrection[] = []
+  let current = original
+  for (const c of own) {
+    history.push({ from: current, to: c.correctedAt.toISOString(), reason: c.reason, by: c.actorName, madeAt: c.createdAt.toISOString() })
+    current = c.correctedAt.toISOString()
+  }
+  return {
+    type,
+    at: current,
     by: event.actorName ?? CLOCK_NAME,
     actorId: event.actorId,
-  }))
-  events.push({
-    type: 'furnace_opened',
-    at: new Date(Math.min(soakEnd, quenched)).toISOString(),
-    by: DERIVED_NAME,
-    actorId: null,
-    note: 'derived, not recorded on the floor: the planned end of soak, or the quench if that came first',
+    source: 'recorded',
+    ...(event.shortfallNote ? { shortfall: event.shortfallNote } : {}),
+    ...(history.length ? { originalAt: original, corrections: history } : {}),
+  }
+}
+
+export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
+  const { batch, revision } = input
+  const iso = (ms: number) => new Date(ms).toISOString()
+  const taps = input.events.flatMap((event) => {
+    const type = TAPPED[event.toState]
+    return type && event.actorId !== null ? [tappedEvent(event, type, input.corrections)] : []
   })
-  const order = ['charged', 'soaking', 'furnace_opened', 'quenched', 'cooling', 'ready_to_handle', 'released']
-  events.sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || order.indexOf(a.type) - order.indexOf(b.type))
+  const tapAt = (type: RecordEventType) => {
+    const found = taps.find((event) => event.type === type)
+    return found ? Date.parse(found.at) : null
+  }
+  const quenched = tapAt('quenched')
+  const released = tapAt('released')
+  if (quenched === null || released === null) throw new Error(`Load ${batch.loadNumber} has no recorded quench or release`)
+
+  // The batch carries its booked SlotDurations; the plan's moments follow from the recorded ones.
+  const actual = { chargedAt: tapAt('charged'), soakingAt: tapAt('soaking'), unloadedAt: tapAt('furnace_opened') }
+  const soakEnd = deriveSlots(batch.plannedCharge.getTime(), batch, { chargedAt: actual.chargedAt, soakingAt: actual.soakingAt }).furnaceEnd
+  const afterQuench = deriveSlots(batch.plannedCharge.getTime(), batch, { ...actual, quenchedAt: quenched })
+  const predictedNote = 'predicted from the recorded quench and the plan, not recorded on the floor'
+  const events: SnapshotEvent[] = [
+    ...taps,
+    { type: 'cooling', at: iso(afterQuench.quenchEnd), by: CLOCK_NAME, actorId: null, source: 'predicted', note: predictedNote },
+    { type: 'ready_to_handle', at: iso(afterQuench.handlingAt), by: CLOCK_NAME, actorId: null, source: 'predicted', note: predictedNote },
+  ]
+  events.sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || EXPECTED_TAPS.indexOf(a.type) - EXPECTED_TAPS.indexOf(b.type))
 
   const plan = deviationPlanFromSummary(revision.summary, batch.quenchDelayAllowance_s)
   // The batch froze its own durations at booking; they are what the floor worked to.
@@ -104,7 +121,7 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
   plan.quenchToHandling_s = batch.quenchToHandling_s
   const spec = revision.spec as { start_C?: number }
   return {
-    format: 1,
+    format: 2,
     batch: {
       id: batch.id,
       loadNumber: batch.loadNumber,
@@ -113,7 +130,7 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
       mass_kg: batch.mass_kg,
       furnace: input.furnace,
       station: input.station,
-      plannedCharge: iso(batch.plannedCharge),
+      plannedCharge: batch.plannedCharge.toISOString(),
     },
     plan: { planId: input.plan.id, name: input.plan.name, revisionId: revision.id, revision: revision.revision, spec: revision.spec },
     predicted: {
@@ -126,14 +143,15 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
       quench_s: batch.quench_s,
       quenchToHandling_s: batch.quenchToHandling_s,
       quenchDelayAllowance_s: batch.quenchDelayAllowance_s,
-      soakEnd: new Date(soakEnd).toISOString(),
-      handlingAt: new Date(handlingAt).toISOString(),
+      soakEnd: iso(soakEnd),
+      handlingAt: iso(afterQuench.handlingAt),
       curve: predictedCurve(revision.summary, batch.quenchToHandling_s),
     },
     events,
-    measured: measureTimes(plan, events),
-    deviations: findDeviations(plan, events),
-    releasedAt: new Date(released).toISOString(),
+    notRecorded: EXPECTED_TAPS.filter((type) => tapAt(type) === null),
+    measured: measureTimes(taps),
+    deviations: findDeviations(plan, taps),
+    releasedAt: iso(released),
     releasedBy: input.releasedBy,
   }
 }
@@ -181,7 +199,8 @@ export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, si
     },
     measured: snapshot.measured,
     predictedCurve: p.curve,
-    events: snapshot.events.map(({ type, at, by, note }) => ({ type, at, by, ...(note ? { note } : {}) })),
+    events: snapshot.events.map(({ actorId: _actorId, ...event }) => event),
+    notRecorded: snapshot.notRecorded,
     deviations: snapshot.deviations,
     cautions: [...STANDARD_CAUTIONS],
     generatedAt: snapshot.releasedAt,

@@ -31,13 +31,14 @@ export function sampleHoldTimeSheet(input: { loadNumber: string; shopName: strin
   const charged = soaking - 72 * 60_000
   const iso = (ms: number) => new Date(ms).toISOString()
   const events: RecordEvent[] = [
-    { type: 'charged', at: iso(charged), by: 'Tomas Vidal' },
-    { type: 'soaking', at: iso(soaking), by: 'Tomas Vidal', note: 'core thermocouple at 845 °C' },
-    { type: 'furnace_opened', at: iso(opened), by: 'Tomas Vidal' },
-    { type: 'quenched', at: iso(quenched), by: 'Tomas Vidal', note: 'crane held at the door' },
-    { type: 'ready_to_handle', at: iso(quenched + Math.ceil(QUENCH_TO_HANDLING_S) * 1000), by: 'Slakewise' },
-    { type: 'released', at: iso(released), by: 'June Halvorsen' },
+    { type: 'charged', at: iso(charged), by: 'Tomas Vidal', source: 'recorded' },
+    { type: 'soaking', at: iso(soaking), by: 'Tomas Vidal', source: 'recorded', note: 'core thermocouple at 845 °C' },
+    { type: 'furnace_opened', at: iso(opened), by: 'Tomas Vidal', source: 'recorded' },
+    { type: 'quenched', at: iso(quenched), by: 'Tomas Vidal', source: 'recorded', note: 'crane held at the door' },
+    { type: 'ready_to_handle', at: iso(quenched + Math.ceil(QUENCH_TO_HANDLING_S) * 1000), by: 'Slakewise (plan clock)', source: 'predicted' },
+    { type: 'released', at: iso(released), by: 'June Halvorsen', source: 'recorded' },
   ]
+  const tapped = events.filter((event) => event.source === 'recorded')
 
   const curveEnd = Math.ceil((QUENCH_TO_HANDLING_S * 1.25) / 30) * 30
   const predictedCurve: CurvePoint[] = []
@@ -53,10 +54,11 @@ export function sampleHoldTimeSheet(input: { loadNumber: string; shopName: strin
     quenchant: `medium-speed quench oil at ${BATH_C} °C`,
     plan: { name: 'Drive flange, harden', revision: 3 },
     planned: { ...plan, furnace_C: 850, handling_C: HANDLING_C },
-    measured: measureTimes(plan, events),
+    measured: measureTimes(tapped),
     predictedCurve,
     events,
-    deviations: findDeviations(plan, events),
+    notRecorded: [],
+    deviations: findDeviations(plan, tapped),
     cautions: [...STANDARD_CAUTIONS],
     generatedAt: new Date(now).toISOString(),
   }

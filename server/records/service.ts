@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, gte, lt, sql, type SQL } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
-import { batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
+import { batchEventCorrections, batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
 import { recordSeal } from './canonical'
 import { recordUrl, sealKeyOf, type RecordConfig } from './config'
 import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from './cooldownRecord'
@@ -14,7 +14,7 @@ import type { RecordListQuery } from '../../shared/schemas/records'
 import type { SessionUser } from '../utils/auth'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
-import { batchEventsOf, readSummary, selectBatchesInContext } from '../schedule/batchQueries'
+import { batchEventsOf, correctionsOf, readSummary, selectBatchesInContext } from '../schedule/batchQueries'
 import { recipientsFor } from '../outbox/mailRecipients'
 import { enqueueMail } from '../outbox/enqueue'
 
@@ -44,22 +44,7 @@ export async function writeCooldownRecord(
   releasedBy: Pick<SessionUser, 'id' | 'displayName'>,
   config: RecordConfig,
 ): Promise<{ id: number; hash: string; outboxId: number }> {
-  const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
-  if (!found) throw new Error(`Batch ${batchId} not found`)
-  const summary = readSummary(found.revision.summary)
-  if (!summary) throw new Error(`Plan revision ${found.revision.id} has no usable summary`)
-  const [{ spec }] = await tx.select({ spec: planRevisions.spec }).from(planRevisions).where(eq(planRevisions.id, found.revision.id))
-  const events = await batchEventsOf(tx, batchId)
-
-  const snapshot = buildSnapshot({
-    batch: found.batch,
-    furnace: found.furnace,
-    station: found.station,
-    plan: found.plan,
-    revision: { id: found.revision.id, revision: found.revision.revision, spec, summary },
-    events,
-    releasedBy: { id: releasedBy.id, name: releasedBy.displayName },
-  })
+  const snapshot = await snapshotOf(tx, batchId, { id: releasedBy.id, name: releasedBy.displayName })
   const hash = recordSeal(snapshot, sealKeyOf(config))
   const [{ id }] = await tx
     .insert(cooldownRecords)
@@ -80,6 +65,48 @@ export async function writeCooldownRecord(
     details: { batchId, loadNumber: snapshot.batch.loadNumber, hash, deviations: snapshot.deviations.map((d) => d.rule), outboxId: queued.id, to },
   })
   return { id, hash, outboxId: queued.id }
+}
+
+/** The snapshot of a batch as its events and corrections stand in `tx`. */
+async function snapshotOf(tx: Transaction, batchId: number, releasedBy: { id: number; name: string }): Promise<RecordSnapshot> {
+  const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
+  if (!found) throw new Error(`Batch ${batchId} not found`)
+  const summary = readSummary(found.revision.summary)
+  if (!summary) throw new Error(`Plan revision ${found.revision.id} has no usable summary`)
+  const [{ spec }] = await tx.select({ spec: planRevisions.spec }).from(planRevisions).where(eq(planRevisions.id, found.revision.id))
+  const [events, corrections] = await Promise.all([batchEventsOf(tx, batchId), correctionsOf(tx, batchId)])
+  return buildSnapshot({
+    batch: found.batch,
+    furnace: found.furnace,
+    station: found.station,
+    plan: found.plan,
+    revision: { id: found.revision.id, revision: found.revision.revision, spec, summary },
+    events: events.map((event) => ({ ...event, actorName: event.actorName ?? null })),
+    corrections,
+    releasedBy,
+  })
+}
+
+/**
+ * Re-issues the unsigned record of a batch after one of its taps was corrected: the
+ * snapshot is rebuilt (the original tap and the correction both in it), re-sealed and
+ * its list columns copied again, and the corrected sheet is queued to the same
+ * recipients, all in the correction's transaction. Signed records never get here
+ * (refuseIfRecordSigned). Returns the record, or null before release.
+ */
+export async function reissueCooldownRecord(tx: Transaction, batchId: number, config: RecordConfig): Promise<{ id: number; hash: string; previousHash: string } | null> {
+  const [record] = await tx.select().from(cooldownRecords).where(eq(cooldownRecords.batchId, batchId)).for('update')
+  if (!record) return null
+  const releasedBy = (record.snapshot as unknown as RecordSnapshot).releasedBy
+  const snapshot = await snapshotOf(tx, batchId, releasedBy)
+  const hash = recordSeal(snapshot, sealKeyOf(config))
+  await tx
+    .update(cooldownRecords)
+    .set({ snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
+    .where(and(eq(cooldownRecords.id, record.id), eq(cooldownRecords.state, 'unsigned')))
+  const to = await recipientsFor(tx, 'released_sheet')
+  if (to.length) await enqueueMail(tx, await holdTimeSheetMail(sheetFromSnapshot(snapshot, config.shopName, recordUrl(config, record.id)), to, `sheet:record-${record.id}:${hash}`))
+  return { id: record.id, hash, previousHash: record.hash }
 }
 
 const signer = sql<string | null>`(SELECT ${users.displayName} FROM ${users} WHERE ${users.id} = ${cooldownRecords.signedBy})`
@@ -167,6 +194,8 @@ async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, u
     const moves = own.map((event) => (event.toState === 'planned' ? 'the booking' : BATCH_STATE_LABELS[event.toState])).join(', ')
     return { status: 403, message: `You recorded events on this load (${moves}); another QA lead must sign its record` }
   }
+  const [corrected] = await db.select({ id: batchEventCorrections.id }).from(batchEventCorrections).where(and(eq(batchEventCorrections.batchId, row.batchId), eq(batchEventCorrections.actorId, user.id))).limit(1)
+  if (corrected) return { status: 403, message: 'You corrected an event time on this load; another QA lead must sign its record' }
   return null
 }
 

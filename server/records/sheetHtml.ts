@@ -2,9 +2,9 @@
  * The hold-time sheet as an e-mail body. Mail clients drop <style> blocks and classes,
  * so every style is inline and the layout is tables; colours are the app's palette.
  */
-import { RECORD_EVENT_LABELS, type HoldTimeSheet } from '../../shared/types/records'
+import type { HoldTimeSheet } from '../../shared/types/records'
 import { palette, white } from '../../shared/palette'
-import { formatInstant, formatSpan, formatTemperature } from './format'
+import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
 
 const { ink, temper, bath, alarm } = palette
 
@@ -27,10 +27,8 @@ function section(title: string, body: string): string {
 
 const table = (inner: string) => `<table role="presentation" cellspacing="0" cellpadding="0" style="width:100%;border-collapse:collapse;font-size:14px;">${inner}</table>`
 
-const measuredOrDash = (s: number | null) => (s === null ? 'not recorded' : formatSpan(s))
-
 export function renderSheetHtml(sheet: HoldTimeSheet): string {
-  const { planned, measured } = sheet
+  const { planned } = sheet
   const identity = table(rows([
     ['Part', `${sheet.part.name} (${sheet.part.number}), ${sheet.part.quantity} pcs, ${sheet.part.section}`],
     ['Material', sheet.material],
@@ -41,12 +39,7 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
 
   const times = table(
     `<tr><th style="${headCell}">Span</th><th style="${headCell}">Planned</th><th style="${headCell}">Recorded</th></tr>` +
-      [
-        ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '—'],
-        ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, measuredOrDash(measured.soak_s)],
-        ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, measuredOrDash(measured.quenchDelay_s)],
-        [`Quench to release (handling point below ${formatTemperature(planned.handling_C)})`, `not before ${formatSpan(planned.quenchToHandling_s)}`, measuredOrDash(measured.quenchToRelease_s)],
-      ]
+      spanRows(sheet)
         .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
         .join(''),
   )
@@ -57,12 +50,20 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
         .join('')}</ul></div>`
     : `<p style="background:${bath[50]};border-radius:6px;padding:10px 14px;color:${bath[800]};font-size:14px;margin:0;">No deviations from the plan.</p>`
 
-  const events = table(
-    `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
-      sheet.events
-        .map((event) => `<tr><td style="${cell}white-space:nowrap;">${escapeHtml(formatInstant(event.at))}</td><td style="${cell}">${escapeHtml(RECORD_EVENT_LABELS[event.type])}${event.note ? ` — ${escapeHtml(event.note)}` : ''}</td><td style="${cell}">${escapeHtml(event.by)}</td></tr>`)
-        .join(''),
-  )
+  // Predicted moments: grey italic with a dashed rule, so they never read as floor entries.
+  const look = (predicted: boolean) => (predicted ? `${cell}font-style:italic;color:${ink[600]};border-left:3px dashed ${ink[400]};` : `${cell}border-left:3px solid ${ink[900]};`)
+  const missing = sheet.notRecorded.map((type) => `<p data-not-recorded="${type}" style="background:${alarm[50]};color:${alarm[800]};border-radius:6px;padding:8px 12px;margin:0 0 8px;font-size:14px;">${escapeHtml(notRecordedLine(type))}</p>`).join('')
+  const events =
+    missing +
+    table(
+      `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
+        sheet.events
+          .map((event) => {
+            const style = look(event.source === 'predicted')
+            return `<tr data-type="${event.type}" data-source="${event.source}"><td style="${style}white-space:nowrap;">${escapeHtml(eventWhen(event))}</td><td style="${style}">${escapeHtml(eventWhat(event))}</td><td style="${style}">${escapeHtml(event.by)}</td></tr>`
+          })
+          .join(''),
+    )
 
   const cautions = `<div style="background:${temper[50]};border-left:4px solid ${temper[400]};padding:10px 14px;color:${temper[800]};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions
     .map((caution) => `<li>${escapeHtml(caution)}</li>`)
@@ -98,7 +99,7 @@ ${signOff}
 
 /** The plain-text part of the same message, for clients that do not show HTML. */
 export function renderSheetText(sheet: HoldTimeSheet): string {
-  const { planned, measured } = sheet
+  const { planned } = sheet
   const lines = [
     `${sheet.shopName} · Hold-time sheet`,
     `Load ${sheet.loadNumber}`,
@@ -109,15 +110,14 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     `Quench: ${sheet.quenchStation}, ${sheet.quenchant}`,
     `Plan: ${sheet.plan.name}, revision ${sheet.plan.revision}`,
     '',
-    `Soak: planned ${planned.minimumSoak_s === null ? 'n/a' : formatSpan(planned.minimumSoak_s)}, recorded ${measuredOrDash(measured.soak_s)}`,
-    `Quench delay: allowed ${formatSpan(planned.quenchDelayAllowance_s)}, recorded ${measuredOrDash(measured.quenchDelay_s)}`,
-    `Quench to release: not before ${formatSpan(planned.quenchToHandling_s)} (predicted handling), recorded ${measuredOrDash(measured.quenchToRelease_s)}`,
+    ...spanRows(sheet).map(([span, plannedValue, recordedValue]) => `${span}: plan ${plannedValue}; recorded ${recordedValue}`),
     '',
     'Deviations:',
     ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),
     '',
     'Events:',
-    ...sheet.events.map((event) => `  ${formatInstant(event.at)}  ${RECORD_EVENT_LABELS[event.type]}  (${event.by})`),
+    ...sheet.notRecorded.map((type) => `  ${notRecordedLine(type)}`),
+    ...sheet.events.map((event) => `  ${eventWhen(event)}  ${eventWhat(event)}  (${event.by})`),
     '',
     'Cautions:',
     ...sheet.cautions.map((caution) => `  - ${caution}`),

@@ -5,9 +5,9 @@
  * so it stays sharp when printed and the file stays small.
  */
 import PDFDocument from 'pdfkit'
-import { RECORD_EVENT_LABELS, type CurvePoint, type HoldTimeSheet } from '../../shared/types/records'
+import type { CurvePoint, HoldTimeSheet } from '../../shared/types/records'
 import { palette } from '../../shared/palette'
-import { formatInstant, formatSpan, formatTemperature } from './format'
+import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
 
 const { ink, temper, bath, alarm } = palette
 
@@ -116,7 +116,7 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     doc.on('error', reject)
   })
   const contentWidth = doc.page.width - 2 * MARGIN
-  const { planned, measured } = sheet
+  const { planned } = sheet
 
   doc.rect(0, 0, doc.page.width, 6).fill(temper[400])
   doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(`${sheet.shopName} · Hold-time sheet`, MARGIN, MARGIN)
@@ -133,15 +133,8 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     ['Plan', `${sheet.plan.name}, revision ${sheet.plan.revision}`],
   ])
 
-  const recorded = (s: number | null) => (s === null ? 'not recorded' : formatSpan(s))
   heading(doc, 'Times')
-  drawTable(doc, [contentWidth - 260, 130, 130], [
-    ['Span', 'Planned', 'Recorded'],
-    ['Heat-up to core at temperature', planned.heatUp_s === null ? 'not planned' : formatSpan(planned.heatUp_s), '-'],
-    ['Soak', planned.minimumSoak_s === null ? 'not planned' : `at least ${formatSpan(planned.minimumSoak_s)}`, recorded(measured.soak_s)],
-    ['Quench delay', `at most ${formatSpan(planned.quenchDelayAllowance_s)}`, recorded(measured.quenchDelay_s)],
-    [`Quench to release (handling point below ${formatTemperature(planned.handling_C)})`, `not before ${formatSpan(planned.quenchToHandling_s)}`, recorded(measured.quenchToRelease_s)],
-  ])
+  drawTable(doc, [contentWidth - 260, 130, 130], [['Span', 'Planned', 'Recorded'], ...spanRows(sheet)])
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {
@@ -155,10 +148,9 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
   drawCurve(doc, sheet.predictedCurve, planned.handling_C, planned.quenchToHandling_s)
 
   heading(doc, 'Events')
-  drawTable(doc, [130, contentWidth - 260, 130], [
-    ['When', 'What', 'Who'],
-    ...sheet.events.map((event) => [formatInstant(event.at), RECORD_EVENT_LABELS[event.type] + (event.note ? ` - ${event.note}` : ''), event.by]),
-  ])
+  doc.font('Helvetica').fontSize(10).fillColor(alarm[600])
+  for (const type of sheet.notRecorded) doc.text(notRecordedLine(type), MARGIN, doc.y, { width: contentWidth })
+  drawTable(doc, [130, contentWidth - 260, 130], [['When', 'What', 'Who'], ...sheet.events.map((event) => [eventWhen(event), eventWhat(event), event.by])])
 
   heading(doc, 'Cautions')
   doc.font('Helvetica').fontSize(9).fillColor(temper[800])

@@ -1,9 +1,9 @@
 import { and, asc, eq, gt, inArray, lt, ne } from 'drizzle-orm'
 import type { Database, Transaction } from '../db/client'
-import { batchEvents, batches, furnaces, planRevisions, plans, quenchStations, users, type BatchRow } from '../db/schema'
+import { batchEventCorrections, batchEvents, batches, furnaces, planRevisions, plans, quenchStations, users, type BatchRow } from '../db/schema'
 import { OPEN_STATES, batchFlags, stateByClock, type ShopSettings, type Slots } from '../../shared/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
-import type { BatchView } from '../../shared/types/schedule'
+import type { BatchEventView, BatchView } from '../../shared/types/schedule'
 
 // The batch queries and views that booking, moves, the floor and the cooldown records
 // all read; kept here so those modules import one place and never each other.
@@ -47,6 +47,7 @@ export function toBatchView(row: BatchRow, settings: ShopSettings, now = Date.no
     ...slots,
     chargedAt: ms(row.chargedAt),
     soakingAt: ms(row.soakingAt),
+    unloadedAt: ms(row.unloadedAt),
     quenchedAt: ms(row.quenchedAt),
     furnaceIsDefault: row.furnaceIsDefault,
     conflictWith: row.conflictWith,
@@ -100,9 +101,73 @@ export function selectBatchesInContext(db: Database | Transaction) {
 /** A batch's recorded moves in the order they happened, each with who made it. */
 export function batchEventsOf(db: Database | Transaction, batchId: number) {
   return db
-    .select({ id: batchEvents.id, fromState: batchEvents.fromState, toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName })
+    .select({
+      id: batchEvents.id,
+      fromState: batchEvents.fromState,
+      toState: batchEvents.toState,
+      at: batchEvents.at,
+      actorId: batchEvents.actorId,
+      actorName: users.displayName,
+      shortfallNote: batchEvents.shortfallNote,
+    })
     .from(batchEvents)
     .leftJoin(users, eq(users.id, batchEvents.actorId))
     .where(eq(batchEvents.batchId, batchId))
     .orderBy(asc(batchEvents.at), asc(batchEvents.id))
+}
+
+/** A batch's event corrections, oldest first, each with who made it. */
+export function correctionsOf(db: Database | Transaction, batchId: number) {
+  return db
+    .select({
+      id: batchEventCorrections.id,
+      eventId: batchEventCorrections.eventId,
+      correctedAt: batchEventCorrections.correctedAt,
+      reason: batchEventCorrections.reason,
+      actorId: batchEventCorrections.actorId,
+      actorName: users.displayName,
+      createdAt: batchEventCorrections.createdAt,
+    })
+    .from(batchEventCorrections)
+    .innerJoin(users, eq(users.id, batchEventCorrections.actorId))
+    .where(eq(batchEventCorrections.batchId, batchId))
+    .orderBy(asc(batchEventCorrections.createdAt), asc(batchEventCorrections.id))
+}
+
+/**
+ * The events of several batches as views: each at its corrected time (the latest
+ * correction counts), with the original time and the corrections beside it.
+ */
+export async function eventViewsOf(db: Database | Transaction, batchIds: number[]): Promise<Map<number, BatchEventView[]>> {
+  const views = new Map<number, BatchEventView[]>(batchIds.map((id) => [id, []]))
+  if (batchIds.length === 0) return views
+  const [events, corrections] = await Promise.all([
+    db
+      .select({ id: batchEvents.id, batchId: batchEvents.batchId, fromState: batchEvents.fromState, toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName, shortfallNote: batchEvents.shortfallNote })
+      .from(batchEvents)
+      .leftJoin(users, eq(users.id, batchEvents.actorId))
+      .where(inArray(batchEvents.batchId, batchIds))
+      .orderBy(asc(batchEvents.at), asc(batchEvents.id)),
+    db
+      .select({ eventId: batchEventCorrections.eventId, correctedAt: batchEventCorrections.correctedAt, reason: batchEventCorrections.reason, by: users.displayName, madeAt: batchEventCorrections.createdAt })
+      .from(batchEventCorrections)
+      .innerJoin(users, eq(users.id, batchEventCorrections.actorId))
+      .where(inArray(batchEventCorrections.batchId, batchIds))
+      .orderBy(asc(batchEventCorrections.createdAt), asc(batchEventCorrections.id)),
+  ])
+  for (const event of events) {
+    const own = corrections.filter((c) => c.eventId === event.id).map((c) => ({ at: c.correctedAt.toISOString(), reason: c.reason, by: c.by, madeAt: c.madeAt.toISOString() }))
+    views.get(event.batchId)!.push({
+      id: event.id,
+      fromState: event.fromState,
+      toState: event.toState,
+      at: own.at(-1)?.at ?? event.at.toISOString(),
+      actorId: event.actorId,
+      actorName: event.actorName,
+      shortfallNote: event.shortfallNote,
+      originalAt: own.length ? event.at.toISOString() : null,
+      corrections: own,
+    })
+  }
+  return views
 }

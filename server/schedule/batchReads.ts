@@ -5,7 +5,7 @@ import { batches, planRevisions, plans } from '../db/schema'
 import { FLOOR_STATES } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
-import { batchEventsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
+import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
 import { quenchMediumOf } from './quenchMedium'
 import { readShopSettings } from './shopSettings'
 
@@ -23,7 +23,7 @@ export async function getBatch(id: number): Promise<BatchDetail> {
   const db = useDb()
   const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
   if (!found) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
-  const events = await batchEventsOf(db, id)
+  const events = (await eventViewsOf(db, [id])).get(id)!
   const b = found.batch
   return {
     ...toBatchView(b, await readShopSettings()),
@@ -33,7 +33,7 @@ export async function getBatch(id: number): Promise<BatchDetail> {
     stationName: found.station.name,
     summary: readSummary(found.revision.summary)!,
     durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
-    events: events.map(({ id: eventId, fromState, toState, at, actorName }) => ({ id: eventId, fromState, toState, at: at.toISOString(), actorName })),
+    events,
   }
 }
 
@@ -50,6 +50,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     .where(and(...conditions))
     .orderBy(asc(batches.furnaceStart))
     .limit(200)
+  const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
   const list: FloorBatch[] = rows.map((r) => ({
     ...toBatchView(r.batch, settings, now),
     planName: r.plan.name,
@@ -58,6 +59,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     summary: readSummary(r.revision.summary)!,
     minimumSoak_s: r.batch.minimumSoak_s,
     quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
+    events: events.get(r.batch.id)!,
   }))
   return { serverNow: now, settings, batches: list }
 }

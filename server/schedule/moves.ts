@@ -3,6 +3,7 @@ import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
 import { batchEvents, batches, type BatchRow } from '../db/schema'
 import { checkMove, deriveSlots, stateByClock, type BatchState } from '../../shared/schedule'
+import { bookedHeatUp_s, tapShortfall } from '../../shared/floorGuards'
 import type { BatchView } from '../../shared/types/schedule'
 import type { SessionUser } from '../utils/auth'
 import { recordAudit } from '../utils/audit'
@@ -16,9 +17,18 @@ import { readShopSettings } from './shopSettings'
  * Records a floor or planning move at the server's time. A move already recorded
  * answers with the batch as it is (a repeated tap changes nothing). Clock moves
  * (out of the bath, safe to handle) are written first at the times the plan gave
- * them, so the event log reads in order.
+ * them, so the event log reads in order. A tap that comes before the plan says it
+ * should answers 409 with the shortfall until the operator acknowledges it; it is
+ * then recorded with the shortfall.
  */
-export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>, records: RecordConfig, db: Database = useDb()): Promise<{ batch: BatchView; repeated: boolean }> {
+export async function moveBatch(
+  id: number,
+  to: BatchState,
+  actor: Pick<SessionUser, 'id' | 'role' | 'displayName'>,
+  records: RecordConfig,
+  options: { acknowledgeShortfall?: boolean } = {},
+  db: Database = useDb(),
+): Promise<{ batch: BatchView; repeated: boolean }> {
   const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
   if (!pre) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
   return await db.transaction(
@@ -48,32 +58,27 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
       if (!verdict.ok) {
         throw createError({ statusCode: verdict.status, statusMessage: verdict.message, data: { currentState: state, requestedState: to } })
       }
+      const shortfall = tapShortfall(state, to, { chargedAt: ms(row!.chargedAt), furnaceEnd: row!.furnaceEnd.getTime(), handlingAt: row!.handlingAt.getTime(), heatUp_s: bookedHeatUp_s(row!), minimumSoak_s: row!.minimumSoak_s }, now)
+      if (shortfall && !options.acknowledgeShortfall) {
+        throw createError({ statusCode: 409, statusMessage: `${shortfall.message} Confirm again to record it anyway.`, data: { shortfall, currentState: state, requestedState: to } })
+      }
 
       const at = new Date(now)
       const recorded: Partial<BatchRow> = { state: to }
       if (to === 'charged') recorded.chargedAt = at
       if (to === 'soaking') recorded.soakingAt = at
+      if (to === 'unloaded') recorded.unloadedAt = at
       if (to === 'quenched') recorded.quenchedAt = at
-      const actual = { chargedAt: ms(recorded.chargedAt ?? row!.chargedAt), soakingAt: ms(recorded.soakingAt ?? row!.soakingAt), quenchedAt: ms(recorded.quenchedAt ?? row!.quenchedAt) }
-      // A batch row carries its booked SlotDurations fields.
-      const slots = deriveSlots(row!.plannedCharge.getTime(), row!, actual)
-      const values = {
-        ...recorded,
-        furnaceStart: new Date(slots.furnaceStart),
-        furnaceEnd: new Date(slots.furnaceEnd),
-        quenchStart: new Date(slots.quenchStart),
-        quenchEnd: new Date(slots.quenchEnd),
-        handlingAt: new Date(slots.handlingAt),
-      }
+      const values = { ...recorded, ...replannedSlots({ ...row!, ...recorded }) }
       await tx.update(batches).set(values).where(eq(batches.id, id))
-      await tx.insert(batchEvents).values({ batchId: id, fromState: state, toState: to, at, actorId: actor.id })
+      await tx.insert(batchEvents).values({ batchId: id, fromState: state, toState: to, at, actorId: actor.id, shortfall_s: shortfall?.short_s ?? null, shortfallNote: shortfall?.message ?? null })
       const flagged = await reflagConflicts(tx, { ...row!, ...values }, to === 'cancelled')
       await recordAudit(tx, {
         actorId: actor.id,
         action: `batch.${to}`,
         entityType: 'batch',
         entityId: id,
-        details: { loadNumber: row!.loadNumber, from: state, to, at: at.toISOString(), ...(flagged.length ? { conflicts: flagged } : {}) },
+        details: { loadNumber: row!.loadNumber, from: state, to, at: at.toISOString(), ...(shortfall ? { shortfall: shortfall.message } : {}), ...(flagged.length ? { conflicts: flagged } : {}) },
       })
       if (to === 'released') await releaseRecord(tx, id, actor, records)
       const [after] = await tx.select().from(batches).where(eq(batches.id, id))
@@ -81,6 +86,19 @@ export async function moveBatch(id: number, to: BatchState, actor: Pick<SessionU
     },
     { isolationLevel: 'read committed' },
   )
+}
+
+/** The slot columns re-planned from a row's recorded floor times (a batch row carries its booked SlotDurations). */
+export function replannedSlots(row: BatchRow) {
+  const actual = { chargedAt: ms(row.chargedAt), soakingAt: ms(row.soakingAt), unloadedAt: ms(row.unloadedAt), quenchedAt: ms(row.quenchedAt) }
+  const slots = deriveSlots(row.plannedCharge.getTime(), row, actual)
+  return {
+    furnaceStart: new Date(slots.furnaceStart),
+    furnaceEnd: new Date(slots.furnaceEnd),
+    quenchStart: new Date(slots.quenchStart),
+    quenchEnd: new Date(slots.quenchEnd),
+    handlingAt: new Date(slots.handlingAt),
+  }
 }
 
 /**
@@ -105,7 +123,7 @@ async function releaseRecord(tx: Transaction, id: number, actor: Pick<SessionUse
  * its load number; flags it set before and that no longer hold are cleared.
  * Returns the load numbers flagged.
  */
-async function reflagConflicts(tx: Transaction, row: BatchRow, withdrawn: boolean): Promise<string[]> {
+export async function reflagConflicts(tx: Transaction, row: BatchRow, withdrawn: boolean): Promise<string[]> {
   await tx.update(batches).set({ conflictWith: null, conflictNote: null }).where(eq(batches.conflictWith, row.loadNumber))
   if (withdrawn) return []
   const slots = slotsOf(row)

@@ -4,7 +4,8 @@
  * ("stages.0.surface.h") through CaseError.
  */
 import { z } from 'zod'
-import type { Boundary, CooldownProblem, PropertyPoint, Stage } from './types'
+import { interpolate } from './propertyTable'
+import type { Boundary, CooldownProblem, HeatTransferPoint, PropertyPoint, Stage, ThermalTableRow } from './types'
 
 export class CaseError extends Error {
   constructor(
@@ -19,30 +20,58 @@ export class CaseError extends Error {
 const finite = z.number().finite()
 const positive = finite.positive()
 
-/** { h, ambient_C } or { fixed_C }, checked field by field so errors name the field. */
+/** A heat-transfer curve point: h (W/m²K) at a surface temperature T_C. */
+const curvePoint = z.object({ T_C: finite, h: positive }).strict()
+
+/**
+ * { h or hCurve, ambient_C, emissivity? } or { fixed_C }, checked field by field so
+ * errors name the field.
+ */
 const surfaceSchema = z
-  .object({ h: positive.optional(), ambient_C: finite.optional(), fixed_C: finite.optional() })
+  .object({
+    h: positive.optional(),
+    hCurve: z.array(curvePoint).min(3, 'a heat-transfer curve needs at least three points').optional(),
+    emissivity: finite.min(0, 'must be between 0 and 1').max(1, 'must be between 0 and 1').optional(),
+    ambient_C: finite.optional(),
+    fixed_C: finite.optional(),
+  })
   .strict()
   .superRefine((s, ctx) => {
     if (s.fixed_C !== undefined) {
-      if (s.h !== undefined || s.ambient_C !== undefined)
-        ctx.addIssue({ code: 'custom', path: ['fixed_C'], message: 'give either fixed_C or h with ambient_C, not both' })
+      if (s.h !== undefined || s.ambient_C !== undefined || s.hCurve !== undefined || s.emissivity !== undefined)
+        ctx.addIssue({ code: 'custom', path: ['fixed_C'], message: 'give either fixed_C or a convective surface (h or hCurve, ambient_C, emissivity), not both' })
       return
     }
-    if (s.h === undefined) ctx.addIssue({ code: 'custom', path: ['h'], message: 'a convective surface needs h (W/m²K > 0)' })
+    if (s.h !== undefined && s.hCurve !== undefined) ctx.addIssue({ code: 'custom', path: ['hCurve'], message: 'give either h or hCurve, not both' })
+    if (s.h === undefined && s.hCurve === undefined) ctx.addIssue({ code: 'custom', path: ['h'], message: 'a convective surface needs h (W/m²K > 0) or hCurve' })
+    if (s.hCurve) increasingIssues(s.hCurve, ['hCurve'], ctx)
     if (s.ambient_C === undefined) ctx.addIssue({ code: 'custom', path: ['ambient_C'], message: 'a convective surface needs ambient_C' })
   })
 
 const profilePoint = z.object({ x: finite, k: positive, rhoCp: positive }).strict()
 
+/** A material table row; rho may be left out after the first row, which then carries the row above's. */
+const tableRow = z.object({ T_C: finite, k: positive, rho: positive.optional(), cp: positive }).strict()
+
 const materialSchema = z
-  .object({ k: positive.optional(), rho: positive.optional(), cp: positive.optional(), profile: z.array(profilePoint).min(2).optional() })
+  .object({
+    k: positive.optional(),
+    rho: positive.optional(),
+    cp: positive.optional(),
+    profile: z.array(profilePoint).min(2).optional(),
+    table: z.array(tableRow).min(2, 'a material table needs at least two rows').optional(),
+  })
   .strict()
   .superRefine((mat, ctx) => {
+    const forms = [mat.profile, mat.table, mat.k ?? mat.rho ?? mat.cp].filter((f) => f !== undefined).length
+    if (forms > 1) ctx.addIssue({ code: 'custom', path: [mat.table ? 'table' : 'profile'], message: 'give one of k, rho, cp or a profile or a table' })
     if (mat.profile) {
-      if (mat.k !== undefined || mat.rho !== undefined || mat.cp !== undefined)
-        ctx.addIssue({ code: 'custom', path: ['profile'], message: 'give either a profile or k, rho, cp' })
       tableIssues(mat.profile, ['profile'], ctx)
+      return
+    }
+    if (mat.table) {
+      increasingIssues(mat.table, ['table'], ctx)
+      if (mat.table[0].rho === undefined) ctx.addIssue({ code: 'custom', path: ['table', 0, 'rho'], message: 'the first row needs rho (later rows carry it when left out)' })
       return
     }
     for (const key of ['k', 'rho', 'cp'] as const)
@@ -105,6 +134,12 @@ function tableIssues(points: { x: number }[], path: (string | number)[], ctx: z.
   }
 }
 
+/** Temperatures of a table must strictly increase. */
+function increasingIssues(rows: { T_C: number }[], path: (string | number)[], ctx: z.RefinementCtx): void {
+  for (let i = 1; i < rows.length; i++)
+    if (!(rows[i].T_C > rows[i - 1].T_C)) ctx.addIssue({ code: 'custom', path: [...path, i, 'T_C'], message: 'temperatures must strictly increase' })
+}
+
 /**
  * Maximum principle: temperatures stay between the lowest and highest of the
  * start temperatures and the surroundings, so a target outside that range can
@@ -133,20 +168,42 @@ export function parseCase(input: unknown): Case {
 }
 
 function boundaryOf(s: z.output<typeof surfaceSchema>): Exclude<Boundary, { type: 'symmetry' }> {
-  return s.fixed_C !== undefined
-    ? { type: 'fixed', T_C: s.fixed_C }
-    : { type: 'convective', h_W_m2K: s.h as number, ambient_C: s.ambient_C as number }
+  if (s.fixed_C !== undefined) return { type: 'fixed', T_C: s.fixed_C }
+  const hCurve = s.hCurve?.map((p) => ({ T_C: p.T_C, h_W_m2K: p.h }))
+  return {
+    type: 'convective',
+    h_W_m2K: s.h ?? (hCurve as HeatTransferPoint[])[0].h_W_m2K,
+    ambient_C: s.ambient_C as number,
+    ...(hCurve ? { hCurve } : {}),
+    ...(s.emissivity === undefined ? {} : { emissivity: s.emissivity }),
+  }
+}
+
+/** A material table's rows with rho carried down where a row leaves it out. */
+function tableRows(table: z.output<typeof tableRow>[]): ThermalTableRow[] {
+  let rho = table[0].rho as number
+  return table.map((r) => {
+    rho = r.rho ?? rho
+    return { T_C: r.T_C, k_W_mK: r.k, rhoCp_J_m3K: rho * r.cp }
+  })
 }
 
 /** The engine's problem for a validated case. */
 export function caseToProblem(c: Case): CooldownProblem {
+  const table = c.material.table ? tableRows(c.material.table) : undefined
+  // A table material's properties field holds its values at the start temperature (for time scales and summaries).
+  const start_C = c.initial_C ?? (c.initialProfile as { T_C: number }[])[0].T_C
+  const atStart = (key: 'k_W_mK' | 'rhoCp_J_m3K', rows: ThermalTableRow[]) =>
+    interpolate(rows.map((r) => r.T_C), rows.map((r) => r[key]), start_C)
   const properties: PropertyPoint[] = c.material.profile
     ? c.material.profile.map((p) => ({ x: p.x, k_W_mK: p.k, rhoCp_J_m3K: p.rhoCp }))
-    : [0, 1].map((x) => ({ x, k_W_mK: c.material.k as number, rhoCp_J_m3K: (c.material.rho as number) * (c.material.cp as number) }))
+    : table
+      ? [0, 1].map((x) => ({ x, k_W_mK: atStart('k_W_mK', table), rhoCp_J_m3K: atStart('rhoCp_J_m3K', table) }))
+      : [0, 1].map((x) => ({ x, k_W_mK: c.material.k as number, rhoCp_J_m3K: (c.material.rho as number) * (c.material.cp as number) }))
   const inner: Boundary = c.centre === 'symmetry' ? { type: 'symmetry' } : boundaryOf(c.centre)
   const stages: Stage[] = c.stages.map((s) => ({ outer: boundaryOf(s.surface), inner, ...(s.duration_s === undefined ? {} : { duration_s: s.duration_s }) }))
   return {
-    domain: { geometry: c.geometry, length_m: c.size_m, properties },
+    domain: { geometry: c.geometry, length_m: c.size_m, properties, ...(table ? { temperatureTable: table } : {}) },
     initial: c.initialProfile ?? (c.initial_C as number),
     stages,
   }

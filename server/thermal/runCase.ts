@@ -5,7 +5,9 @@
  * with the Crank–Nicolson code as an independent check.
  */
 import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
+import { constantLimit } from './constantLimit'
 import { solveCrankNicolson } from './crankNicolson'
+import { solveCrankNicolsonNonlinear } from './crankNicolsonNonlinear'
 import { pointValues, type PointStage } from '../../shared/pointSeries'
 import { solveCooldown } from './solveCooldown'
 import type { TargetSpec } from './targetTime'
@@ -21,7 +23,7 @@ export interface CaseResult {
   target: { at: PointRef; below_C?: number; above_C?: number } | null
   /** x (fraction of size_m) read as "centre". */
   centreX: number
-  stages: (StageSummary & { pointSeries: PointStage })[]
+  stages: (StageSummary & { method: string; estimatedError_K: number; pointSeries: PointStage; subStepSeries?: PointStage[] })[]
   table: { points: number[]; t_s: number[]; T_C: number[][] }
   profiles: { x: number[]; t_s: number[]; T_C: number[][] }
   curve: { t_s: number[]; centre_C: number[]; surface_C: number[]; mean_C: number[] }
@@ -79,7 +81,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     targetTime_s: targetTime,
     target: c.target ? { ...c.target, at } : null,
     centreX: solution.centreX,
-    stages: solution.summaries.map((s, i) => ({ ...s, pointSeries: solution.pointSeries(at)[i] })),
+    stages: stageResults(solution, at),
     table: { points, t_s: times, T_C: table },
     profiles: { x: PROFILE_X, t_s: times, T_C: times.map((t) => PROFILE_X.map((x) => solution.evaluate(t, x))) },
     curve: {
@@ -92,6 +94,27 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
   if ((options.check ?? c.check) === 'finite-difference') result.check = finiteDifferenceCheck(solution, c, problem, tCurve, points)
   return result
 }
+
+/**
+ * Each stage's summary with the method that ran and its error estimate, and the
+ * target point's series. A temperature-dependent stage is a chain of sub-step
+ * series: all of them are in subStepSeries, and pointSeries is the first of them
+ * only (kept for the shape; read subStepSeries for the stage's history).
+ */
+function stageResults(solution: CooldownSolution, at: PointRef): CaseResult['stages'] {
+  const series = solution.pointSeries(at)
+  return solution.summaries.map((s) => {
+    const end = s.end_s ?? Infinity
+    const own = series.filter((p) => p.start_s >= s.start_s && p.start_s < end)
+    const method = s.method ?? SERIES_METHOD
+    const estimatedError_K = s.estimatedError_K ?? s.truncationError_K
+    return s.method === undefined
+      ? { ...s, method, estimatedError_K, pointSeries: own[0] }
+      : { ...s, method, estimatedError_K, pointSeries: own[0], subStepSeries: own }
+  })
+}
+
+const SERIES_METHOD = 'eigenmode series'
 
 function targetSpec(t: NonNullable<Case['target']>): TargetSpec {
   return t.below_C !== undefined ? { below_C: t.below_C } : { above_C: t.above_C as number }
@@ -163,7 +186,8 @@ function finiteDifferenceCheck(
   const stride = Math.max(1, Math.floor(tCurve.length / 12))
   const times = [...new Set([...(c.times_s ?? []), ...tCurve.filter((t, i) => t > 0 && i % stride === 0)])].sort((a, b) => a - b)
   const xs = [...new Set([solution.centreX, 1, ...points])]
-  const fd = solveCrankNicolson(problem, { times_s: times, points: xs })
+  const options = { times_s: times, points: xs }
+  const fd = constantLimit(problem) ? solveCrankNicolson(problem, options) : solveCrankNicolsonNonlinear(problem, options)
   let max = 0
   fd.t_s.forEach((t, i) => xs.forEach((x, j) => (max = Math.max(max, Math.abs(fd.T_C[i][j] - solution.evaluate(t, x))))))
   return { maxDifference_K: max, times_s: times, points: xs }

@@ -15,6 +15,8 @@ import { steadyProfile, type ScaledEnd } from './steadyState'
 import { firstCrossing } from './targetTime'
 import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOptions, StageSummary, TemperaturePoint } from './types'
 import { solveUniformSymmetric } from './uniformSolution'
+import { constantLimit } from './constantLimit'
+import { solveTemperatureDependent } from './temperatureDependent'
 
 const MAX_MODES_ANALYTIC = 400
 const MAX_MODES_SHOOTING = 60
@@ -47,12 +49,16 @@ export function profileAt(points: TemperaturePoint[], x: number): number {
 /**
  * Uniform bodies with a symmetric centre and a uniform start take the fast path
  * (uniformSolution.ts), which gives the same result with less set-up; every other
- * body the general one below.
+ * body the general one below. Temperature-dependent tables go to the sub-step
+ * series of temperatureDependent.ts; flat ones are constants and stay here.
  */
 export function solveCooldown(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
   const accuracy = options.accuracy_K
   if (accuracy !== undefined && !(accuracy > 0 && Number.isFinite(accuracy))) throw new RangeError('accuracy_K: must be a positive number of kelvin')
-  const domain = scaleDomain(problem.domain)
+  const linear = constantLimit(problem)
+  if (!linear) return solveTemperatureDependent(problem, options)
+  const domain = scaleDomain(linear.domain)
+  problem = linear
   return solveUniformSymmetric(problem, domain, options, MAX_MODES_ANALYTIC) ?? solveBySeries(problem, domain, options)
 }
 

@@ -20,8 +20,35 @@ export const GEOMETRY_EXPONENT: Record<Geometry, 0 | 1 | 2> = { slab: 0, rod: 1,
 /** One end of the domain. */
 export type Boundary =
   | { type: 'symmetry' }
-  | { type: 'convective'; h_W_m2K: number; ambient_C: number }
+  | ConvectiveBoundary
   | { type: 'fixed'; T_C: number }
+
+/** A point of a heat-transfer curve: h at a surface temperature. */
+export interface HeatTransferPoint {
+  T_C: number
+  h_W_m2K: number
+}
+
+/**
+ * A surface losing heat to surroundings at ambient_C. With `hCurve` the coefficient
+ * follows the surface temperature (linear between points, constant beyond the ends)
+ * and h_W_m2K is not used (it holds the curve's first point); with
+ * `emissivity` radiation to surroundings at ambient_C adds εσ(T_s⁴ − T∞⁴).
+ */
+export interface ConvectiveBoundary {
+  type: 'convective'
+  h_W_m2K: number
+  ambient_C: number
+  hCurve?: HeatTransferPoint[]
+  emissivity?: number
+}
+
+/** A row of a temperature-dependent material table (linear between rows, constant beyond the ends). */
+export interface ThermalTableRow {
+  T_C: number
+  k_W_mK: number
+  rhoCp_J_m3K: number
+}
 
 /**
  * A property table point. x is a fraction 0–1 of `length_m`; values are linear
@@ -46,6 +73,11 @@ export interface ConductionDomain {
   /** Half-thickness / radius with a symmetric centre; full thickness when x = 0 is a face. */
   length_m: number
   properties: PropertyPoint[]
+  /**
+   * Temperature-dependent material, uniform in space: k and ρc follow the local
+   * temperature. `properties` then holds the table's values at the start temperature.
+   */
+  temperatureTable?: ThermalTableRow[]
 }
 
 /** One stage of a cooldown (or heat-up): its surface conditions for a time. */
@@ -94,6 +126,10 @@ export interface StageSummary {
   /** h L / k_ref at the surface (null when fixed); innerBiot likewise for a slab face. */
   biot: number | null
   innerBiot?: number | null
+  /** Temperature-dependent stages only: the method, its error estimate and sub-step count (runCase names the series otherwise). */
+  method?: string
+  estimatedError_K?: number
+  subSteps?: number
 }
 
 export interface CooldownSolution {

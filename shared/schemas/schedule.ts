@@ -58,7 +58,17 @@ export type BookingMove = z.input<typeof bookingMoveSchema>
 
 export const moveInputSchema = z.strictObject({
   to: z.enum(BATCH_STATES, { message: `State must be one of: ${BATCH_STATES.join(', ')}` }),
+  /** The operator's second confirmation of a tap that comes before the plan says it should. */
+  acknowledgeShortfall: z.boolean({ message: 'acknowledgeShortfall must be true or false' }).optional(),
 })
+export type MoveInput = z.infer<typeof moveInputSchema>
+
+/** A corrected time for a recorded floor event, with the reason (kept beside the original). */
+export const correctionInputSchema = z.strictObject({
+  at: isoTime,
+  reason: z.string({ message: 'Give the reason for the correction' }).trim().min(5, 'Give the reason for the correction (at least 5 characters)').max(500, 'Reason is too long (500 characters at most)'),
+})
+export type CorrectionInput = z.infer<typeof correctionInputSchema>
 
 export const batchQuerySchema = z.object({
   from: isoTime,
@@ -71,4 +81,5 @@ export const settingsUpdateSchema = z.strictObject({
   defaultFurnace_s: positive('Default furnace time', 's', 7 * 24 * 3600).optional(),
   quenchDelayAllowance_s: positive('Quench delay allowance', 's', 24 * 3600).optional(),
   temperWithin_s: positive('Temper-within time', 's', 7 * 24 * 3600).optional(),
+  correctionWindow_s: positive('Correction window', 's', 24 * 3600).optional(),
 })

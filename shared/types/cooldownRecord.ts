@@ -3,7 +3,7 @@
  * the floor recorded, what deviated) that QA signs. Written once by the server when
  * the load is released; see server/records/cooldownRecord.ts.
  */
-import type { CurvePoint, Deviation, MeasuredTimes, RecordEventType } from './records'
+import type { CurvePoint, Deviation, MeasuredTimes, RecordEvent, RecordEventType } from './records'
 
 export const RECORD_STATES = ['unsigned', 'approved', 'rejected'] as const
 export type RecordState = (typeof RECORD_STATES)[number]
@@ -14,18 +14,15 @@ export const RECORD_STATE_LABELS: Record<RecordState, string> = {
   rejected: 'Rejected',
 }
 
-/** A recorded moment with who recorded it; actorId null means the plan's clock or a derived moment. */
-export interface SnapshotEvent {
-  type: RecordEventType
-  at: string
-  by: string
+/** A moment of the record with who recorded it; actorId null for a predicted moment. */
+export interface SnapshotEvent extends RecordEvent {
   actorId: number | null
-  note?: string
 }
 
 /** Everything the record froze at release. Times in seconds, instants ISO 8601 UTC. */
 export interface RecordSnapshot {
-  format: 1
+  /** 2: events say whether they were recorded or predicted, carry corrections, and missing taps are listed. */
+  format: 2
   batch: {
     id: number
     loadNumber: string
@@ -63,6 +60,7 @@ export interface RecordSnapshot {
     curve: CurvePoint[]
   }
   events: SnapshotEvent[]
+  notRecorded: RecordEventType[]
   measured: MeasuredTimes
   deviations: Deviation[]
   releasedAt: string

@@ -14,7 +14,7 @@ export type RecordEventType = (typeof RECORD_EVENT_TYPES)[number]
 export const RECORD_EVENT_LABELS: Record<RecordEventType, string> = {
   charged: 'Charged into furnace',
   soaking: 'Core at temperature, soak started',
-  furnace_opened: 'Load out of furnace',
+  furnace_opened: 'Out of the furnace (door open)',
   quenched: 'In the quench',
   cooling: 'Out of the quench, cooling',
   ready_to_handle: 'Ready to handle',
@@ -27,10 +27,33 @@ export interface TimedEvent {
   at: string
 }
 
-/** A recorded event as the sheet shows it: also who recorded it. */
+/** A later correction of a tapped time, kept beside the original. */
+export interface EventCorrection {
+  /** The time before this correction and the corrected time. */
+  from: string
+  to: string
+  reason: string
+  by: string
+  /** When the correction was made. */
+  madeAt: string
+}
+
+/**
+ * "recorded": tapped on the floor by a person; "predicted": a moment the plan's clock
+ * gives from recorded ones (out of the quench, ready to handle), never a floor entry.
+ */
+export type EventSource = 'recorded' | 'predicted'
+
+/** An event as the sheet shows it: also who recorded it, or that the plan predicted it. */
 export interface RecordEvent extends TimedEvent {
   by: string
+  source: EventSource
   note?: string
+  /** The tap came before the plan said it should and was confirmed anyway: the shortfall in words. */
+  shortfall?: string
+  /** The time first tapped, when the event was corrected since (`at` is the corrected time). */
+  originalAt?: string
+  corrections?: EventCorrection[]
 }
 
 /** The plan figures the deviation rules compare against. */
@@ -45,12 +68,12 @@ export interface DeviationPlan {
   quenchToHandling_s: number
 }
 
-export const DEVIATION_RULES = ['quench_delay', 'early_release', 'short_soak'] as const
+export const DEVIATION_RULES = ['short_heat_up', 'short_soak', 'quench_delay', 'early_release'] as const
 export type DeviationRule = (typeof DEVIATION_RULES)[number]
 
 export interface Deviation {
   rule: DeviationRule
-  /** The plan's limit: the allowance, the predicted handling time, or the planned soak. */
+  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the predicted handling time. */
   planned_s: number
   /** What the recorded events give for the same span. */
   actual_s: number
@@ -61,6 +84,7 @@ export interface Deviation {
 
 /** Spans measured from the recorded events; null where the events needed are missing. */
 export interface MeasuredTimes {
+  heatUp_s: number | null
   soak_s: number | null
   quenchDelay_s: number | null
   quenchToRelease_s: number | null
@@ -86,6 +110,8 @@ export interface HoldTimeSheet {
   /** Predicted handling-point temperature after the quench starts. */
   predictedCurve: CurvePoint[]
   events: RecordEvent[]
+  /** Floor moments the record expected but nobody tapped (e.g. the door opening): said, never derived. */
+  notRecorded: RecordEventType[]
   deviations: Deviation[]
   cautions: string[]
   generatedAt: string

@@ -45,6 +45,7 @@ export interface BatchView {
   handlingAt: number
   chargedAt: number | null
   soakingAt: number | null
+  unloadedAt: number | null
   quenchedAt: number | null
   furnaceIsDefault: boolean
   conflictWith: string | null
@@ -56,8 +57,15 @@ export interface BatchEventView {
   id: number
   fromState: BatchState
   toState: BatchState
+  /** The corrected time when the tap was corrected, else the tapped time. */
   at: string
+  actorId: number | null
   actorName: string | null
+  /** Set when the tap was confirmed before the plan said it should come. */
+  shortfallNote: string | null
+  /** The time first tapped, when corrected. */
+  originalAt: string | null
+  corrections: { at: string; reason: string; by: string; madeAt: string }[]
 }
 
 export interface BatchDetail extends BatchView {
@@ -82,6 +90,8 @@ export interface FloorBatch extends BatchView {
   summary: PlanSummary
   minimumSoak_s: number | null
   quenchDelayAllowance_s: number
+  /** The floor taps so far, for corrections and the card's history. */
+  events: BatchEventView[]
 }
 
 export interface FloorResponse {
@@ -101,4 +111,12 @@ export interface PlanOption {
   quenchToHandling_s: number
   furnace_s: number | null
   furnace_C: number | null
+}
+
+/** What the last tap on a floor card led to: shown on that card, beside the button that was tapped. */
+export interface FloorCardFeedback {
+  kind: 'ok' | 'error' | 'shortfall'
+  text: string
+  /** For a shortfall: the move that waits for the second confirmation. */
+  to?: BatchState
 }

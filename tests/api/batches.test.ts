@@ -186,7 +186,7 @@ describe('state moves on the floor', () => {
   it('only in order, only by the allowed roles; a repeated tap changes nothing; backwards is refused', async () => {
     const line = await createLine(admin)
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
-    const moveBooked = (client: Client, to: string) => move(client, booked.body.id, to)
+    const moveBooked = (client: Client, to: string, acknowledge?: boolean) => move(client, booked.body.id, to, acknowledge)
 
     const skipped = await moveBooked(operator, 'quenched')
     expect(skipped.status).toBe(409)
@@ -208,7 +208,13 @@ describe('state moves on the floor', () => {
     expect(again.status).toBe(200)
     expect(again.body).toMatchObject({ repeated: true, batch: { chargedAt: charged.body.batch.chargedAt } })
 
-    expect((await moveBooked(operator, 'soaking')).status).toBe(201)
+    // Core at heat at once is before the predicted heat-up: refused until confirmed a second time.
+    const early = await moveBooked(operator, 'soaking')
+    expect(early.status).toBe(409)
+    expect(early.body.data.shortfall.rule).toBe('early_core_at_heat')
+    expect(early.body.data.shortfall.short_s).toBeGreaterThan(heatUp_s - 5)
+    expect(early.body.statusMessage).toMatch(/^Core at heat \d+ s after charging, .+ before the predicted heat-up of .+\. Confirm again to record it anyway\.$/)
+    expect((await moveBooked(operator, 'soaking', true)).status).toBe(201)
     const back = await moveBooked(operator, 'charged')
     expect(back.status).toBe(409)
     expect(back.body.data).toEqual({ currentState: 'soaking', requestedState: 'charged' })
@@ -222,8 +228,55 @@ describe('state moves on the floor', () => {
       ['charged', 'Tomas Vidal'],
       ['soaking', 'Tomas Vidal'],
     ])
+    expect(detail.body.events[2].shortfallNote).toMatch(/^Core at heat \d+ s after charging/)
     const audit = await auditFor(admin, 'batch', booked.body.id)
     expect(audit.map((e: { action: string }) => e.action).sort()).toEqual(['batch.book', 'batch.charged', 'batch.soaking'])
+    expect(audit.find((e: { action: string }) => e.action === 'batch.soaking').details.shortfall).toBe(detail.body.events[2].shortfallNote)
+  })
+
+  it('the door tap: out of the furnace early asks for confirmation; it ends the furnace time and starts the quench allowance', async () => {
+    const line = await createLine(admin)
+    const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
+    const id = booked.body.id
+    expect((await move(operator, id, 'charged')).status).toBe(201)
+    expect((await move(operator, id, 'soaking', true)).status).toBe(201)
+    // The pin's minimum soak is 1800 s: a door tap now is about 30 min early (shown to the whole second).
+    const early = await move(operator, id, 'unloaded')
+    expect(early.status).toBe(409)
+    expect(early.body.data.shortfall).toMatchObject({ rule: 'early_out_of_soak' })
+    expect(early.body.data.shortfall.short_s).toBeGreaterThan(1790)
+    expect(early.body.data.shortfall.message).toMatch(/^Out of the furnace with (29 min \d\d|30 min 00) s of the 30 min 00 s minimum soak still to run\.$/)
+    expect((await qa.request(`/api/batches/${id}`)).body.state).toBe('soaking')
+    const out = await move(operator, id, 'unloaded', true)
+    expect(out.status).toBe(201)
+    expect(out.body.batch).toMatchObject({ state: 'unloaded' })
+    expect(out.body.batch.furnaceEnd).toBe(out.body.batch.unloadedAt)
+    // Predicted quench start: the door plus the booked 60 s transfer.
+    expect(out.body.batch.quenchStart - out.body.batch.unloadedAt).toBe(60_000)
+    const quenched = await move(operator, id, 'quenched')
+    expect(quenched.status).toBe(201)
+    expect(quenched.body.batch.furnaceEnd).toBe(out.body.batch.unloadedAt)
+    expect(quenched.body.batch.quenchStart).toBe(quenched.body.batch.quenchedAt)
+  })
+
+  it('a quench straight from soak (door tap missed) is still recorded, guarded against the minimum soak', async () => {
+    const line = await createLine(admin)
+    const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, futureDay()) })
+    const id = booked.body.id
+    await move(operator, id, 'charged')
+    await move(operator, id, 'soaking', true)
+    const early = await move(operator, id, 'quenched')
+    expect(early.status).toBe(409)
+    expect(early.body.data.shortfall.message).toMatch(/^Quench started with (29 min \d\d|30 min 00) s of the 30 min 00 s minimum soak still to run\.$/)
+    const quenched = await move(operator, id, 'quenched', true)
+    expect(quenched.status).toBe(201)
+    expect(quenched.body.batch.unloadedAt).toBeNull()
+  })
+
+  it('acknowledgeShortfall must be a boolean (400 naming the field)', async () => {
+    const bad = await operator.request('/api/batches/1/events', { method: 'POST', body: { to: 'charged', acknowledgeShortfall: 'yes' } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems).toEqual([{ field: 'acknowledgeShortfall', message: 'acknowledgeShortfall must be true or false' }])
   })
 
   it('a late charge moves the later slots and flags the next booking on the furnace; withdrawing the late load clears the flag', async () => {

@@ -18,10 +18,27 @@ beforeAll(async () => {
   lib = await createLibraryFixture(metallurgist)
 })
 
-async function tapAndConfirm(page: Page, card: ReturnType<Page['getByTestId']>, label: string) {
+type Card = ReturnType<Page['getByTestId']>
+
+async function tapAndConfirm(page: Page, card: Card, label: string) {
   await card.getByRole('button', { name: label, exact: true }).click()
   await card.getByRole('button', { name: `Confirm: ${label}` }).click()
 }
+
+/** A tap the plan says is early: the card names the shortfall and asks a second time; returns the sentence. */
+async function tapEarlyAndRecordAnyway(card: Card, label: string, shortfall: RegExp): Promise<string> {
+  await card.getByRole('button', { name: label, exact: true }).click()
+  await card.getByRole('button', { name: `Confirm: ${label}` }).click()
+  const panel = card.getByTestId('card-shortfall')
+  await panel.waitFor()
+  const text = (await panel.textContent())!
+  expect(text).toMatch(shortfall)
+  await card.getByRole('button', { name: `Record anyway: ${label}` }).click()
+  return text
+}
+
+const waitForState = (page: Page, loadNumber: string, state: string) =>
+  page.waitForFunction(([id, s]) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === s, [loadNumber, state])
 
 /** Saves the plan through the planner, then books it on a line of its own, due in ten minutes. */
 async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib), stationKind = 'oil') {
@@ -53,10 +70,18 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     const soakLeft = Number(await card.getByTestId('countdown').getAttribute('data-seconds'))
     expect(Math.abs(soakLeft - (engineHeatUp_s + 1800))).toBeLessThanOrEqual(2)
 
-    await tapAndConfirm(page, card, 'Core at heat')
-    await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'soaking', batch.loadNumber)
+    // Core at heat straight after charging is before the engine's heat-up: named on the card, recorded only on a second yes.
+    await tapEarlyAndRecordAnyway(card, 'Core at heat', /Core at heat \d+ s after charging, .+ before the predicted heat-up of/)
+    await waitForState(page, batch.loadNumber, 'soaking')
+    expect(await card.getByTestId('card-message').textContent()).toMatch(/recorded at \d{1,2}:\d{2}:\d{2}.*, with its shortfall\./)
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-shortfall-recorded.png` })
+    // The door tap before the 30 min minimum soak is over: the same second confirmation.
+    await tapEarlyAndRecordAnyway(card, 'Out of the furnace', /Out of the furnace with (29 min \d\d|30 min 00) s of the 30 min 00 s minimum soak still to run\./)
+    await waitForState(page, batch.loadNumber, 'unloaded')
+    // Door open: what counts now is the quench-delay allowance.
+    expect(await card.getByTestId('countdown-caption').textContent()).toBe('left of the quench delay allowance: into the bath')
     await tapAndConfirm(page, card, 'Quench started')
-    await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'quenched', batch.loadNumber)
+    await waitForState(page, batch.loadNumber, 'quenched')
 
     const detail = (await admin.request(`/api/batches/${batch.id}`)).body
     expect(detail.handlingAt - detail.quenchedAt).toBe(Math.round(plan.summary.quenchToHandling_s * 1000))
@@ -88,10 +113,14 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     await signInThroughPage(page, 'operator', '/floor')
     await page.getByRole('button', { name: line.furnace.name }).click()
     const card = page.getByTestId(`card-${batch.loadNumber}`)
-    for (const [label, state] of [['Load charged', 'charged'], ['Core at heat', 'soaking'], ['Quench started', 'quenched']] as const) {
-      await tapAndConfirm(page, card, label)
-      await page.waitForFunction(([id, s]) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === s, [batch.loadNumber, state])
-    }
+    await tapAndConfirm(page, card, 'Load charged')
+    await waitForState(page, batch.loadNumber, 'charged')
+    await tapEarlyAndRecordAnyway(card, 'Core at heat', /before the predicted heat-up/)
+    await waitForState(page, batch.loadNumber, 'soaking')
+    await tapEarlyAndRecordAnyway(card, 'Out of the furnace', /of the 10 min 00 s minimum soak still to run/)
+    await waitForState(page, batch.loadNumber, 'unloaded')
+    await tapAndConfirm(page, card, 'Quench started')
+    await waitForState(page, batch.loadNumber, 'quenched')
     await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'ready', batch.loadNumber, { timeout: 15_000 })
     expect(await card.getByTestId('card-state').textContent()).toContain('Safe to handle')
     await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-ready.png` })
@@ -102,6 +131,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
       ['planned', 'Mira Okonkwo'],
       ['charged', 'Tomas Vidal'],
       ['soaking', 'Tomas Vidal'],
+      ['unloaded', 'Tomas Vidal'],
       ['quenched', 'Tomas Vidal'],
       ['cooling', null],
       ['ready', null],
@@ -120,11 +150,67 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     await page.context().setOffline(true)
     await page.getByTestId('connection').filter({ hasText: 'Connection lost' }).waitFor()
     await tapAndConfirm(page, card, 'Load charged')
-    expect(await page.getByTestId('floor-message').textContent()).toContain('nothing was recorded')
+    expect(await card.getByTestId('card-message').textContent()).toContain('nothing was recorded')
     await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-offline.png` })
     expect((await admin.request(`/api/batches/${batch.id}`)).body.state).toBe('planned')
     await page.context().setOffline(false)
     await page.getByTestId('connection').filter({ hasText: 'Live' }).waitFor({ timeout: 10_000 })
+    await page.context().close()
+  })
+
+  it('an armed confirmation disarms itself after 5 s; a shortfall asked and declined records nothing', async () => {
+    const { line, batch } = await bookOnNewLine()
+    const page = await browser.tabletPage()
+    await signInThroughPage(page, 'operator', '/floor')
+    await page.getByRole('button', { name: line.furnace.name }).click()
+    const card = page.getByTestId(`card-${batch.loadNumber}`)
+    await card.getByRole('button', { name: 'Load charged', exact: true }).click()
+    expect(await card.getByTestId('card-action').textContent()).toContain('Confirm: Load charged')
+    await page.waitForTimeout(5500)
+    expect((await card.getByTestId('card-action').textContent())!.trim()).toBe('Load charged')
+    expect((await admin.request(`/api/batches/${batch.id}`)).body.state).toBe('planned')
+
+    await tapAndConfirm(page, card, 'Load charged')
+    await waitForState(page, batch.loadNumber, 'charged')
+    await card.getByRole('button', { name: 'Core at heat', exact: true }).click()
+    await card.getByRole('button', { name: 'Confirm: Core at heat' }).click()
+    await card.getByTestId('card-shortfall').waitFor()
+    await card.getByTestId('card-shortfall-cancel').click()
+    await card.getByTestId('card-shortfall').waitFor({ state: 'detached' })
+    expect((await admin.request(`/api/batches/${batch.id}`)).body.state).toBe('charged')
+    await page.context().close()
+  })
+})
+
+describe('the floor on a 1920×1080 desktop', () => {
+  it('feedback shows on the tapped card, not elsewhere; the operator corrects a tap to the second with a reason', async () => {
+    const first = await bookOnNewLine()
+    const page = await browser.desktopPage()
+    await signInThroughPage(page, 'operator', '/floor')
+    await page.getByRole('button', { name: first.line.furnace.name }).click()
+    const card = page.getByTestId(`card-${first.batch.loadNumber}`)
+    await tapAndConfirm(page, card, 'Load charged')
+    await waitForState(page, first.batch.loadNumber, 'charged')
+    const message = card.getByTestId('card-message')
+    expect(await message.textContent()).toMatch(new RegExp(`^\\s*${first.batch.loadNumber}: recorded at \\d{1,2}:\\d{2}:\\d{2}`))
+    expect(await page.getByTestId('card-message').count()).toBe(1)
+
+    const tapped = (await admin.request(`/api/batches/${first.batch.id}`)).body.events.find((e: { toState: string }) => e.toState === 'charged')
+    const corrected = new Date(Date.parse(tapped.at) - 7000)
+    const pad = (n: number) => String(n).padStart(2, '0')
+    await card.getByTestId('card-correct').click()
+    await card.getByTestId('correction-event').selectOption(String(tapped.id))
+    await card.getByTestId('correction-time').fill(`${pad(corrected.getHours())}:${pad(corrected.getMinutes())}:${pad(corrected.getSeconds())}`)
+    await card.getByTestId('correction-reason').fill('Door log shows the charge 7 s earlier')
+    await card.getByTestId('correction-save').click()
+    await message.filter({ hasText: 'corrected to' }).waitFor()
+    expect(await message.textContent()).toContain('the original tap stays in the record')
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-corrected-desktop.png` })
+
+    const event = (await admin.request(`/api/batches/${first.batch.id}`)).body.events.find((e: { toState: string }) => e.toState === 'charged')
+    expect(event.originalAt).toBe(tapped.at)
+    expect(event.at).toBe(new Date(Math.floor(corrected.getTime() / 1000) * 1000).toISOString())
+    expect(event.corrections).toEqual([expect.objectContaining({ reason: 'Door log shows the charge 7 s earlier', by: 'Tomas Vidal' })])
     await page.context().close()
   })
 })

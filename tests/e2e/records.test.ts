@@ -5,7 +5,9 @@ import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browse
 import { demoUser, signInDemo } from '../support/http'
 import { createLibraryFixture } from '../support/library'
 import { waitForMail } from '../support/mailCatcher'
-import { quickPlan, releaseLoad } from '../support/records'
+import { pause, until } from '../support/poll'
+import { move, quickPlan, releaseLoad } from '../support/records'
+import { booking, createLine } from '../support/schedule'
 import { BASE_URL, RECORD_SEAL_KEY } from '../support/stackConfig'
 
 const browser = useBrowser()
@@ -74,5 +76,67 @@ describe('signing a record from the e-mailed link', () => {
     expect(await page.getByTestId('sign-off').getByRole('alert').count()).toBe(0)
     expect((await qa.request(`/api/records/${recordId}`)).body.state).toBe('unsigned')
     await page.context().close()
+  })
+})
+
+describe('the record of a load with an early tap, a correction and no door tap', () => {
+  it('desktop: a metallurgist corrects core at heat on the record; tablet: QA reads recorded and predicted moments apart, to the second', async () => {
+    const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+    const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
+    const line = await createLine(admin, 'Truth')
+    const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-TRUTH') })
+    const batchId = booked.body.id
+    await move(operator, batchId, 'charged')
+    // Core at heat tapped at once, confirmed early; the door tap is missed.
+    expect((await move(operator, batchId, 'soaking', true)).status).toBe(201)
+    await pause(2500)
+    expect((await move(operator, batchId, 'quenched')).status).toBe(201)
+    await until(async () => (await move(operator, batchId, 'released')).status, (status) => status === 201, 20, 'release')
+    const recordId = ((await qa.request('/api/records?limit=500')).body as { id: number; batchId: number }[]).find((r) => r.batchId === batchId)!.id
+    const charged = (await qa.request(`/api/batches/${batchId}`)).body.events.find((e: { toState: string }) => e.toState === 'charged')
+    const soaking = (await qa.request(`/api/batches/${batchId}`)).body.events.find((e: { toState: string }) => e.toState === 'soaking')
+
+    const desk = await browser.desktopPage()
+    await signInThroughPage(desk, 'metallurgist', `/records/${recordId}`)
+    await desk.getByTestId('record-not-recorded').filter({ hasText: 'Out of the furnace (door open): not recorded on the floor' }).waitFor()
+    expect(await desk.getByTestId('record-quench-delay').textContent()).toContain('not measured: door opening not recorded')
+    await desk.getByTestId('record-correct').click()
+    await desk.getByTestId('correction-event').selectOption(String(soaking.id))
+    // The chart recorder says core at heat 1 s after the charge (whole seconds, browser time zone).
+    const at = new Date(Math.ceil((Date.parse(charged.at) + 1000) / 1000) * 1000)
+    const pad = (n: number) => String(n).padStart(2, '0')
+    await desk.getByTestId('correction-time').fill(`${pad(at.getHours())}:${pad(at.getMinutes())}:${pad(at.getSeconds())}`)
+    await desk.getByTestId('correction-reason').fill('Chart recorder shows core at heat sooner')
+    await desk.getByTestId('correction-save').click()
+    await desk.getByTestId('event-correction').filter({ hasText: 'Chart recorder shows core at heat sooner' }).waitFor()
+    await desk.screenshot({ path: `${SCREENSHOT_DIR}/record-corrected-desktop.png`, fullPage: true })
+    await desk.context().close()
+
+    const record = (await qa.request(`/api/records/${recordId}`)).body
+    expect(record.integrity).toBe('intact')
+    const heatUp_s = (at.getTime() - Date.parse(charged.at)) / 1000
+    expect(record.snapshot.measured.heatUp_s).toBe(heatUp_s)
+    expect(record.snapshot.deviations[0]).toMatchObject({ rule: 'short_heat_up', actual_s: heatUp_s })
+
+    const tablet = await browser.tabletPage()
+    await signInThroughPage(tablet, 'qa', `/records/${recordId}`)
+    const rows = tablet.getByTestId('record-events').locator('tbody tr')
+    await rows.first().waitFor()
+    const seen = await rows.evaluateAll((trs) => trs.map((tr) => [tr.getAttribute('data-type'), tr.getAttribute('data-source'), tr.classList.contains('italic'), tr.querySelector('td')!.textContent!.trim()]))
+    // No door row: it was not tapped, and the record does not make one up.
+    expect(seen.map(([type]) => type)).toEqual(['charged', 'soaking', 'quenched', 'cooling', 'ready_to_handle', 'released'])
+    for (const [type, source, italic, when] of seen) {
+      const predicted = type === 'cooling' || type === 'ready_to_handle'
+      expect([type, source, italic]).toEqual([type, predicted ? 'predicted' : 'recorded', predicted])
+      expect(when).toMatch(/\d{1,2}:\d{2}:\d{2}/)
+    }
+    const coreRow = tablet.locator('tr[data-type="soaking"]')
+    expect(await coreRow.getByTestId('event-shortfall').textContent()).toMatch(/^Confirmed early: Core at heat \d+ s after charging/)
+    expect(await coreRow.getByTestId('event-original').textContent()).toMatch(/^tapped .*\d{1,2}:\d{2}:\d{2}/)
+    expect(await tablet.locator('tr[data-type="ready_to_handle"]').textContent()).toContain('predicted')
+    expect(await tablet.getByTestId('record-deviations').locator('li[data-rule="short_heat_up"]').textContent()).toMatch(/^Core at heat recorded \d+ s after charging, .+ sooner than the predicted heat-up of .+\.$/)
+    expect(await tablet.getByTestId('record-chart-key').textContent()).toContain('predicted')
+    await tablet.screenshot({ path: `${SCREENSHOT_DIR}/record-truth-tablet.png`, fullPage: true })
+    await tablet.context().close()
   })
 })

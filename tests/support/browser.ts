@@ -28,10 +28,11 @@ export type ViewportName = keyof typeof VIEWPORTS
 /**
  * One browser for a test file: launched before its tests, closed after them. Call it at
  * the top level of the file; each `tabletPage()` is a fresh 1280×800 landscape page
- * (the shop-floor tablet size) in a context of its own, so sign-ins never leak between
- * tests; `pageAt(viewport)` does the same at any of the VIEWPORTS.
+ * (the shop-floor tablet size) and each `desktopPage()` a 1920×1080 one, in a context of
+ * its own, so sign-ins never leak between tests; `pageAt(viewport)` does the same at any
+ * of the VIEWPORTS (the phone too).
  */
-export function useBrowser(): { tabletPage: () => Promise<Page>; pageAt: (viewport: ViewportName) => Promise<Page> } {
+export function useBrowser(): { tabletPage: () => Promise<Page>; desktopPage: () => Promise<Page>; pageAt: (viewport: ViewportName) => Promise<Page> } {
   let browser: Browser | undefined
   beforeAll(async () => {
     browser = await launchBrowser()
@@ -44,7 +45,7 @@ export function useBrowser(): { tabletPage: () => Promise<Page>; pageAt: (viewpo
     const context = await browser.newContext({ viewport: VIEWPORTS[viewport], baseURL: BASE_URL, isMobile: viewport === 'phone', hasTouch: viewport === 'phone' })
     return context.newPage()
   }
-  return { tabletPage: () => pageAt('tablet'), pageAt }
+  return { tabletPage: () => pageAt('tablet'), desktopPage: () => pageAt('desktop'), pageAt }
 }
 
 /** Collects what the page reports as errors (console errors, hydration mismatches, uncaught exceptions) from now on. */

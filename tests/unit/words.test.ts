@@ -62,9 +62,9 @@ describe('sheets, mails and the README', () => {
     for (const text of [renderSheetHtml(sheet), renderSheetText(sheet), pdf, sheetSubject(sheet)]) expect(retiredWordsIn(text)).toEqual([])
   })
 
-  it('the sheet names the recorded span for what it is: quench to release, not before the predicted handling time', () => {
+  it('the sheet names the recorded span for what it is: quench to release, beside the predicted handling time', () => {
     // Sample: handling at ln(790/60)·380 s = 979.5 s → "16 min 20 s"; released 20 min after the quench.
-    expect(renderSheetText(sheet)).toContain('Quench to release: not before 16 min 20 s (predicted handling), recorded 20 min 00 s')
+    expect(renderSheetText(sheet)).toContain('Quench to release (handling below 120 °C): plan predicted 16 min 20 s; recorded 20 min 00 s')
   })
 
   it('the digest mail uses none of the retired words', () => {

@@ -110,12 +110,13 @@ export async function seedDemoSchedule(db: Database, recordConfig: RecordConfig 
   return { loads: sequence, records }
 }
 
-/** How late the demo's late loads reach the bath: past the usual 60 s allowance, so their records show a quench-delay deviation. */
+/** How late the demo's late loads reach the bath: with the 60 s transfer, past a 180 s allowance, so their records show a quench-delay deviation. */
 const LATE_QUENCH_S = 150
 
 /**
  * Writes the floor events a batch would have by `now` had everything run on time but
- * the quench, `lateQuench_s` late (with everything after it); returns the state reached.
+ * the quench, `lateQuench_s` late (with everything after it): the door opens at the
+ * planned soak end, so a late quench is a slow transfer; returns the state reached.
  */
 async function followPlan(db: Database, id: number, now: number, operatorId: number, lateQuench_s: number): Promise<BatchState> {
   const [row] = await db.select().from(batches).where(eq(batches.id, id))
@@ -126,7 +127,8 @@ async function followPlan(db: Database, id: number, now: number, operatorId: num
   const steps: [BatchState, BatchState, number, number | null][] = [
     ['planned', 'charged', plan.furnaceStart, operatorId],
     ['charged', 'soaking', plan.furnaceStart + heatUp_s * 1000, operatorId],
-    ['soaking', 'quenched', plan.quenchStart + late, operatorId],
+    ['soaking', 'unloaded', plan.furnaceEnd, operatorId],
+    ['unloaded', 'quenched', plan.quenchStart + late, operatorId],
     ['quenched', 'cooling', plan.quenchEnd + late, null],
     ['cooling', 'ready', plan.handlingAt + late, null],
     ['ready', 'released', plan.handlingAt + late + 3600_000, operatorId],
@@ -144,6 +146,7 @@ async function followPlan(db: Database, id: number, now: number, operatorId: num
       state,
       chargedAt: reached('charged') ? new Date(plan.furnaceStart) : null,
       soakingAt: reached('soaking') ? new Date(plan.furnaceStart + heatUp_s * 1000) : null,
+      unloadedAt: reached('unloaded') ? new Date(plan.furnaceEnd) : null,
       quenchedAt: reached('quenched') ? new Date(plan.quenchStart + late) : null,
     })
     .where(eq(batches.id, id))

@@ -13,39 +13,76 @@ function at(offsets: Partial<Record<TimedEvent['type'], number>>): TimedEvent[] 
 }
 
 describe('measureTimes', () => {
-  it('soak from the soak event to the furnace opening; delay and release from the quench', () => {
-    // soaking 4300 s, opened 4300 + 3700 = 8000 s, quenched 8025 s, released 8025 + 1200 = 9225 s
-    expect(measureTimes(plan, at({ charged: 0, soaking: 4300, furnace_opened: 8000, quenched: 8025, released: 9225 }))).toEqual({
+  it('heat-up from charge to core at heat, soak to the door opening, delay door to quench, release from the quench', () => {
+    // heat-up 4300 − 0; soak 8000 − 4300 = 3700; delay 8025 − 8000 = 25; release 9225 − 8025 = 1200
+    expect(measureTimes(at({ charged: 0, soaking: 4300, furnace_opened: 8000, quenched: 8025, released: 9225 }))).toEqual({
+      heatUp_s: 4300,
       soak_s: 3700,
       quenchDelay_s: 25,
       quenchToRelease_s: 1200,
     })
   })
 
-  it('without a soak event the soak starts at charge + planned heat-up; without a furnace opening it ends at the quench', () => {
-    // 0 + 4200 = 4200 s soak start; quenched at 7500 s → 3300 s
-    expect(measureTimes(plan, at({ charged: 0, quenched: 7500 }))).toEqual({ soak_s: 3300, quenchDelay_s: null, quenchToRelease_s: null })
+  it('derives nothing from the plan: without core at heat no heat-up or soak; without the door tap no quench delay', () => {
+    expect(measureTimes(at({ charged: 0, quenched: 7500 }))).toEqual({ heatUp_s: null, soak_s: null, quenchDelay_s: null, quenchToRelease_s: null })
+  })
+
+  it('without the door tap the soak ends at the quench, the latest moment the load can have left', () => {
+    // 7500 − 4200 = 3300
+    expect(measureTimes(at({ charged: 0, soaking: 4200, quenched: 7500 }))).toMatchObject({ soak_s: 3300, quenchDelay_s: null })
   })
 
   it('a state entered twice counts from the first time', () => {
     const events = [...at({ quenched: 100, released: 1300 }), ...at({ quenched: 400 })]
-    expect(measureTimes(plan, events).quenchToRelease_s).toBe(1200)
+    expect(measureTimes(events).quenchToRelease_s).toBe(1200)
   })
 
   it('refuses an unreadable time', () => {
-    expect(() => measureTimes(plan, [{ type: 'charged', at: 'yesterday' }])).toThrow('Event charged has an unreadable time: yesterday')
+    expect(() => measureTimes([{ type: 'charged', at: 'yesterday' }])).toThrow('Event charged has an unreadable time: yesterday')
   })
 })
 
 describe('findDeviations', () => {
   it('a load run to plan has none', () => {
-    // soak 3600 s exactly, delay 30 s exactly, release at 1000 s exactly: limits are inclusive
+    // heat-up 4200 s, soak 3600 s, delay 30 s, release at 1000 s, each exactly at its limit: limits are inclusive
     expect(findDeviations(plan, at({ charged: 0, soaking: 4200, furnace_opened: 7800, quenched: 7830, released: 8830 }))).toEqual([])
   })
 
-  it('quench delay beyond the allowance: 52 s against 30 s is 22 s over', () => {
+  it('a span within the records\' 1 ms resolution of its limit meets it: instants are whole milliseconds, plan figures are not', () => {
+    const fractional: DeviationPlan = { heatUp_s: 4200.0004, minimumSoak_s: 3600.0009, quenchDelayAllowance_s: 29.9995, quenchToHandling_s: 1000.0008 }
+    expect(findDeviations(fractional, at({ charged: 0, soaking: 4200, furnace_opened: 7800, quenched: 7830, released: 8830 }))).toEqual([])
+    // One millisecond more than the resolution is a deviation again: 4200 s against 4200.0011 s.
+    expect(findDeviations({ ...fractional, heatUp_s: 4200.0011 }, at({ charged: 0, soaking: 4200 })).map((d) => d.rule)).toEqual(['short_heat_up'])
+  })
+
+  it('heat-up shorter than predicted: core at heat 14 s after charging against 2 min 39 s is 2 min 25 s sooner', () => {
+    // Issue 14's early tap: 159 − 14 = 145 s = 2 min 25 s
+    const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
+    expect(findDeviations(shortPlan, at({ charged: 0, soaking: 14 }))).toEqual([
+      {
+        rule: 'short_heat_up',
+        planned_s: 159,
+        actual_s: 14,
+        excess_s: 145,
+        message: 'Core at heat recorded 14 s after charging, 2 min 25 s sooner than the predicted heat-up of 2 min 39 s, so the soak may have been counted before the core was at temperature.',
+      },
+    ])
+  })
+
+  it('issue 14 load: early core-at-heat, 20 s soak to a quench with no door tap, no quench delay derived', () => {
+    // heat-up 14 s (145 s short); soak 34 − 14 = 20 s against 120 s (100 s = 1 min 40 s short); door missing: no delay rule
+    const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
+    const found = findDeviations(shortPlan, at({ charged: 0, soaking: 14, quenched: 34, released: 700 }))
+    expect(found.map((d) => [d.rule, d.actual_s, d.excess_s])).toEqual([
+      ['short_heat_up', 14, 145],
+      ['short_soak', 20, 100],
+    ])
+    expect(found[1]!.message).toBe('Soak 20 s from core at heat to the quench (door opening not recorded), 1 min 40 s shorter than the planned minimum of 2 min 00 s.')
+  })
+
+  it('quench delay is furnace door to quench: 52 s against 30 s is 22 s over', () => {
     expect(findDeviations(plan, at({ furnace_opened: 1000, quenched: 1052 }))).toEqual([
-      { rule: 'quench_delay', planned_s: 30, actual_s: 52, excess_s: 22, message: 'Quench delay 52 s, 22 s over the allowed 30 s' },
+      { rule: 'quench_delay', planned_s: 30, actual_s: 52, excess_s: 22, message: 'Quench delay 52 s from the furnace door opening to the quench, 22 s over the allowed 30 s.' },
     ])
   })
 
@@ -56,35 +93,31 @@ describe('findDeviations', () => {
         planned_s: 1000,
         actual_s: 750,
         excess_s: 250,
-        message: 'Released 12 min 30 s after the quench, 4 min 10 s before the predicted handling time of 16 min 40 s',
+        message: 'Released 12 min 30 s after the quench, 4 min 10 s before the predicted handling time of 16 min 40 s.',
       },
     ])
   })
 
-  it('soak shorter than planned from the soak event: 50 min against 1 h is 10 min short', () => {
+  it('soak shorter than planned to the door opening: 50 min against 1 h is 10 min short', () => {
     expect(findDeviations(plan, at({ soaking: 5000, furnace_opened: 8000, quenched: 8010 }))).toEqual([
-      { rule: 'short_soak', planned_s: 3600, actual_s: 3000, excess_s: 600, message: 'Soak 50 min 00 s, 10 min 00 s shorter than the planned 1 h 00 min' },
+      { rule: 'short_soak', planned_s: 3600, actual_s: 3000, excess_s: 600, message: 'Soak 50 min 00 s from core at heat to the load out of the furnace, 10 min 00 s shorter than the planned minimum of 1 h 00 min.' },
     ])
   })
 
-  it('soak shorter than planned from charge + heat-up when core-at-temperature was not recorded', () => {
-    // charged 0, soak from 4200 s, quenched at 7000 s → 2800 s, 800 s short
-    const [deviation] = findDeviations(plan, at({ charged: 0, quenched: 7000 }))
-    expect(deviation).toMatchObject({ rule: 'short_soak', actual_s: 2800, excess_s: 800 })
-  })
-
   it('reports every broken rule in process order', () => {
-    const found = findDeviations(plan, at({ charged: 0, soaking: 4200, furnace_opened: 7000, quenched: 7045, released: 7645 }))
+    // heat-up 4000 (200 short), soak 7000 − 4000 = 3000 (600 short), delay 45 (15 over), release 600 (400 early)
+    const found = findDeviations(plan, at({ charged: 0, soaking: 4000, furnace_opened: 7000, quenched: 7045, released: 7645 }))
     expect(found.map((deviation) => [deviation.rule, deviation.excess_s])).toEqual([
-      ['short_soak', 800],
+      ['short_heat_up', 200],
+      ['short_soak', 600],
       ['quench_delay', 15],
       ['early_release', 400],
     ])
   })
 
-  it('skips the soak rule for a plan without soak planning and a rule whose events are missing', () => {
+  it('skips the heat-up and soak rules for a plan without soak planning and a rule whose events are missing', () => {
     const noSoak: DeviationPlan = { ...plan, heatUp_s: null, minimumSoak_s: null }
-    expect(findDeviations(noSoak, at({ charged: 0, quenched: 60, released: 100 }))).toEqual([
+    expect(findDeviations(noSoak, at({ charged: 0, soaking: 10, quenched: 60, released: 100 }))).toEqual([
       expect.objectContaining({ rule: 'early_release', excess_s: 960 }),
     ])
     expect(findDeviations(plan, at({ furnace_opened: 0 }))).toEqual([])

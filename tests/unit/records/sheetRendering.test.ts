@@ -39,7 +39,8 @@ describe('renderCurveCsv', () => {
 describe('sample sheet', () => {
   it('predicts handling at ln(790/60)·380 s = 979.5 s and records a 52 s transfer against 30 s', () => {
     expect(sheet.planned.quenchToHandling_s).toBeCloseTo(979.52, 2)
-    expect(sheet.measured).toEqual({ soak_s: 3900, quenchDelay_s: 52, quenchToRelease_s: 1200 })
+    // charged → core at heat 72 min, soak 65 min, door → quench 52 s, quench → release 20 min
+    expect(sheet.measured).toEqual({ heatUp_s: 4320, soak_s: 3900, quenchDelay_s: 52, quenchToRelease_s: 1200 })
     expect(sheet.deviations.map((deviation) => deviation.rule)).toEqual(['quench_delay'])
     expect(sheet.shopName).toBe('Kestrel Bay Heat Treat')
   })
@@ -51,13 +52,34 @@ describe('renderSheetHtml', () => {
   it('names the load, lists every caution and the deviation, all styles inline', () => {
     expect(html).toContain('Load KB-24-0117')
     for (const caution of STANDARD_CAUTIONS) expect(html).toContain(escapeHtml(caution))
-    expect(html).toContain('Quench delay 52 s, 22 s over the allowed 30 s')
+    expect(html).toContain('Quench delay 52 s from the furnace door opening to the quench, 22 s over the allowed 30 s.')
     expect(html).not.toMatch(/<style|class=/)
   })
 
   it('shows who recorded each event and when, in UTC', () => {
-    expect(html).toContain('2026-03-04 09:55:00 UTC</td><td style="padding:6px 10px;border-bottom:1px solid #cbd3dc;text-align:left;vertical-align:top;">Released</td>')
+    expect(html).toContain('2026-03-04 09:55:00 UTC</td><td style="padding:6px 10px;border-bottom:1px solid #cbd3dc;text-align:left;vertical-align:top;border-left:3px solid #131b24;">Released</td>')
     expect(html).toContain('June Halvorsen')
+  })
+
+  it('shows a predicted moment in grey italics behind a dashed rule, labelled predicted', () => {
+    const row = html.match(/<tr data-type="ready_to_handle" data-source="predicted">.*?<\/tr>/)?.[0] ?? ''
+    expect(row).toContain('2026-03-04 09:51:20 UTC (predicted)')
+    expect(row).toContain('PREDICTED: Ready to handle')
+    expect(row).toContain('font-style:italic;')
+    expect(row).toContain('border-left:3px dashed')
+  })
+
+  it('says a missing door tap is not recorded, lists an early tap and a correction with its reason', () => {
+    const events = sheet.events.map((event) =>
+      event.type === 'soaking'
+        ? { ...event, shortfall: 'Core at heat 14 s after charging, 2 min 25 s before the predicted heat-up of 2 min 39 s.', originalAt: '2026-03-04T08:29:00.000Z', corrections: [{ from: '2026-03-04T08:29:00.000Z', to: event.at, reason: 'Tapped on the wrong card', by: 'Ines Brandt', madeAt: '2026-03-04T09:00:00.000Z' }] }
+        : event,
+    ).filter((event) => event.type !== 'furnace_opened')
+    const out = renderSheetHtml({ ...sheet, events, notRecorded: ['furnace_opened'], measured: { ...sheet.measured, quenchDelay_s: null } })
+    expect(out).toContain('Out of the furnace (door open): not recorded on the floor; the record does not derive it, so the quench delay is not measured.')
+    expect(out).toContain('not measured: door opening not recorded')
+    expect(out).toContain('Confirmed early: Core at heat 14 s after charging, 2 min 25 s before the predicted heat-up of 2 min 39 s.')
+    expect(out).toContain('Corrected from 2026-03-04 08:29:00 UTC to 2026-03-04 08:29:08 UTC by Ines Brandt on 2026-03-04 09:00:00 UTC: &quot;Tapped on the wrong card&quot;')
   })
 
   it('escapes text that came from people', () => {
@@ -75,7 +97,8 @@ describe('renderSheetHtml', () => {
   it('has a plain-text twin with the same load number and cautions', () => {
     const text = renderSheetText(sheet)
     expect(text).toContain('Load KB-24-0117')
-    expect(text).toContain('Quench delay: allowed 30 s, recorded 52 s')
+    expect(text).toContain('Quench delay (furnace door to quench): plan at most 30 s; recorded 52 s')
+    expect(text).toContain('2026-03-04 09:51:20 UTC (predicted)  PREDICTED: Ready to handle')
     for (const caution of STANDARD_CAUTIONS) expect(text).toContain(caution)
   })
 })
@@ -87,7 +110,7 @@ describe('renderSheetPdf', () => {
     expect(pdf.subarray(-6).toString('latin1')).toMatch(/%%EOF\s*$/)
     const text = pdfText(pdf)
     expect(text).toContain('Load KB-24-0117')
-    expect(text).toContain('•  Quench delay 52 s, 22 s over the allowed 30 s')
+    expect(text).toContain('•  Quench delay 52 s from the furnace door opening to the quench, 22 s over the allowed 30 s.')
     expect(text.join(' ')).toContain('Parts stay hot long after they look cool')
     expect(text).toContain('handling 120 °C at 16 min 20 s')
   })

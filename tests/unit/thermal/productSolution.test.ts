@@ -77,16 +77,18 @@ describe('product solution of short cylinders and blocks', () => {
     [1, 0.1],
     [10, 0.05],
     [10, 0.6],
-  ])('a cube (Bi = %d, Fo = %d) has the closed-form slab centre cubed, a square bar the slab squared, within the reported truncation bound', (bi, fo) => {
+  ])('a cube (Bi = %d, Fo = %d) has the closed-form slab centre cubed, a square bar the slab squared, to 1e-9 of the drop', (bi, fo) => {
     const a = 0.04
     const h = (bi * K) / a
     const t = (fo * a * a) / ALPHA
     const slabFraction = centreFraction1D('slab', bi, fo)
     const cube = centres(steelInput([slab(a), slab(a), slab(a)], h), [t])
     const bar = centres(steelInput([slab(a), slab(a)], h), [t])
+    const fraction = (T: number) => (T - BATH_C) / (START_C - BATH_C)
+    // The reported truncation bound (~0.01 K) is a worst case at the earliest time; the terms actually left out are far smaller.
     expect(cube.bound_K).toBeLessThan(0.03)
-    expect(Math.abs(cube.centre_C[0]! - (BATH_C + (START_C - BATH_C) * slabFraction ** 3))).toBeLessThanOrEqual(cube.bound_K + 1e-9)
-    expect(Math.abs(bar.centre_C[0]! - (BATH_C + (START_C - BATH_C) * slabFraction ** 2))).toBeLessThanOrEqual(bar.bound_K + 1e-9)
+    expect(fraction(cube.centre_C[0]!)).toBeCloseTo(slabFraction ** 3, 9)
+    expect(fraction(bar.centre_C[0]!)).toBeCloseTo(slabFraction ** 2, 9)
   })
 
   it('short brass cylinder, D = 10 cm, H = 12 cm, 120 °C into 25 °C air at h = 60: centre ≈ 62.8 °C after 15 min (Çengel, Heat and Mass Transfer, worked example, quoted from memory; ±0.5 K for one-term table precision)', () => {
@@ -135,9 +137,8 @@ describe('product solution of short cylinders and blocks', () => {
       const reference = referenceOf(steelInput(directions, 800))
       for (const target of [700, 400, 100, 45]) {
         const run = timeTo(directions, target)
-        expect(Math.abs(referenceCentre_C(reference, run.targetTime_s) - target), `${directions.length} directions, ${target} °C`).toBeLessThanOrEqual(run.stages[0]!.truncationError_K + 1e-9)
+        expect(referenceCentre_C(reference, run.targetTime_s), `${directions.length} directions, ${target} °C`).toBeCloseTo(target, 7)
       }
-      // late in the cooldown the truncated terms have died away: the times agree closely
       expect(timeTo(directions, 100).targetTime_s / referenceTimeToCentre_s(reference, 100) - 1).toBeCloseTo(0, 8)
     }
     // the block, cooled on more faces, gets there first

@@ -7,8 +7,8 @@ export default defineEventHandler(async (event) => {
   // Which role may record which move depends on the move; moveBatch checks it.
   const user = await requireRole(event, 'signedIn')
   const { id } = await paramsValid(event, Params)
-  const { to } = await readValid(event, moveInputSchema)
-  const result = await moveBatch(id, to, user, useShopConfig())
+  const { to, acknowledgeShortfall } = await readValid(event, moveInputSchema)
+  const result = await moveBatch(id, to, user, useShopConfig(), { acknowledgeShortfall })
   setResponseStatus(event, result.repeated ? 200 : 201)
   return result
 })

@@ -1,0 +1,96 @@
+/**
+ * Eigenvalues and eigenvectors of a small symmetric matrix by the cyclic Jacobi
+ * method (Golub & Van Loan, Matrix Computations, 4th ed., §8.5): rotations that zero
+ * one off-diagonal pair at a time, swept until the off-diagonal part is below
+ * rounding of the diagonal. Convergence is quadratic once the matrix is nearly
+ * diagonal, which is the case here: the Ritz matrices of temperatureDependent.ts are
+ * written in a basis of modes of a nearby uniform body, so two or three sweeps do.
+ * Checked against closed-form spectra (tests/unit/thermal/ritzModes.test.ts).
+ */
+
+/**
+ * Diagonalises the n×n symmetric matrix a (row-major, overwritten) in place: on
+ * return its diagonal holds the eigenvalues and column j of `vectors` (row-major,
+ * n×n) the unit eigenvector of eigenvalue a[j·n + j].
+ */
+export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array): void {
+  vectors.fill(0)
+  for (let i = 0; i < n; i++) vectors[i * n + i] = 1
+  for (let sweep = 0; sweep < 50; sweep++) {
+    let off = 0
+    let diag = 0
+    for (let i = 0; i < n; i++) {
+      diag += a[i * n + i] * a[i * n + i]
+      for (let j = i + 1; j < n; j++) off += a[i * n + j] * a[i * n + j]
+    }
+    if (off <= 1e-30 * diag) return
+    for (let p = 0; p < n - 1; p++) {
+      for (let q = p + 1; q < n; q++) {
+        const apq = a[p * n + q]
+        if (apq === 0) continue
+        const app = a[p * n + p]
+        const aqq = a[q * n + q]
+        // The smaller rotation angle: t = tan θ from cot 2θ = (a_qq − a_pp)/(2 a_pq).
+        const theta = (aqq - app) / (2 * apq)
+        const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1))
+        const c = 1 / Math.sqrt(t * t + 1)
+        const s = t * c
+        for (let k = 0; k < n; k++) {
+          const akp = a[k * n + p]
+          const akq = a[k * n + q]
+          a[k * n + p] = c * akp - s * akq
+          a[k * n + q] = s * akp + c * akq
+        }
+        for (let k = 0; k < n; k++) {
+          const apk = a[p * n + k]
+          const aqk = a[q * n + k]
+          a[p * n + k] = c * apk - s * aqk
+          a[q * n + k] = s * apk + c * aqk
+        }
+        for (let k = 0; k < n; k++) {
+          const vkp = vectors[k * n + p]
+          const vkq = vectors[k * n + q]
+          vectors[k * n + p] = c * vkp - s * vkq
+          vectors[k * n + q] = s * vkp + c * vkq
+        }
+      }
+    }
+  }
+  throw new RangeError('jacobiEigen: no convergence in 50 sweeps')
+}
+
+/** Cholesky factor (lower, row-major) of the n×n symmetric positive-definite matrix a. */
+export function cholesky(a: Float64Array, n: number): Float64Array {
+  const l = new Float64Array(n * n)
+  for (let j = 0; j < n; j++) {
+    let d = a[j * n + j]
+    for (let k = 0; k < j; k++) d -= l[j * n + k] * l[j * n + k]
+    if (!(d > 0)) throw new RangeError('cholesky: matrix is not positive definite')
+    const ljj = Math.sqrt(d)
+    l[j * n + j] = ljj
+    for (let i = j + 1; i < n; i++) {
+      let s = a[i * n + j]
+      for (let k = 0; k < j; k++) s -= l[i * n + k] * l[j * n + k]
+      l[i * n + j] = s / ljj
+    }
+  }
+  return l
+}
+
+/** Solves L y = b (forward) in place for lower-triangular L. */
+export function forwardSubstitute(l: Float64Array, n: number, b: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    let s = b[i]
+    for (let k = 0; k < i; k++) s -= l[i * n + k] * b[k]
+    b[i] = s / l[i * n + i]
+  }
+}
+
+/** Solves Lᵀ x = b (backward) in place for lower-triangular L. */
+export function backSubstitute(l: Float64Array, n: number, b: Float64Array): void {
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i]
+    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * b[k]
+    b[i] = s / l[i * n + i]
+  }
+}
