@@ -9,11 +9,11 @@ export { QUENCHANT_KIND_LABELS as STATION_KIND_LABELS } from './library'
 export { ROLE_LABELS } from './roles'
 
 export const FURNACE_KIND_LABELS: Record<FurnaceKind, string> = {
-  box: 'Box furnace',
-  pit: 'Pit furnace',
+  'box': 'Box furnace',
+  'pit': 'Pit furnace',
   'car-bottom': 'Car bottom furnace',
-  vacuum: 'Vacuum furnace',
-  belt: 'Belt furnace',
+  'vacuum': 'Vacuum furnace',
+  'belt': 'Belt furnace',
   'salt-bath': 'Salt bath furnace',
 }
 

@@ -30,7 +30,8 @@ export default defineEventHandler(async (event): Promise<AuditEntry[]> => {
     .limit(limit)
   // People are named, never "user #14": entries about a person carry that person's name.
   const personIds = [...new Set(rows.filter(({ entry }) => entry.entityType === 'user' && entry.entityId).map(({ entry }) => Number(entry.entityId)))]
-  const names = new Map(personIds.length ? (await useDb().select({ id: users.id, name: users.displayName }).from(users).where(inArray(users.id, personIds))).map((u) => [String(u.id), u.name]) : [])
+  const people = personIds.length ? await useDb().select({ id: users.id, name: users.displayName }).from(users).where(inArray(users.id, personIds)) : []
+  const names = new Map(people.map((u) => [String(u.id), u.name]))
   return rows.map(({ entry, actorName }) => {
     const details = (entry.details ?? null) as Record<string, unknown> | null
     const named = entry.entityType === 'user' ? names.get(String(entry.entityId)) : (details?.loadNumber ?? details?.name)

@@ -103,7 +103,14 @@ async function checkPlacement(tx: Transaction, p: Placement, exceptId = 0) {
         .where(and(eq(batches.stationId, station.id), others, gt(batches.quenchEnd, new Date(slots.quenchStart)))),
     ])
     const asMs = (rows: { start: Date; end: Date }[]) => rows.map((row) => ({ start: row.start.getTime(), end: row.end.getTime() }))
-    const next = nextFreeStart(p.plannedCharge, slots.furnaceEnd - slots.furnaceStart, slots.quenchStart - slots.furnaceStart, slots.quenchEnd - slots.quenchStart, asMs(busyFurnace), asMs(busyStation))
+    const next = nextFreeStart(
+      p.plannedCharge,
+      slots.furnaceEnd - slots.furnaceStart,
+      slots.quenchStart - slots.furnaceStart,
+      slots.quenchEnd - slots.quenchStart,
+      asMs(busyFurnace),
+      asMs(busyStation),
+    )
     throw createError({
       statusCode: 409,
       statusMessage: `${where} is taken by ${other.loadNumber}`,
@@ -186,7 +193,8 @@ export async function moveBooking(id: number, input: BookingMove, actor: Pick<Se
       if (current.state !== 'planned') {
         throw createError({ statusCode: 409, statusMessage: `Only a booked load can be moved; ${current.loadNumber} is ${BATCH_STATE_LABELS[current.state]}` })
       }
-      const { furnace, station, settings, d, slots } = await checkPlacement(tx, { ...input, plannedCharge, planRevisionId: current.planRevisionId, mass_kg: current.mass_kg }, id)
+      const placement = { ...input, plannedCharge, planRevisionId: current.planRevisionId, mass_kg: current.mass_kg }
+      const { furnace, station, settings, d, slots } = await checkPlacement(tx, placement, id)
       await tx
         .update(batches)
         // A move is a re-booking: the durations come from the shop settings of today, as a new booking's would.

@@ -4,5 +4,9 @@ import { asc, eq } from 'drizzle-orm'
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'audit.read')
   const { auditLog, users } = tables
-  return await useDb().selectDistinct({ id: users.id, name: users.displayName }).from(auditLog).innerJoin(users, eq(users.id, auditLog.actorId)).orderBy(asc(users.displayName))
+  return await useDb()
+    .selectDistinct({ id: users.id, name: users.displayName })
+    .from(auditLog)
+    .innerJoin(users, eq(users.id, auditLog.actorId))
+    .orderBy(asc(users.displayName))
 })
