@@ -154,8 +154,8 @@ for (const [name, problemOf] of cases) {
   const [shotMs] = interleavedMedians([(n) => shoot(spec, slowest * perturbed(n), shootingAccuracy(ACCURACY_K).fine)])
   const cnMs = cnMsOf.get('graded rod (case + core)') as number
   console.log(
-    `\ngraded rod: one shooting integration of the slowest mode takes ${shotMs.toFixed(4)} ms, already ${(shotMs / (cnMs / 50)).toFixed(1)}× `
-    + `the whole series budget that 50× faster than Crank–Nicolson (${cnMs.toFixed(3)} ms) would leave.`,
+    `\ngraded rod: one shooting integration of the slowest mode takes ${shotMs.toFixed(4)} ms, already ${(shotMs / (cnMs / 50)).toFixed(1)}× ` +
+    `the whole series budget that 50× faster than Crank–Nicolson (${cnMs.toFixed(3)} ms) would leave.`,
   )
 }
 

@@ -33,7 +33,8 @@ try {
   const start = Date.UTC(2031, 0, 5)
   const quarter = 91 * DAY
   const spacing = Math.floor(quarter / (BATCHES / FURNACES))
-  const rows = Array.from({ length: BATCHES }, (_, i) => benchBatch(i + 1, plans[i % plans.length]!, lines[i % FURNACES]!, start + Math.floor(i / FURNACES) * spacing))
+  const rows = Array.from({ length: BATCHES }, (_, i) =>
+    benchBatch(i + 1, plans[i % plans.length]!, lines[i % FURNACES]!, start + Math.floor(i / FURNACES) * spacing))
   const seedStart = performance.now()
   await insertBatches(db, rows)
   console.log(`[bench] seeded ${BATCHES} batches on ${FURNACES} furnaces over 91 days in ${(performance.now() - seedStart).toFixed(0)} ms (scratch database ${scratch.name})`)

@@ -62,7 +62,8 @@ try {
   const perLane = Math.floor(WEEK / cycle_ms) - 1
   const lines = await benchLines(scratch.db, Math.ceil(BUSY / perLane))
   const week = (from: number, count: number, first: number) =>
-    Array.from({ length: count }, (_, i) => benchBatch(first + i, plan, lines[i % lines.length]!, from + Math.floor(i / lines.length) * cycle_ms + (i % 7) * 60_000))
+    Array.from({ length: count }, (_, i) =>
+      benchBatch(first + i, plan, lines[i % lines.length]!, from + Math.floor(i / lines.length) * cycle_ms + (i % 7) * 60_000))
   await insertBatches(scratch.db, [...week(monday + WEEK, QUIET, 1), ...week(monday + 2 * WEEK, BUSY, QUIET + 1)])
   console.log(`[bench] seeded ${QUIET} loads next week and ${BUSY} the week after on ${lines.length} furnaces, each with its own tank (scratch database ${scratch.name})`)
 
@@ -119,7 +120,7 @@ try {
     }
     console.log(
       `\n${BUSY} vs ${QUIET} loads: draw ${(busy.draw_ms / quiet.draw_ms).toFixed(2)}×, frame p95 ${(busy.frames.p95 / quiet.frames.p95).toFixed(2)}×; ` +
-        `frame p95 with ${BUSY} loads is ${(busy.frames.p95 / FRAME_MS).toFixed(2)}× the 60 Hz frame.`,
+      `frame p95 with ${BUSY} loads is ${(busy.frames.p95 / FRAME_MS).toFixed(2)}× the 60 Hz frame.`,
     )
   } finally {
     await browser.close()

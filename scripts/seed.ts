@@ -15,7 +15,8 @@ try {
   const parts = Object.entries(seeded).filter(([, total]) => total > 0).map(([table, total]) => `${total} ${table}`)
   console.log(parts.length ? `[seed] demo shop: added ${parts.join(', ')}` : '[seed] every demo table has rows already; left alone')
   const key = process.env.NUXT_RECORD_SEAL_KEY
-  const recordConfig = isSealKey(key) ? { sealKey: key, shopName: DEMO_SHOP_NAME, publicOrigin: publicOriginOf(process.env.NUXT_SITE_ORIGIN, process.env.AUTH_ORIGIN) } : null
+  const publicOrigin = publicOriginOf(process.env.NUXT_SITE_ORIGIN, process.env.AUTH_ORIGIN)
+  const recordConfig = isSealKey(key) ? { sealKey: key, shopName: DEMO_SHOP_NAME, publicOrigin } : null
   const schedule = await seedDemoSchedule(db, recordConfig)
   if (schedule) {
     console.log(`[seed] demo furnaces, quench stations and ${schedule.loads} loads over two days created, ${schedule.records} released loads with their cooldown records`)

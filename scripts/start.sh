@@ -1,12 +1,15 @@
 #!/usr/bin/env bash
 # npm start: everything a new machine needs, then the app on http://localhost:$PORT (3000).
-# Safe to run twice. Ctrl-C stops what this script started.
+# SLAKEWISE_INSTANCES=N starts N server processes on PORT, PORT+1, … over the same
+# database, for a reverse proxy to balance. Safe to run twice. Ctrl-C stops what this script started.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/lib.sh
 mkdir -p .data
 
 PORT=${PORT:-3000}
+INSTANCES=${SLAKEWISE_INSTANCES:-1}
+[[ "$INSTANCES" =~ ^[1-9][0-9]*$ ]] || { echo "[start] SLAKEWISE_INSTANCES must be a whole number of at least 1, not '$INSTANCES'" >&2; exit 2; }
 MAIL_SMTP_PORT=${MAIL_SMTP_PORT:-1025}
 MAIL_WEB_PORT=${MAIL_WEB_PORT:-1080}
 children=()
@@ -52,13 +55,22 @@ export SMTP_URL
 
 build_if_stale
 
-node .output/server/index.mjs &
-children+=($!)
-wait_for_url "http://127.0.0.1:$PORT/api/health" || { echo "[start] the app did not answer on port $PORT" >&2; exit 1; }
+# Separate processes, not Nitro's cluster preset: each has its own port, so any proxy can
+# balance them and one can be restarted alone. Sessions are signed cookies and everything
+# that must happen once is decided in the database, so no instance needs sticky sessions.
+addresses=()
+for ((n = 0; n < INSTANCES; n++)); do
+  PORT=$((PORT + n)) node .output/server/index.mjs &
+  children+=($!)
+  addresses+=("http://localhost:$((PORT + n))")
+done
+for address in "${addresses[@]}"; do
+  wait_for_url "${address/localhost/127.0.0.1}/api/health" || { echo "[start] the app did not answer at $address" >&2; exit 1; }
+done
 
 cat <<MSG
 
-  Slakewise is running:   http://localhost:$PORT
+  Slakewise is running:   ${addresses[*]}
   Mail catcher (inbox):   http://localhost:$MAIL_WEB_PORT   (SMTP on 127.0.0.1:$MAIL_SMTP_PORT)
 
   Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop):

@@ -8,7 +8,7 @@ import type { Role } from './roles'
 
 export const ACCESS = {
   /** Anything every signed-in person may do; per-item rules (e.g. batch moves) decide further. */
-  signedIn: [],
+  'signedIn': [],
   'plans.read': [],
   'plans.edit': ['metallurgist', 'admin'],
   'library.read': [],

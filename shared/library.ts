@@ -1,13 +1,13 @@
 import type { QuenchantKind } from './schemas/quenchant'
 
 export const QUENCHANT_KIND_LABELS: Record<QuenchantKind, string> = {
-  oil: 'Oil',
-  water: 'Water',
-  polymer: 'Polymer solution',
-  salt: 'Salt bath',
+  'oil': 'Oil',
+  'water': 'Water',
+  'polymer': 'Polymer solution',
+  'salt': 'Salt bath',
   'forced-air': 'Forced air',
   'still-air': 'Still air',
-  gas: 'Gas (pressurised)',
+  'gas': 'Gas (pressurised)',
 }
 
 /** Thermal diffusivity α = k / (ρ c_p) in m²/s: how fast a temperature change spreads through the part. */

@@ -58,7 +58,11 @@ export function benchBatch(sequence: number, plan: DemoPlanRevision, line: { fur
     loadNumber: loadNumber('BN', new Date(charge).getUTCFullYear(), sequence), planRevisionId: plan.planRevisionId, ...line, partCount: 20, mass_kg: 400, reference: `Bench ${sequence}`,
     plannedCharge: new Date(charge), furnace_s: d.furnace_s, furnaceIsDefault: d.furnaceIsDefault, minimumSoak_s: d.minimumSoak_s, transfer_s: d.transfer_s,
     quench_s: d.quench_s, quenchToHandling_s: d.quenchToHandling_s, quenchDelayAllowance_s: DEFAULT_SHOP_SETTINGS.quenchDelayAllowance_s,
-    furnaceStart: new Date(slots.furnaceStart), furnaceEnd: new Date(slots.furnaceEnd), quenchStart: new Date(slots.quenchStart), quenchEnd: new Date(slots.quenchEnd), handlingAt: new Date(slots.handlingAt),
+    furnaceStart: new Date(slots.furnaceStart),
+    furnaceEnd: new Date(slots.furnaceEnd),
+    quenchStart: new Date(slots.quenchStart),
+    quenchEnd: new Date(slots.quenchEnd),
+    handlingAt: new Date(slots.handlingAt),
   }
 }
 

@@ -52,7 +52,6 @@ export const signInFailures = mysqlTable('sign_in_failures', {
 })
 export type AuditRow = typeof auditLog.$inferSelect
 
-
 /** Thermal properties in SI. A graded profile, when present, replaces the uniform values in the engine. */
 export const materials = mysqlTable('materials', {
   id: int('id').autoincrement().primaryKey(),

@@ -43,7 +43,6 @@ async function withUniqueName<T>(what: string, work: () => Promise<T>): Promise<
   }
 }
 
-
 /** What the library store reads of a row besides the entry's own fields. */
 interface Stamped {
   id: number

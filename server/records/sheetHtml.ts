@@ -9,7 +9,7 @@ import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, not
 const { ink, temper, bath, alarm } = palette
 
 export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)
 }
 
 const cell = `padding:6px 10px;border-bottom:1px solid ${ink[200]};text-align:left;vertical-align:top;`
@@ -39,15 +39,15 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
 
   const times = table(
     `<tr><th style="${headCell}">Span</th><th style="${headCell}">Planned</th><th style="${headCell}">Recorded</th></tr>` +
-      spanRows(sheet)
-        .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
-        .join(''),
+    spanRows(sheet)
+      .map(([a, b, c]) => `<tr><td style="${cell}">${escapeHtml(a!)}</td><td style="${cell}">${escapeHtml(b!)}</td><td style="${cell}">${escapeHtml(c!)}</td></tr>`)
+      .join(''),
   )
 
   const deviations = sheet.deviations.length
     ? `<div style="background:${alarm[50]};border:1px solid ${alarm[400]};border-radius:6px;padding:10px 14px;color:${alarm[800]};font-size:14px;"><ul style="margin:0;padding-left:18px;">${sheet.deviations
-        .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
-        .join('')}</ul></div>`
+      .map((deviation) => `<li data-rule="${deviation.rule}">${escapeHtml(deviation.message)}</li>`)
+      .join('')}</ul></div>`
     : `<p style="background:${bath[50]};border-radius:6px;padding:10px 14px;color:${bath[800]};font-size:14px;margin:0;">No deviations from the plan.</p>`
 
   // Predicted moments: grey italic with a dashed rule, so they never read as floor entries.
@@ -57,12 +57,12 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
     missing +
     table(
       `<tr><th style="${headCell}">When</th><th style="${headCell}">What</th><th style="${headCell}">Who</th></tr>` +
-        sheet.events
-          .map((event) => {
-            const style = look(event.source === 'predicted')
-            return `<tr data-type="${event.type}" data-source="${event.source}"><td style="${style}white-space:nowrap;">${escapeHtml(eventWhen(event))}</td><td style="${style}">${escapeHtml(eventWhat(event))}</td><td style="${style}">${escapeHtml(event.by)}</td></tr>`
-          })
-          .join(''),
+      sheet.events
+        .map((event) => {
+          const style = look(event.source === 'predicted')
+          return `<tr data-type="${event.type}" data-source="${event.source}"><td style="${style}white-space:nowrap;">${escapeHtml(eventWhen(event))}</td><td style="${style}">${escapeHtml(eventWhat(event))}</td><td style="${style}">${escapeHtml(event.by)}</td></tr>`
+        })
+        .join(''),
     )
 
   const cautions = `<div style="background:${temper[50]};border-left:4px solid ${temper[400]};padding:10px 14px;color:${temper[800]};font-size:13px;line-height:1.5;"><strong>Cautions</strong><ul style="margin:6px 0 0;padding-left:18px;">${sheet.cautions

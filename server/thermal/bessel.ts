@@ -1,4 +1,3 @@
-/// <reference path="./besselPackage.d.ts" />
 /**
  * J0, J1 and their zeros.
  *

@@ -217,7 +217,7 @@ function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: num
 /** Composite Gauss–Legendre projection of the start onto any modes, resolving the fastest one. */
 function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number): Projection {
   const { domain } = input
-  const startAt = typeof input.start === 'number' ? (() => input.start as number) : input.start
+  const startAt = typeof input.start === 'number' ? () => input.start as number : input.start
   const lamMax = Math.sqrt(modes[modes.length - 1].rate * maxCapacityRatio(domain.pieces))
   const rule = weightedRule(domain, Math.min(1 / 16, 1.5 / lamMax), input.breakpoints)
   const nodes = rule.x.length

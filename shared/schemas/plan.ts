@@ -29,11 +29,11 @@ export const PART_SHAPES = ['plate', 'round-bar', 'sphere', 'cylinder', 'block']
 export type PartShape = (typeof PART_SHAPES)[number]
 
 export const PART_SHAPE_LABELS: Record<PartShape, string> = {
-  plate: 'Plate',
+  'plate': 'Plate',
   'round-bar': 'Round bar',
-  sphere: 'Sphere',
-  cylinder: 'Short cylinder',
-  block: 'Rectangular block',
+  'sphere': 'Sphere',
+  'cylinder': 'Short cylinder',
+  'block': 'Rectangular block',
 }
 
 /** Plates, bars and spheres are one-dimensional; short cylinders and blocks use product solutions. */

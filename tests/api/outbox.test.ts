@@ -28,7 +28,19 @@ beforeAll(async () => {
 async function outbox(query = 'limit=500') {
   const response = await admin.request(`/api/outbox?${query}`)
   expect(response.status).toBe(200)
-  return response.body as { counts: Record<string, number>; messages: { id: number; subject: string; status: string; attempts: number; lastError: string | null; sentAt: string | null; to: string[]; attachments: { filename: string; bytes: number }[] }[] }
+  return response.body as {
+    counts: Record<string, number>
+    messages: {
+      id: number
+      subject: string
+      status: string
+      attempts: number
+      lastError: string | null
+      sentAt: string | null
+      to: string[]
+      attachments: { filename: string; bytes: number }[]
+    }[]
+  }
 }
 
 describe('role matrix for the outbox and recipients routes', () => {
@@ -174,7 +186,8 @@ describe('mail recipients', () => {
   it('defaults to the active users of each role', async () => {
     const response = await admin.request('/api/mail-recipients')
     expect(response.status).toBe(200)
-    expect(response.body.map((setting: { kind: string; defaultRole: string; effective: string[] }) => [setting.kind, setting.defaultRole, [...setting.effective].sort()])).toEqual([
+    const settings = response.body as { kind: string; defaultRole: string; effective: string[] }[]
+    expect(settings.map((setting) => [setting.kind, setting.defaultRole, [...setting.effective].sort()])).toEqual([
       ['released_sheet', 'qa', activeByRole.qa],
       ['rejection', 'metallurgist', activeByRole.metallurgist],
       ['daily_digest', 'qa', activeByRole.qa],

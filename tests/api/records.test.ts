@@ -286,7 +286,7 @@ describe('sign-off', () => {
   })
 
   it('a snapshot altered in SQL shows as altered and can no longer be signed; so does a sign-off altered in SQL', async () => {
-    await db.query("UPDATE cooldown_records SET snapshot = JSON_SET(snapshot, '$.batch.partCount', 23) WHERE id = ?", [shortRecord.id])
+    await db.query('UPDATE cooldown_records SET snapshot = JSON_SET(snapshot, \'$.batch.partCount\', 23) WHERE id = ?', [shortRecord.id])
     const altered = (await qa.request(`/api/records/${shortRecord.id}`)).body
     expect(altered.integrity).toBe('altered')
     expect(altered.integrityProblems).toEqual(['The snapshot no longer matches the seal written at release'])
@@ -300,7 +300,7 @@ describe('sign-off', () => {
     expect(sign.status).toBe(409)
     expect(sign.body.statusMessage).toBe('This record was altered after it was written; it cannot be signed')
 
-    await db.query("UPDATE cooldown_records SET sign_comment = 'fine', state = 'approved' WHERE id = ?", [lateRecord.id])
+    await db.query('UPDATE cooldown_records SET sign_comment = \'fine\', state = \'approved\' WHERE id = ?', [lateRecord.id])
     const forged = (await qa.request(`/api/records/${lateRecord.id}`)).body
     expect(forged.integrity).toBe('altered')
     expect(forged.integrityProblems).toEqual(['The sign-off no longer matches its signature'])

@@ -20,7 +20,7 @@ function cookieHeader(jar: Map<string, string>) {
   return [...jar].map(([name, value]) => `${name}=${value}`).join('; ')
 }
 
-function makeClient(jar: Map<string, string>): Client {
+function makeClient(jar: Map<string, string>, baseUrl = BASE_URL): Client {
   return {
     get cookie() {
       return cookieHeader(jar)
@@ -35,7 +35,7 @@ function makeClient(jar: Map<string, string>): Client {
         headers['content-type'] = 'application/json'
         body = JSON.stringify(init.body)
       }
-      const response = await fetch(`${BASE_URL}${path}`, { method: init.method ?? 'GET', headers, body })
+      const response = await fetch(`${baseUrl}${path}`, { method: init.method ?? 'GET', headers, body })
       const text = await response.text()
       let parsed: unknown = text
       try {
@@ -48,25 +48,31 @@ function makeClient(jar: Map<string, string>): Client {
   }
 }
 
+/** The same session (its cookies, copied) sent to another server instance, as a proxy without sticky sessions would. */
+export function sameSessionAt(client: Client, baseUrl: string): Client {
+  const jar = new Map(client.cookie.split('; ').filter(Boolean).map((pair) => [pair.slice(0, pair.indexOf('=')), pair.slice(pair.indexOf('=') + 1)] as [string, string]))
+  return makeClient(jar, baseUrl)
+}
+
 export function anonymous(): Client {
   return makeClient(new Map())
 }
 
 /** Signs in through /api/auth/csrf and /api/auth/callback/credentials. Resolves to null on refusal. */
-export async function signInAs(email: string, password: string): Promise<Client | null> {
+export async function signInAs(email: string, password: string, baseUrl = BASE_URL): Promise<Client | null> {
   const jar = new Map<string, string>()
-  const csrfResponse = await fetch(`${BASE_URL}/api/auth/csrf`)
+  const csrfResponse = await fetch(`${baseUrl}/api/auth/csrf`)
   mergeCookies(jar, csrfResponse)
   const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string }
   const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: '/' })
-  const response = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
+  const response = await fetch(`${baseUrl}/api/auth/callback/credentials`, {
     method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookieHeader(jar) },
+    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': cookieHeader(jar) },
     body: form,
     redirect: 'manual',
   })
   mergeCookies(jar, response)
-  return [...jar.keys()].some((name) => name.endsWith('next-auth.session-token')) ? makeClient(jar) : null
+  return [...jar.keys()].some((name) => name.endsWith('next-auth.session-token')) ? makeClient(jar, baseUrl) : null
 }
 
 export function demoUser(role: Role) {

@@ -83,7 +83,7 @@ export async function waitForMail(select: (mail: CaughtMail) => boolean, count: 
   try {
     await until(async () => (seen = (await caughtMail()).filter(select)).length, (found) => found >= count, seconds, `Expected ${count} message(s)`)
   } catch (error) {
-    throw new Error(`${(error as Error).message}; saw ${seen.length}`)
+    throw new Error(`${(error as Error).message}; saw ${seen.length}`, { cause: error })
   }
   return seen
 }

@@ -16,7 +16,7 @@ import { bisect } from './bisect'
 
 export interface ReferenceBody {
   /** Half-thickness (slab) or radius (rod) of each finite direction. */
-  directions: { geometry: 'slab' | 'rod', size_m: number }[]
+  directions: { geometry: 'slab' | 'rod'; size_m: number }[]
   k_W_mK: number
   rhoCp_J_m3K: number
   h_W_m2K: number

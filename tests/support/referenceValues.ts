@@ -35,7 +35,7 @@ export const biotRoots: BiotRoots[] = geometries.flatMap((geometry) =>
 )
 
 /** The first root and coefficient for one geometry and Biot number of the grid. */
-export function firstMode(geometry: Geometry, bi: number): { zeta: number, c1: number } {
+export function firstMode(geometry: Geometry, bi: number): { zeta: number; c1: number } {
   const row = biotRoots.find((r) => r.geometry === geometry && r.bi === bi)
   if (!row) throw new Error(`no reference roots for ${geometry} at Bi = ${bi}`)
   return { zeta: row.roots[0]!, c1: row.coefficients[0]! }

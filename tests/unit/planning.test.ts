@@ -199,8 +199,8 @@ describe('curve CSV', () => {
   it('has units in the header, one CRLF row per curve time, three decimals', () => {
     expect(curveCsv(result)).toBe(
       'time (s),centre (°C),surface (°C),mean (°C),handling point at low coefficients (°C),handling point at high coefficients (°C)\r\n' +
-        '0.000,850.000,850.000,850.000,850.000,850.000\r\n' +
-        '12.500,100.000,60.250,80.000,120.000,90.000\r\n',
+      '0.000,850.000,850.000,850.000,850.000,850.000\r\n' +
+      '12.500,100.000,60.250,80.000,120.000,90.000\r\n',
     )
   })
 

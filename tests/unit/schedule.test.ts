@@ -176,7 +176,7 @@ describe('floor countdown', () => {
     expect(later.coreNow_C).toBeCloseTo(pointValue(pin.handlingPointSeries, 60), 9)
     expect(later.seconds).toBeCloseTo(pin.quenchToHandling_s - 60, 2)
   })
-  it("the caption names the handling temperature in the reader's unit (°F by definition: 100 °C = 212 °F)", () => {
+  it('the caption names the handling temperature in the reader\'s unit (°F by definition: 100 °C = 212 °F)', () => {
     expect(floorCountdown(batch, quenchedAt, 7200).caption).toBe(`until the core is below ${pin.handling_C} °C`)
     const fahrenheit = (c: number) => `${(c * 9) / 5 + 32} °F`
     expect(pin.handling_C).toBe(100)

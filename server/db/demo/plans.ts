@@ -70,7 +70,10 @@ export async function seedDemoPlans(db: Database): Promise<number> {
   if (total > 0) return 0
   const [metallurgist] = await db.select({ id: users.id }).from(users).where(eq(users.role, 'metallurgist'))
   if (!metallurgist) return 0
-  const materialRows = await db.select({ id: materials.id, name: materials.name }).from(materials).where(inArray(materials.name, DEMO_PLANS.map((p) => p.material)))
+  const materialRows = await db
+    .select({ id: materials.id, name: materials.name })
+    .from(materials)
+    .where(inArray(materials.name, DEMO_PLANS.map((p) => p.material)))
   const quenchantRows = await db
     .select({ id: quenchants.id, name: quenchants.name })
     .from(quenchants)

@@ -40,7 +40,7 @@ const ROOM_TEMPERATURE_ROWS: [string, AlloyClass][] = [
 // Common practice, from memory: carbon and low-alloy steels 8–20 mm²/s and 7750–7900 kg/m³;
 // austenitic stainless ≈ 3.5–4.5 mm²/s and 7850–8300 kg/m³ (Mo-bearing grades at the top).
 // The stainless lower bound is 3.3: the seed's AISI 316 gives 3.48 (see DEVELOPERS.md, provenance).
-const CLASS_RANGES: Record<AlloyClass, { alpha_mm2_s: [number, number], density_kg_m3: [number, number] }> = {
+const CLASS_RANGES: Record<AlloyClass, { alpha_mm2_s: [number, number]; density_kg_m3: [number, number] }> = {
   'carbon or low-alloy': { alpha_mm2_s: [8, 20], density_kg_m3: [7750, 7900] },
   'austenitic stainless': { alpha_mm2_s: [3.3, 4.5], density_kg_m3: [7850, 8300] },
 }

@@ -17,9 +17,9 @@ describe('renderCurveCsv', () => {
     ])
     expect(csv).toBe(
       'time_since_quench_s,time_since_quench_min,handling_point_temperature_C\r\n' +
-        '0.0,0.00,850.0\r\n' +
-        '90.0,1.50,683.4\r\n' +
-        '1234.6,20.58,100.0\r\n',
+      '0.0,0.00,850.0\r\n' +
+      '90.0,1.50,683.4\r\n' +
+      '1234.6,20.58,100.0\r\n',
     )
   })
 

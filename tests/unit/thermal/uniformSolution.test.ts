@@ -73,7 +73,12 @@ function readings(problem: CooldownProblem, options: SolveOptions, solve: typeof
     initial_C: xs.map((x) => s.initialAt(x)),
     centreX: s.centreX,
     summaries: s.summaries,
-    points: refs.map((at) => s.pointSeries(at).map(({ steady_C, terms, ...rest }) => ({ ...rest, steady_C, terms: terms.map((t) => ({ amplitude_K: t.amplitude_K, rate: t.decayRate_per_s })) }))),
+    points: refs.map((at) =>
+      s.pointSeries(at).map(({ steady_C, terms, ...rest }) => ({
+        ...rest,
+        steady_C,
+        terms: terms.map((t) => ({ amplitude_K: t.amplitude_K, rate: t.decayRate_per_s })),
+      }))),
     target: targets.map(([at, target]) => s.targetTime(at, target)),
     domain: s.domain,
     stages: s.stages.map((st) => ({
