@@ -1,10 +1,11 @@
 /**
  * Usage: npm run --silent cooldown -- case.json [--check]
  * Prints the result JSON on stdout; a bad case prints "field: message" on stderr
- * and exits 2.
+ * and exits 2, as does a case that needs more than the engine's time budget.
  */
 import { readFileSync } from 'node:fs'
-import { CaseError } from '../server/thermal/caseSchema'
+import { COMPUTE_BUDGET_MS, Deadline } from '../server/thermal/deadline'
+import { CaseError } from '../server/thermal/errors'
 import { runCase } from '../server/thermal/runCase'
 
 const args = process.argv.slice(2)
@@ -21,7 +22,8 @@ try {
   process.exit(2)
 }
 try {
-  const result = runCase(input, args.includes('--check') ? { check: 'finite-difference' } : {})
+  const deadline = new Deadline(COMPUTE_BUDGET_MS)
+  const result = runCase(input, args.includes('--check') ? { check: 'finite-difference', deadline } : { deadline })
   process.stdout.write(`${JSON.stringify(result, null, 2)}\n`)
 } catch (error) {
   if (error instanceof CaseError) {

@@ -6,7 +6,8 @@
  * cooldown case accepts and is checked by the case schema itself.
  */
 import { z } from 'zod'
-import { CaseError, caseToProblem, parseCase } from '../thermal/caseSchema'
+import { caseToProblem, parseCase } from '../thermal/caseSchema'
+import { CaseError } from '../thermal/errors'
 import type { CooldownProblem, Geometry } from '../thermal/types'
 
 export class FitError extends Error {

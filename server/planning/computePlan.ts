@@ -8,7 +8,8 @@
  * solutions (../thermal/productSolution.ts): uniform properties, every stage at
  * the same bath temperature, handling point centre or mean.
  */
-import { CaseError } from '../thermal/caseSchema'
+import type { Deadline } from '../thermal/deadline'
+import { CaseError, WHOLE_CASE } from '../thermal/errors'
 import { runCase, type CaseResult } from '../thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
 import type { CoefficientChoice, QuenchantSnapshot, ResolvedPlan } from '../../shared/schemas/plan'
@@ -129,11 +130,13 @@ function inPlanTerms<T>(context: 'quench' | 'heat-up', run: () => T): T {
     return run()
   } catch (error) {
     if (!(error instanceof CaseError)) throw error
-    throw new CaseError(planField(error.field, context), error.message.replace(/^[^:]*: /, ''))
+    throw new CaseError(planField(error.field, context), error.reason)
   }
 }
 
 export function planField(field: string, context: 'quench' | 'heat-up'): string {
+  // A limit of a uniform or product case: its stages are what makes it heavy.
+  if (field === WHOLE_CASE) return context === 'heat-up' ? 'soak' : 'stages'
   if (field.startsWith('materialId') || field.startsWith('handling') || field.startsWith('part')) return field
   if (field.startsWith('material')) return 'materialId'
   if (field === 'size_m') return 'part'
@@ -173,26 +176,27 @@ interface Runs {
   heatUp: ModelRun | null
 }
 
-function runAll(plan: ResolvedPlan): Runs {
+/** Every run of one computation shares the deadline: it bounds the preview, not each run. */
+function runAll(plan: ResolvedPlan, deadline: Deadline | undefined): Runs {
   const body = engineBody(plan.part)
   if (body.kind === 'series') {
-    const headline = inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan))))
+    const headline = inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan), { deadline })))
     const times_s = profileTimes(headline.targetTime_s)
     return {
       headline,
-      detailed: inPlanTerms('quench', () => fromRunCase(runCase({ ...quenchCase(plan), times_s }))),
-      low: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'low')))),
-      high: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'high')))),
-      heatUp: plan.soak ? inPlanTerms('heat-up', () => fromRunCase(runCase(heatUpCase(plan)))) : null,
+      detailed: inPlanTerms('quench', () => fromRunCase(runCase({ ...quenchCase(plan), times_s }, { deadline }))),
+      low: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'low'), { deadline }))),
+      high: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'high'), { deadline }))),
+      heatUp: plan.soak ? inPlanTerms('heat-up', () => fromRunCase(runCase(heatUpCase(plan), { deadline }))) : null,
     }
   }
-  const headline = inPlanTerms('quench', () => runProduct(productInput(plan)))
+  const headline = inPlanTerms('quench', () => runProduct(productInput(plan), { deadline }))
   return {
     headline,
-    detailed: inPlanTerms('quench', () => runProduct(productInput(plan), { times_s: profileTimes(headline.targetTime_s) })),
-    low: inPlanTerms('quench', () => runProduct(productInput(plan, 'low'))),
-    high: inPlanTerms('quench', () => runProduct(productInput(plan, 'high'))),
-    heatUp: plan.soak ? inPlanTerms('heat-up', () => runProduct(heatUpProductInput(plan))) : null,
+    detailed: inPlanTerms('quench', () => runProduct(productInput(plan), { times_s: profileTimes(headline.targetTime_s), deadline })),
+    low: inPlanTerms('quench', () => runProduct(productInput(plan, 'low'), { deadline })),
+    high: inPlanTerms('quench', () => runProduct(productInput(plan, 'high'), { deadline })),
+    heatUp: plan.soak ? inPlanTerms('heat-up', () => runProduct(heatUpProductInput(plan), { deadline })) : null,
   }
 }
 
@@ -200,8 +204,8 @@ function profileTimes(target_s: number): number[] {
   return Array.from({ length: PROFILE_TIMES }, (_, i) => (1.25 * target_s * i) / (PROFILE_TIMES - 1))
 }
 
-export function computePlan(plan: ResolvedPlan): PlanResult {
-  const runs = runAll(plan)
+export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline } = {}): PlanResult {
+  const runs = runAll(plan, options.deadline)
   const quenchants = stageQuenchants(plan)
   const props = averageProperties(plan)
   const L = characteristicLength_m(plan.part)
@@ -272,17 +276,18 @@ export function computePlan(plan: ResolvedPlan): PlanResult {
 }
 
 /** Re-solves the quench with Crank–Nicolson and reports the largest difference from the series. */
-export function checkPlan(plan: ResolvedPlan): PlanCheckResult {
+export function checkPlan(plan: ResolvedPlan, options: { deadline?: Deadline } = {}): PlanCheckResult {
+  const { deadline } = options
   const body = engineBody(plan.part)
   if (body.kind === 'series') {
-    const result = inPlanTerms('quench', () => runCase(quenchCase(plan), { check: 'finite-difference' }))
+    const result = inPlanTerms('quench', () => runCase(quenchCase(plan), { check: 'finite-difference', deadline }))
     return { maxDifference_K: result.check!.maxDifference_K, how: 'Crank–Nicolson against the series at 12 curve times, centre, mid-radius and surface' }
   }
   const input = inPlanTerms('quench', () => productInput(plan))
-  const run = inPlanTerms('quench', () => runProduct(input))
+  const run = inPlanTerms('quench', () => runProduct(input, { deadline }))
   const times = Array.from({ length: 12 }, (_, i) => (run.targetTime_s * 1.25 * (i + 1)) / 12)
   return {
-    maxDifference_K: inPlanTerms('quench', () => checkProduct(input, times)),
+    maxDifference_K: inPlanTerms('quench', () => checkProduct(input, times, deadline)),
     how: 'Crank–Nicolson against each 1-D factor at 12 times; the sum over directions bounds the product’s difference',
   }
 }

@@ -3,7 +3,8 @@ import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
-import { CaseError } from '../thermal/caseSchema'
+import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
+import { CaseError } from '../thermal/errors'
 import { checkPlan, computePlan } from './computePlan'
 import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanSummary } from '../../shared/types/plan'
@@ -56,13 +57,16 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
   }
 }
 
-/** Engine refusals (CaseError) are 422 naming the plan field; anything else is a real failure. */
+/**
+ * Engine refusals (CaseError, EngineLimitError) are 422 naming the plan field; anything else
+ * is a real failure. Each computation gets the engine's time budget, so no plan holds the server.
+ */
 function engine<T>(run: () => T): T {
   try {
     return run()
   } catch (error) {
     if (error instanceof CaseError) {
-      const message = error.message.replace(/^[^:]*: /, '')
+      const message = error.reason
       throw createError({
         statusCode: 422,
         statusMessage: 'This plan cannot be computed',
@@ -74,8 +78,8 @@ function engine<T>(run: () => T): T {
   }
 }
 
-export const computeResolved = (plan: ResolvedPlan): PlanResult => engine(() => computePlan(plan))
-export const checkResolved = (plan: ResolvedPlan): PlanCheckResult => engine(() => checkPlan(plan))
+export const computeResolved = (plan: ResolvedPlan): PlanResult => engine(() => computePlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
+export const checkResolved = (plan: ResolvedPlan): PlanCheckResult => engine(() => checkPlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
 
 export async function previewPlan(spec: PlanSpec): Promise<PlanResult> {
   return computeResolved(await resolvePlan(spec))

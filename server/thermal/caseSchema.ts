@@ -4,24 +4,18 @@
  * ("stages.0.surface.h") through CaseError.
  */
 import { z } from 'zod'
+import { CASE_LIMITS, PHYSICAL, inRange, profileLimitIssues } from '../../shared/physicalBounds'
+import { CaseError } from './errors'
 import { interpolate } from './propertyTable'
 import type { Boundary, CooldownProblem, HeatTransferPoint, PropertyPoint, Stage, ThermalTableRow } from './types'
 
-export class CaseError extends Error {
-  constructor(
-    readonly field: string,
-    message: string,
-  ) {
-    super(`${field}: ${message}`)
-    this.name = 'CaseError'
-  }
-}
-
 const finite = z.number().finite()
-const positive = finite.positive()
+const temperature = inRange(PHYSICAL.temperature_C)
+const fraction = finite.min(0).max(1)
+const tablePoints = (what: string) => `at most ${CASE_LIMITS.profilePoints} ${what}`
 
 /** A heat-transfer curve point: h (W/m²K) at a surface temperature T_C. */
-const curvePoint = z.object({ T_C: finite, h: positive }).strict()
+const curvePoint = z.object({ T_C: temperature, h: inRange(PHYSICAL.heatTransfer_W_m2K) }).strict()
 
 /**
  * { h or hCurve, ambient_C, emissivity? } or { fixed_C }, checked field by field so
@@ -29,11 +23,11 @@ const curvePoint = z.object({ T_C: finite, h: positive }).strict()
  */
 const surfaceSchema = z
   .object({
-    h: positive.optional(),
-    hCurve: z.array(curvePoint).min(3, 'a heat-transfer curve needs at least three points').optional(),
+    h: inRange(PHYSICAL.heatTransfer_W_m2K).optional(),
+    hCurve: z.array(curvePoint).min(3, 'a heat-transfer curve needs at least three points').max(CASE_LIMITS.profilePoints, tablePoints('points')).optional(),
     emissivity: finite.min(0, 'must be between 0 and 1').max(1, 'must be between 0 and 1').optional(),
-    ambient_C: finite.optional(),
-    fixed_C: finite.optional(),
+    ambient_C: temperature.optional(),
+    fixed_C: temperature.optional(),
   })
   .strict()
   .superRefine((s, ctx) => {
@@ -48,18 +42,25 @@ const surfaceSchema = z
     if (s.ambient_C === undefined) ctx.addIssue({ code: 'custom', path: ['ambient_C'], message: 'a convective surface needs ambient_C' })
   })
 
-const profilePoint = z.object({ x: finite, k: positive, rhoCp: positive }).strict()
+const profilePoint = z.object({ x: finite, k: inRange(PHYSICAL.conductivity_W_mK), rhoCp: inRange(PHYSICAL.volumetricHeatCapacity_J_m3K) }).strict()
 
 /** A material table row; rho may be left out after the first row, which then carries the row above's. */
-const tableRow = z.object({ T_C: finite, k: positive, rho: positive.optional(), cp: positive }).strict()
+const tableRow = z
+  .object({
+    T_C: temperature,
+    k: inRange(PHYSICAL.conductivity_W_mK),
+    rho: inRange(PHYSICAL.density_kg_m3).optional(),
+    cp: inRange(PHYSICAL.specificHeat_J_kgK),
+  })
+  .strict()
 
 const materialSchema = z
   .object({
-    k: positive.optional(),
-    rho: positive.optional(),
-    cp: positive.optional(),
-    profile: z.array(profilePoint).min(2).optional(),
-    table: z.array(tableRow).min(2, 'a material table needs at least two rows').optional(),
+    k: inRange(PHYSICAL.conductivity_W_mK).optional(),
+    rho: inRange(PHYSICAL.density_kg_m3).optional(),
+    cp: inRange(PHYSICAL.specificHeat_J_kgK).optional(),
+    profile: z.array(profilePoint).min(2).max(CASE_LIMITS.profilePoints, tablePoints('points')).optional(),
+    table: z.array(tableRow).min(2, 'a material table needs at least two rows').max(CASE_LIMITS.profilePoints, tablePoints('rows')).optional(),
   })
   .strict()
   .superRefine((mat, ctx) => {
@@ -67,6 +68,7 @@ const materialSchema = z
     if (forms > 1) ctx.addIssue({ code: 'custom', path: [mat.table ? 'table' : 'profile'], message: 'give one of k, rho, cp or a profile or a table' })
     if (mat.profile) {
       tableIssues(mat.profile, ['profile'], ctx)
+      for (const issue of profileLimitIssues(mat.profile)) ctx.addIssue({ code: 'custom', path: ['profile', issue.index, issue.key], message: issue.message })
       return
     }
     if (mat.table) {
@@ -78,12 +80,12 @@ const materialSchema = z
       if (mat[key] === undefined) ctx.addIssue({ code: 'custom', path: [key], message: `a uniform material needs ${key} (> 0)` })
   })
 
-const stageSchema = z.object({ surface: surfaceSchema, duration_s: positive.optional() }).strict()
+const stageSchema = z.object({ surface: surfaceSchema, duration_s: inRange(PHYSICAL.stageDuration_s).optional() }).strict()
 
-const pointRef = z.union([z.enum(['centre', 'surface', 'mean']), z.object({ x: finite.min(0).max(1) }).strict()])
+const pointRef = z.union([z.enum(['centre', 'surface', 'mean']), z.object({ x: fraction }).strict()])
 
 const targetSchema = z
-  .object({ at: pointRef.default('centre'), below_C: finite.optional(), above_C: finite.optional() })
+  .object({ at: pointRef.default('centre'), below_C: temperature.optional(), above_C: temperature.optional() })
   .strict()
   .superRefine((t, ctx) => {
     if ((t.below_C === undefined) === (t.above_C === undefined))
@@ -93,15 +95,15 @@ const targetSchema = z
 export const caseSchema = z
   .object({
     geometry: z.enum(['slab', 'rod', 'sphere']),
-    size_m: positive,
+    size_m: inRange(PHYSICAL.engineSize_m),
     material: materialSchema,
-    initial_C: finite.optional(),
-    initialProfile: z.array(z.object({ x: finite, T_C: finite }).strict()).min(2).optional(),
+    initial_C: temperature.optional(),
+    initialProfile: z.array(z.object({ x: finite, T_C: temperature }).strict()).min(2).max(CASE_LIMITS.profilePoints, tablePoints('points')).optional(),
     centre: z.union([z.literal('symmetry'), surfaceSchema]).default('symmetry'),
-    stages: z.array(stageSchema).min(1),
+    stages: z.array(stageSchema).min(1).max(CASE_LIMITS.stages, `at most ${CASE_LIMITS.stages} stages`),
     target: targetSchema.optional(),
-    points: z.array(finite.min(0).max(1)).optional(),
-    times_s: z.array(finite.nonnegative()).optional(),
+    points: z.array(fraction).max(CASE_LIMITS.readingPoints, `at most ${CASE_LIMITS.readingPoints} points`).optional(),
+    times_s: z.array(inRange(PHYSICAL.readingTime_s)).max(CASE_LIMITS.readingTimes, `at most ${CASE_LIMITS.readingTimes} times`).optional(),
     modes: z.number().int().min(1).max(400).optional(),
     check: z.literal('finite-difference').optional(),
   })

@@ -30,6 +30,7 @@
  * Biot solution, discrete energy conservation and second-order grid convergence
  * (tests/unit/thermal/crankNicolson.test.ts).
  */
+import type { Deadline } from './deadline'
 import { GEOMETRY_EXPONENT, type Boundary, type CooldownProblem, type Stage } from './types'
 import { solveTridiagonal } from './tridiagonal'
 
@@ -48,6 +49,8 @@ export interface CrankNicolsonOptions {
    * looser accuracy can tune the step as well as the grid.
    */
   rampRate?: number
+  /** Checked every few dozen steps; absent, the solve takes the time it needs. */
+  deadline?: Deadline
 }
 
 export interface CrankNicolsonResult {
@@ -329,6 +332,7 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
 
   let t = 0
   let nextOut = 0
+  let steps = 0
   for (let k = 0; k < stages.length && nextOut < times.length; k++) {
     const stage = stages[k]
     const inner = link(stage.inner, halfResLeft[0])
@@ -376,6 +380,7 @@ export function solveCrankNicolson(problem: CooldownProblem, opts: CrankNicolson
       T.set(next)
       t = landing ? target : t + dt
       sinceStart += dt
+      if (++steps % 64 === 0) opts.deadline?.check()
       while (nextOut < times.length && times[nextOut] <= t) sample(stage, inner, outer, times[nextOut++])
     }
   }

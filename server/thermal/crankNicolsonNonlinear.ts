@@ -20,6 +20,8 @@
  * Refined until the answer stops changing in tests/unit/thermal/temperatureDependent.test.ts,
  * and checked against the Kirchhoff closed form there.
  */
+import type { Deadline } from './deadline'
+import { EngineLimitError } from './errors'
 import { interpolate, materialCurves } from './propertyTable'
 import { surfaceLaw, type SurfaceLaw } from './surfaceCurve'
 import { solveTridiagonal } from './tridiagonal'
@@ -34,6 +36,8 @@ export interface NonlinearCrankNicolsonOptions {
   cells?: number
   /** Growth rate r of the step since each stage start (default 0.01). */
   rampRate?: number
+  /** Checked every 16 steps; absent, the solve takes the time it needs. */
+  deadline?: Deadline
 }
 
 export interface NonlinearCrankNicolsonResult {
@@ -148,6 +152,7 @@ export function solveCrankNicolsonNonlinear(problem: CooldownProblem, opts: Nonl
   let nextOut = 0
   let t = 0
   let stageStart = 0
+  let steps = 0
   for (let s = 0; s < stages.length && nextOut < times.length; s++) {
     inner = faceOf(stages[s].inner)
     outer = faceOf(stages[s].outer)
@@ -185,10 +190,11 @@ export function solveCrankNicolsonNonlinear(problem: CooldownProblem, opts: Nonl
         for (let i = 0; i < N; i++) change = Math.max(change, Math.abs(next[i] - iterate[i]))
         iterate.set(next)
         if (change < PICARD_TOLERANCE_K) break
-        if (sweep >= MAX_PICARD) throw new RangeError('rampRate: the steps are too long for the coefficients to settle; use a smaller rampRate')
+        if (sweep >= MAX_PICARD || !Number.isFinite(change)) throw new EngineLimitError(`the finite-volume check did not settle in ${MAX_PICARD} sweeps of a step`)
       }
       T.set(iterate)
       t = landing ? target : t + dt
+      if (++steps % 16 === 0) opts.deadline?.check()
       while (nextOut < times.length && times[nextOut] <= t) sample(times[nextOut++])
     }
     stageStart = stageEnd

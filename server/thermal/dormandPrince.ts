@@ -8,6 +8,9 @@
  * the state (f, p) is continuous but its derivative is not.
  */
 
+import type { Deadline } from './deadline'
+import { EngineLimitError } from './errors'
+
 export type Rhs = (x: number, y: Float64Array, dydx: Float64Array) => void
 
 export interface DenseSegment {
@@ -40,7 +43,12 @@ export interface IntegrateOptions {
    * carried along for a first-order correction need no error control of their own.
    */
   errorComponents?: number
+  /** Checked every DEADLINE_STRIDE steps. */
+  deadline?: Deadline
 }
+
+/** Steps between deadline checks: a few hundred microseconds of work. */
+const DEADLINE_STRIDE = 256
 
 export interface IntegrateResult {
   y: Float64Array
@@ -83,7 +91,8 @@ export function integrate(rhs: Rhs, x0: number, y0: Float64Array, x1: number, op
   let steps = 0
   let rejectedLast = false
   while (x < x1) {
-    if (steps++ > maxSteps) throw new RangeError('dormandPrince: too many steps')
+    if (steps++ > maxSteps) throw new EngineLimitError(`an integration needed more than ${maxSteps} steps; smooth the profile or reduce its jumps`)
+    if (steps % DEADLINE_STRIDE === 0) options.deadline?.check()
     let last = false
     if (x + h >= x1 || x + 1.01 * h >= x1) {
       h = x1 - x
@@ -109,6 +118,8 @@ export function integrate(rhs: Rhs, x0: number, y0: Float64Array, x1: number, op
       err += (e / sc) ** 2
     }
     err = Math.sqrt(err / controlled)
+    // NaN would fail both branches' tests and shrink h forever.
+    if (Number.isNaN(err)) throw new EngineLimitError('an integration met a non-finite value')
     if (err <= 1) {
       if (options.dense) {
         const rc = new Float64Array(5 * n)

@@ -5,6 +5,7 @@
  * — symmetric, one fixed or convective inner face, or two different faces — has
  * the closed form cos(λx − atan(Bi₀/λ)), so shooting is only used for graded bodies.
  */
+import type { Deadline } from './deadline'
 import { rodRoot, slabRoot, sphereRoot, surfaceValues, uniformShape, type SurfaceValues } from './eigenRoots'
 import type { ScaledDomain } from './properties'
 import { FINE_SHOOTING, shootingModes, type ShootingAccuracy } from './shooting'
@@ -20,8 +21,8 @@ export interface Mode {
 
 export interface ModeFamily {
   analytic: boolean
-  /** n-th mode, n ≥ 1 (n − 1 interior zeros). */
-  mode: (n: number) => Mode
+  /** n-th mode, n ≥ 1 (n − 1 interior zeros); a graded family checks the caller's deadline between shots. */
+  mode: (n: number, deadline?: Deadline) => Mode
 }
 
 /**
@@ -42,7 +43,7 @@ const UNIFORM_CACHE_SIZE = 64
  * more modes adds to the same list. A hit is exact: the modes depend on nothing
  * else than the key (scaled properties, Biot numbers, shooting accuracy).
  */
-const gradedModes = new Map<string, (n: number) => Mode>()
+const gradedModes = new Map<string, (n: number, deadline?: Deadline) => Mode>()
 const GRADED_CACHE_SIZE = 32
 
 /**

@@ -15,7 +15,9 @@
  * integral factorises). Checked in tests/unit/thermal/productSolution.test.ts
  * against closed-form slab and rod series, one-term values and a worked example.
  */
-import { CaseError, caseToProblem, parseCase } from './caseSchema'
+import { caseToProblem, parseCase } from './caseSchema'
+import type { Deadline } from './deadline'
+import { CaseError } from './errors'
 import { solveCrankNicolson } from './crankNicolson'
 import { brent } from './roots'
 import { CURVE_POINTS, FIRST_PASS_FO, PROFILE_X, curveTimes, stageStarts } from './runCase'
@@ -80,7 +82,7 @@ interface Factors {
  */
 const UNDISTURBED_FO = 0.002
 
-function solveFactors(input: ProductInput, earliest: (size_m: number) => number): Factors {
+function solveFactors(input: ProductInput, earliest: (size_m: number) => number, deadline: Deadline | undefined): Factors {
   const ambient_C = input.stages[0]!.ambient_C
   if (input.stages.some((s) => s.ambient_C !== ambient_C)) {
     throw new CaseError(
@@ -92,7 +94,7 @@ function solveFactors(input: ProductInput, earliest: (size_m: number) => number)
   const alpha = input.material.k / (input.material.rho * input.material.cp)
   const undisturbed_s = input.body.directions.map((d) => (UNDISTURBED_FO * d.size_m * d.size_m) / alpha)
   const solutions = input.body.directions.map((d, i) =>
-    solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m))), { earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!) }),
+    solveCooldown(caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m))), { earliest_s: Math.max(earliest(d.size_m), undisturbed_s[i]!), deadline }),
   )
   return {
     ambient_C,
@@ -103,19 +105,19 @@ function solveFactors(input: ProductInput, earliest: (size_m: number) => number)
   }
 }
 
-export function runProduct(input: ProductInput, options: { times_s?: number[] } = {}): ModelRun {
+export function runProduct(input: ProductInput, options: { times_s?: number[]; deadline?: Deadline } = {}): ModelRun {
   const alpha = input.material.k / (input.material.rho * input.material.cp)
   const sizes = input.body.directions.map((d) => d.size_m)
   const shortest = Math.min(...sizes)
   const goal = input.target.below_C ?? (input.target.above_C as number)
   // A cheap first pass (accurate from FIRST_PASS_FO of each direction) finds the target; the second is accurate from the first curve sample.
   const firstPass_s = (L: number) => (FIRST_PASS_FO * L * L) / alpha
-  let factors = solveFactors(input, firstPass_s)
+  let factors = solveFactors(input, firstPass_s, options.deadline)
   let targetTime = crossing(factors, input, goal, shortest, alpha)
   const end_s = 1.25 * targetTime
   farDirections(input, alpha, end_s)
   const firstSample = Math.min(end_s / CURVE_POINTS, ...(options.times_s ?? []).filter((t) => t > 0))
-  factors = solveFactors(input, (L) => Math.min(firstPass_s(L), firstSample))
+  factors = solveFactors(input, (L) => Math.min(firstPass_s(L), firstSample), options.deadline)
   targetTime = crossing(factors, input, goal, shortest, alpha)
 
   const n = input.body.directions.length
@@ -246,13 +248,13 @@ function productSeries(factors: Factors, at: 'centre' | 'mean', target_s: number
  * Finite-difference check of each 1-D factor (Crank–Nicolson) at the curve's times;
  * the product's difference is at most the sum of the factors' differences in K.
  */
-export function checkProduct(input: ProductInput, times_s: number[]): number {
+export function checkProduct(input: ProductInput, times_s: number[], deadline?: Deadline): number {
   const alpha = input.material.k / (input.material.rho * input.material.cp)
-  const factors = solveFactors(input, (L) => Math.min((FIRST_PASS_FO * L * L) / alpha, ...times_s.filter((t) => t > 0)))
+  const factors = solveFactors(input, (L) => Math.min((FIRST_PASS_FO * L * L) / alpha, ...times_s.filter((t) => t > 0)), deadline)
   return input.body.directions.reduce((sum, d, i) => {
     const problem = caseToProblem(parseCase(directionCase(input, d.geometry, d.size_m)))
     const xs = [0, 0.5, 1]
-    const fd = solveCrankNicolson(problem, { times_s, points: xs })
+    const fd = solveCrankNicolson(problem, { times_s, points: xs, deadline })
     let max = 0
     fd.t_s.forEach((t, a) => xs.forEach((x, b) => (max = Math.max(max, Math.abs(fd.T_C[a]![b]! - factors.solutions[i]!.evaluate(t, x))))))
     return sum + max

@@ -6,6 +6,7 @@
  * coefficients whatever the material: a dimensionless decay rate μ̂ is
  * μ̂ / timeScale_s in 1/s, and a Biot number is h L / k_ref.
  */
+import { EngineLimitError } from './errors'
 import { compositeRule, type QuadratureRule } from './quadrature'
 import type { ConductionDomain, PropertyPoint } from './types'
 import { GEOMETRY_EXPONENT } from './types'
@@ -54,12 +55,16 @@ export function scaleDomain(domain: ConductionDomain): ScaledDomain {
   const k = domain.properties.map((p) => p.k_W_mK)
   const c = domain.properties.map((p) => p.rhoCp_J_m3K)
   const uniform = k.every((v) => v === k[0]) && c.every((v) => v === c[0])
+  const timeScale_s = (domain.length_m ** 2 * cRef) / kRef
+  // Every rate and time of the series is scaled by it: zero (a 1e-300 m part) or infinity makes them all NaN.
+  if (!(timeScale_s > 0 && Number.isFinite(timeScale_s)))
+    throw new EngineLimitError(`the time scale L²ρc/k is ${timeScale_s} s, which the series cannot use; the size or the properties are out of range`, 'size_m')
   return {
     m: GEOMETRY_EXPONENT[domain.geometry],
     length_m: domain.length_m,
     kRef_W_mK: kRef,
     rhoCpRef_J_m3K: cRef,
-    timeScale_s: (domain.length_m ** 2 * cRef) / kRef,
+    timeScale_s,
     pieces,
     uniform,
   }

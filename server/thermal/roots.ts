@@ -4,8 +4,10 @@
  * Brent's method (inverse quadratic interpolation guarded by bisection), as in
  * R. P. Brent, "Algorithms for Minimization without Derivatives" (1973), ch. 4.
  * Every root in this folder is found inside a bracket we constructed ourselves,
- * so the method never leaves [a, b] and always converges.
+ * so the method never leaves [a, b] and always converges; a non-finite f or the
+ * iteration cap is refused (EngineLimitError) rather than looped on.
  */
+import { EngineLimitError } from './errors'
 
 export interface BrentOptions {
   /** Absolute tolerance on the root (default 0). */
@@ -20,6 +22,13 @@ export interface BrentOptions {
 
 const EPS = Number.EPSILON
 
+/*
+ * Signs compared directly: the product fa·fb underflows to zero for tiny values
+ * (5e-324 × −5e-324 = −0), which read as "no sign change" on a valid bracket.
+ */
+const opposite = (u: number, v: number) => (u < 0 && v > 0) || (u > 0 && v < 0)
+const same = (u: number, v: number) => (u < 0 && v < 0) || (u > 0 && v > 0)
+
 /** Solves f(x) = 0 for x in [a, b]; f(a) and f(b) must differ in sign. */
 export function brent(f: (x: number) => number, a: number, b: number, options: BrentOptions = {}): number {
   const xtol = options.xtol ?? 0
@@ -29,13 +38,14 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
   let fb = options.fb ?? f(b)
   if (fa === 0) return a
   if (fb === 0) return b
-  if (!(fa * fb < 0)) throw new RangeError(`brent: no sign change on [${a}, ${b}] (f = ${fa}, ${fb})`)
+  if (!Number.isFinite(fa) || !Number.isFinite(fb)) throw new EngineLimitError(`a root search met a non-finite value on [${a}, ${b}]`)
+  if (!opposite(fa, fb)) throw new RangeError(`brent: no sign change on [${a}, ${b}] (f = ${fa}, ${fb})`)
   let c = a
   let fc = fa
   let d = b - a
   let e = d
   for (let i = 0; i < maxIterations; i++) {
-    if (fb * fc > 0) {
+    if (same(fb, fc)) {
       c = a
       fc = fa
       d = b - a
@@ -78,6 +88,7 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
     fa = fb
     b += Math.abs(d) > tol ? d : mid > 0 ? tol : -tol
     fb = f(b)
+    if (!Number.isFinite(fb)) throw new EngineLimitError(`a root search met a non-finite value at ${b}`)
   }
-  throw new RangeError(`brent: no convergence in ${maxIterations} iterations near ${b}`)
+  throw new EngineLimitError(`a root search did not converge in ${maxIterations} iterations near ${b}`)
 }

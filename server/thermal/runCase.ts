@@ -4,8 +4,10 @@
  * and, per stage, the target point's serialisable series. Optionally re-solves
  * with the Crank–Nicolson code as an independent check.
  */
-import { CaseError, caseToProblem, parseCase, type Case } from './caseSchema'
+import { caseToProblem, parseCase, type Case } from './caseSchema'
 import { constantLimit } from './constantLimit'
+import type { Deadline } from './deadline'
+import { CaseError, EngineLimitError, WHOLE_CASE } from './errors'
 import { solveCrankNicolson } from './crankNicolson'
 import { solveCrankNicolsonNonlinear } from './crankNicolsonNonlinear'
 import { pointValues, type PointStage } from '../../shared/pointSeries'
@@ -16,6 +18,8 @@ import type { CooldownSolution, PointRef, StageSummary } from './types'
 export interface RunOptions {
   /** Also solve with Crank–Nicolson and report the largest difference. */
   check?: 'finite-difference'
+  /** Refuse (EngineLimitError) once it passes; absent, the case takes the time it needs. */
+  deadline?: Deadline
 }
 
 export interface CaseResult {
@@ -39,6 +43,16 @@ export const FIRST_PASS_FO = 0.05
 
 export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResult {
   const c = parseCase(caseInput)
+  try {
+    return finiteResult(solveCase(c, options))
+  } catch (error) {
+    // A limit hit deep in the engine knows no field: blame what makes a case heavy.
+    if (error instanceof EngineLimitError && error.field === WHOLE_CASE) throw new EngineLimitError(error.reason, c.material.profile ? 'material.profile' : 'stages')
+    throw error
+  }
+}
+
+function solveCase(c: Case, options: RunOptions): CaseResult {
   const problem = caseToProblem(c)
   const times = c.times_s ?? []
   const points = c.points ?? [0, 0.5, 1]
@@ -53,6 +67,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
         const taus = times.filter((t) => t > start && t <= end).map((t) => t - start)
         return Math.min(earliestCurve_s, ...taus)
       }),
+      deadline: options.deadline,
     })
   // A cheap first pass (accurate from FIRST_PASS_FO on) finds the target and hence the
   // curve's end and spacing; the second pass is accurate from the first curve sample.
@@ -67,6 +82,7 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
     end_s = curveEnd(solution, c, starts, targetTime)
   }
   if (target && targetTime === null) unreachable(solution, at, c)
+  options.deadline?.check()
 
   const centre = solution.pointSeries('centre')
   const surface = solution.pointSeries('surface')
@@ -91,7 +107,24 @@ export function runCase(caseInput: unknown, options: RunOptions = {}): CaseResul
       mean_C: curveOf(solution.pointSeries('mean'), solution.mean(0)),
     },
   }
-  if ((options.check ?? c.check) === 'finite-difference') result.check = finiteDifferenceCheck(solution, c, problem, tCurve, points)
+  if ((options.check ?? c.check) === 'finite-difference') result.check = finiteDifferenceCheck(solution, c, problem, tCurve, points, options.deadline)
+  return result
+}
+
+/** Every number shown must be finite: a NaN or infinity anywhere is refused, not printed. */
+function finiteResult(result: CaseResult): CaseResult {
+  const numbers = [
+    result.targetTime_s ?? 0,
+    ...result.curve.t_s,
+    ...result.curve.centre_C,
+    ...result.curve.surface_C,
+    ...result.curve.mean_C,
+    ...result.table.T_C.flat(),
+    ...result.profiles.T_C.flat(),
+    ...result.stages.flatMap((s) => [s.truncationError_K, s.pointSeries.steady_C, ...s.pointSeries.terms.flatMap((t) => [t.amplitude_K, t.decayRate_per_s])]),
+    result.check?.maxDifference_K ?? 0,
+  ]
+  if (!numbers.every(Number.isFinite)) throw new EngineLimitError('the series gave a temperature or time that is not a finite number')
   return result
 }
 
@@ -182,11 +215,12 @@ function finiteDifferenceCheck(
   problem: ReturnType<typeof caseToProblem>,
   tCurve: number[],
   points: number[],
+  deadline: Deadline | undefined,
 ): NonNullable<CaseResult['check']> {
   const stride = Math.max(1, Math.floor(tCurve.length / 12))
   const times = [...new Set([...(c.times_s ?? []), ...tCurve.filter((t, i) => t > 0 && i % stride === 0)])].sort((a, b) => a - b)
   const xs = [...new Set([solution.centreX, 1, ...points])]
-  const options = { times_s: times, points: xs }
+  const options = { times_s: times, points: xs, deadline }
   const fd = constantLimit(problem) ? solveCrankNicolson(problem, options) : solveCrankNicolsonNonlinear(problem, options)
   let max = 0
   fd.t_s.forEach((t, i) => xs.forEach((x, j) => (max = Math.max(max, Math.abs(fd.T_C[i][j] - solution.evaluate(t, x))))))

@@ -16,6 +16,8 @@
  * and that tail is reported (μ_n grows like n², so the computed next terms bound
  * the rest).
  */
+import type { Deadline } from './deadline'
+import { EngineLimitError } from './errors'
 import type { Mode, ModeFamily } from './modeFamily'
 import { maxCapacityRatio, weightedRule, type ScaledDomain } from './properties'
 import { heatCapacity, modeIntegrals, modeOverlap } from './modeIntegrals'
@@ -66,6 +68,8 @@ export interface SeriesInput {
   truncationTolerance_K?: number
   start_s: number
   end_s: number
+  /** Checked between rounds and modes; absent, the series takes the time it needs. */
+  deadline?: Deadline
 }
 
 /** Terms computed past the guess: the three truncate() needs to bound the tail. */
@@ -84,8 +88,19 @@ export function truncationTolerance(accuracy_K: number | undefined): number {
   return accuracy_K === undefined ? TRUNCATION_TOLERANCE_K : 0.8 * accuracy_K
 }
 
-/** First guess at the mode count: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)². */
+/**
+ * Rounds of doubling the mode count: from one mode the cap (≤ 400) is reached in nine,
+ * so more means the count stopped growing, and the search is refused rather than repeated.
+ */
+export const MODE_ROUNDS = 16
+
+/**
+ * First guess at the mode count: the first mode with e^{−μ τ_min} < 1e-4, with μ_n ≈ (nπ)².
+ * A NaN τ_min (a time scale that under- or overflowed) would make every later count NaN
+ * and the doubling endless, so it is refused here.
+ */
 export function firstModeGuess(tauMin: number, minModes: number, maxModes: number): number {
+  if (!(tauMin >= 0)) throw new EngineLimitError(`the earliest time to resolve is not a number (τ = ${tauMin}); the case's time scale is out of range`)
   const n = Math.ceil(Math.sqrt(9.2 / Math.max(tauMin, 1e-12)) / Math.PI)
   return Math.min(Math.max(n, minModes), maxModes)
 }
@@ -123,10 +138,11 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
   const { domain, family } = input
   const tauMin = Math.max(input.earliest_s, 0) / domain.timeScale_s
   let n = firstModeGuess(tauMin, input.minModes, input.maxModes)
-  for (;;) {
+  for (let round = 0; round < MODE_ROUNDS; round++) {
+    input.deadline?.check()
     const computed = modesToCompute(n, input.maxModes)
     const modes: Mode[] = []
-    for (let j = 1; j <= computed; j++) modes.push(family.mode(j))
+    for (let j = 1; j <= computed; j++) modes.push(family.mode(j, input.deadline))
     const { amplitudes, means, terms, steadyMean } =
       closedFormProjection(input, modes, tauMin) ?? cachedIntegralProjection(input, modes, tauMin) ?? quadratureProjection(input, modes, tauMin)
     const kept = truncate(terms, computed, input.minModes, input.maxModes, input.truncationTolerance_K ?? TRUNCATION_TOLERANCE_K)
@@ -148,6 +164,7 @@ export function buildStageSeries(input: SeriesInput): StageSeries {
     }
     n = Math.min(2 * n, input.maxModes)
   }
+  throw new EngineLimitError(`the mode count did not settle in ${MODE_ROUNDS} rounds`)
 }
 
 interface Projection {
@@ -203,6 +220,7 @@ function cachedIntegralProjection(input: SeriesInput, modes: Mode[], tauMin: num
   const means: number[] = []
   const terms: number[] = []
   for (const mode of modes) {
+    input.deadline?.check()
     const { mass, norm, peak } = modeIntegrals(domain, mode)
     let projection = (startSteady - steady) * mass
     if (typeof input.start !== 'number') for (const term of (input.startModes as ModalStart).terms) projection += term.amplitude_K * modeOverlap(domain, term.mode, mode)
@@ -234,6 +252,7 @@ function quadratureProjection(input: SeriesInput, modes: Mode[], tauMin: number)
   const means: number[] = []
   const terms: number[] = []
   for (const mode of modes) {
+    input.deadline?.check()
     const shape = mode.shape
     let norm = 0
     let projection = 0

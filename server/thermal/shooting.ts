@@ -25,8 +25,10 @@
  * Checked on k = ρc = e^{2x}, whose modes are e^{−x} sin(nπx), μ = 1 + n²π²
  * (tests/unit/thermal/shooting.test.ts), and against the uniform closed forms.
  */
+import type { Deadline } from './deadline'
 import { discreteRates } from './discreteModes'
 import { denseValue, integrate, type DenseSegment } from './dormandPrince'
+import { EngineLimitError } from './errors'
 import type { PropertyPiece } from './properties'
 import { gaussLegendre } from './quadrature'
 
@@ -156,7 +158,7 @@ function centreSeries(
  *     (∂f/∂μ)′ = (∂p/∂μ)/(x^m k),   (∂p/∂μ)′ = −x^m c (f + μ ∂f/∂μ),
  * which let a shape shot at μ be moved to a Newton-corrected μ + δ to O(δ²).
  */
-export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, shape = false): Shot {
+export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTolerance = FINE_SHOOTING.fine, shape = false, deadline?: Deadline): Shot {
   const { m, pieces } = spec
   const first = pieces[0]
   let x = 0
@@ -220,7 +222,7 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
     const omega = Math.sqrt(mu * Math.max(piece.c0 / piece.k0, piece.c1 / piece.k1))
     const hmax = omega > 0 ? 1 / omega : undefined
     const from = Math.max(x, piece.x0)
-    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense: shape, onStep, peak, errorComponents: 3 })
+    const result = integrate(rhs, from, state, piece.x1, { ...tolerance, hmax, h0: h, dense: shape, onStep, peak, errorComponents: 3, deadline })
     state = result.y
     h = result.h
     x = piece.x1
@@ -233,24 +235,28 @@ export function shoot(spec: ShootingSpec, mu: number, tolerance: IntegrationTole
 /**
  * Lazily computed modes 1, 2, … of a graded body. Finite-volume estimates for a
  * batch of modes (twice as many as asked so far) seed the Newton iteration of
- * each; see the file comment for the safeguards.
+ * each; see the file comment for the safeguards. A mode that does not converge in
+ * MAX_SHOTS, or a non-finite shot, is refused (EngineLimitError); the deadline of the
+ * solve asking is checked before every shot.
  */
-export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = FINE_SHOOTING): (n: number) => ShotMode {
+export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = FINE_SHOOTING): (n: number, deadline?: Deadline) => ShotMode {
   const modes: ShotMode[] = []
   let estimates: Float64Array = new Float64Array(0)
   const last = spec.pieces[spec.pieces.length - 1]
   const outerRatio = Math.sqrt(last.c1 / last.k1)
   // Quadratic convergence: a step of s leaves an error ~ s², so √rateRtol-sized steps suffice.
   const acceptStep = Math.sqrt(accuracy.rateRtol)
-  const solve = (j: number): ShotMode => {
+  const solve = (j: number, deadline: Deadline | undefined): ShotMode => {
     // θ(1; μ_{j−1}) is the previous target, π below this one; μ₁ > 0.
     let lo = j === 1 ? 0 : modes[j - 2].rate
     let hi = Infinity
     let mu = estimates[j - 1] > lo ? estimates[j - 1] : lo + 1
     let fine = false
     for (let shots = 0; shots < MAX_SHOTS; shots++) {
+      deadline?.check()
       // Fine shots are usually the last: they keep dense output and the μ-sensitivities.
-      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine)
+      const shot = shoot(spec, mu, fine ? accuracy.fine : COARSE, fine, deadline)
+      if (!Number.isFinite(shot.theta) || !Number.isFinite(shot.dThetaDmu)) throw new EngineLimitError(`mode ${j} of this profile met a non-finite value while shooting`)
       // The same Sturm condition in the scaled angle φ = atan2(s f, p), s = λ√(c/k) at
       // the surface: θ ↦ φ is increasing and fixes every multiple of π/2, so φ(1) − (jπ −
       // atan(s/Bi₁)) has the sign of θ(1) − (jπ − atan(1/Bi₁)), but φ(1) is nearly affine
@@ -278,12 +284,12 @@ export function shootingModes(spec: ShootingSpec, accuracy: ShootingAccuracy = F
         hi += 10 * COARSE_STEP * mu
       }
     }
-    throw new RangeError(`shooting: mode ${j} did not converge in ${MAX_SHOTS} shots`)
+    throw new EngineLimitError(`mode ${j} of this profile did not converge in ${MAX_SHOTS} shots; smooth the profile or reduce its jumps`)
   }
   const denseMode = (rate: number, shot: Shot, delta: number): ShotMode => ({ rate, shape: shapeOf(shot, delta) })
-  return (n: number) => {
+  return (n: number, deadline?: Deadline) => {
     if (estimates.length < n) estimates = discreteRates(spec, Math.max(2 * n, 8))
-    while (modes.length < n) modes.push(solve(modes.length + 1))
+    while (modes.length < n) modes.push(solve(modes.length + 1, deadline))
     return modes[n - 1]
   }
 }

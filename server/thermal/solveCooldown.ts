@@ -96,6 +96,7 @@ function solveBySeries(problem: CooldownProblem, domain: ScaledDomain, options: 
       maxModes: family.analytic ? MAX_MODES_ANALYTIC : MAX_MODES_SHOOTING,
       start_s,
       end_s,
+      deadline: options.deadline,
     })
     stages.push(series)
     const rates = series.rates.map((r) => r / domain.timeScale_s)

@@ -7,6 +7,7 @@
  * written in a basis of modes of a nearby uniform body, so two or three sweeps do.
  * Checked against closed-form spectra (tests/unit/thermal/ritzModes.test.ts).
  */
+import { EngineLimitError } from './errors'
 
 /**
  * Diagonalises the n×n symmetric matrix a (row-major, overwritten) in place: on
@@ -56,7 +57,7 @@ export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array): 
       }
     }
   }
-  throw new RangeError('jacobiEigen: no convergence in 50 sweeps')
+  throw new EngineLimitError('an eigenvalue decomposition did not converge in 50 sweeps')
 }
 
 /** Cholesky factor (lower, row-major) of the n×n symmetric positive-definite matrix a. */

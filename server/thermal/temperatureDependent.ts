@@ -28,6 +28,7 @@
  * (tests/unit/thermal/temperatureDependent.test.ts).
  */
 import { pointValue, type PointStage } from '../../shared/pointSeries'
+import { EngineLimitError } from './errors'
 import { profileAt } from './solveCooldown'
 import { interpolate, materialCurves } from './propertyTable'
 import { propertiesAt, scaleDomain } from './properties'
@@ -167,8 +168,11 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     let stepError = 0
     const firstStep = steps.length
     const mid = new Float64Array(q)
-    for (;;) {
-      if (steps.length - firstStep > MAX_SUB_STEPS) throw new RangeError(`stages[${stageIndex}]: more than ${MAX_SUB_STEPS} sub-steps`)
+    // Rejected steps add no sub-step, so the passes are capped too: twice the sub-steps allows a rejection per step.
+    for (let passes = 0; ; passes++) {
+      options.deadline?.check()
+      if (steps.length - firstStep > MAX_SUB_STEPS || passes > 2 * MAX_SUB_STEPS)
+        throw new EngineLimitError(`more than ${MAX_SUB_STEPS} sub-steps; shorten the stage or soften its coefficients`, `stages.${stageIndex}`)
       const Tnow = nodeTemperatures(basis, c)
       const T0 = endTemperature(basis, c, 0)
       const T1 = endTemperature(basis, c, 1)
@@ -190,6 +194,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       const corrector = pass(cFirst)
       const cCorrected = seriesCoefficients(corrector, step)
       const error = largestDifference(basis, cCorrected, cFirst)
+      // NaN would pass the tolerance test below and be kept as a step.
+      if (!Number.isFinite(error)) throw new EngineLimitError('a sub-step met a non-finite value', `stages.${stageIndex}`)
       const resize = Math.min(2, Math.max(0.2, 0.9 * Math.cbrt(tolerance_K / Math.max(error, 1e-300))))
       if (error > tolerance_K) {
         dt = step * resize

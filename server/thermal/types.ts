@@ -8,6 +8,7 @@
  *   ρc(x) ∂T/∂t = x^-m ∂/∂x ( x^m k(x) ∂T/∂x ),   m = 0 slab, 1 rod, 2 sphere.
  */
 import type { PointStage } from '../../shared/pointSeries'
+import type { Deadline } from './deadline'
 import type { ScaledDomain } from './properties'
 import type { StageSeries } from './series'
 import type { TargetSpec } from './targetTime'
@@ -113,6 +114,8 @@ export interface SolveOptions {
    * (shootingAccuracy), e.g. 0.05 K to compare with a grid tuned to 0.05 K.
    */
   accuracy_K?: number
+  /** Refuse (EngineLimitError) once this passes; absent, a solve takes the time it needs. */
+  deadline?: Deadline
 }
 
 export interface StageSummary {

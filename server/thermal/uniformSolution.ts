@@ -23,7 +23,9 @@ import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { besselJ0, besselJ0Zero, besselJ1, besselJ1Zero } from './bessel'
 import { surfaceValues, uniformAmplitude, uniformMass, uniformShape, type SurfaceValues, type UniformTerm } from './eigenRoots'
 import type { ScaledDomain } from './properties'
-import { firstModeGuess, modesToCompute, stageEarliest_s, truncate, truncationTolerance, type StageSeries } from './series'
+import type { Deadline } from './deadline'
+import { EngineLimitError } from './errors'
+import { MODE_ROUNDS, firstModeGuess, modesToCompute, stageEarliest_s, truncate, truncationTolerance, type StageSeries } from './series'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { CooldownProblem, CooldownSolution, Geometry, PointRef, SolveOptions, StageSummary } from './types'
 
@@ -63,7 +65,7 @@ export function solveUniformSymmetric(problem: CooldownProblem, domain: ScaledDo
     const tauMin = Math.max(earliest, 0) / timeScale_s
     const previous = modes[i - 1]
     const built = new UniformStage(start_s, end_s, summaryEnd_s, steady_C, biots[i])
-    built.fit(m, previous ?? initial, timeScale_s, tauMin, minModes, maxModes, tolerance_K)
+    built.fit(m, previous ?? initial, timeScale_s, tauMin, minModes, maxModes, tolerance_K, options.deadline)
     modes.push(built)
     start_s = end_s
   }
@@ -112,6 +114,7 @@ class UniformStage {
     minModes: number,
     maxModes: number,
     tolerance_K: number,
+    deadline?: Deadline,
   ): void {
     // The previous stage's amplitudes at its end (series.ts, modalEnd).
     // Amplitudes below rounding of the largest are dropped: |∫x^m g f| ≤ 1, so their
@@ -133,7 +136,8 @@ class UniformStage {
     const terms: number[] = []
     let computedSoFar = 0
     let n = firstModeGuess(tauMin, minModes, maxModes)
-    for (;;) {
+    for (let round = 0; round < MODE_ROUNDS; round++) {
+      deadline?.check()
       const computed = modesToCompute(n, maxModes)
       for (let j = computedSoFar; j < computed; j++) {
         const surface = symmetricRootFrom(m, j + 1, this.biot, j === 0 ? Number.NaN : this.surfaces[j - 1].lam)
@@ -155,6 +159,7 @@ class UniformStage {
       }
       n = Math.min(2 * n, maxModes)
     }
+    throw new EngineLimitError(`the mode count did not settle in ${MODE_ROUNDS} rounds`)
   }
 }
 
@@ -266,7 +271,7 @@ function symmetricRootFrom(m: 0 | 1 | 2, n: number, bi: number, previous: number
       x = next
     }
   }
-  throw new RangeError(`uniform root ${n} (m = ${m}, Bi = ${bi}): no convergence`)
+  throw new EngineLimitError(`uniform root ${n} (m = ${m}, Bi = ${bi}) did not converge in 100 iterations`)
 }
 
 /** The geometry whose radial weight is x^m. */

@@ -1,18 +1,17 @@
 import { z } from 'zod'
-
-const positive = (field: string, unit: string) =>
-  z.number({ message: `${field} must be a number (${unit})` }).finite().positive(`${field} must be greater than zero (${unit})`)
+import { CASE_LIMITS, PHYSICAL, inRange, profileLimitIssues } from '../physicalBounds'
 
 /** One point of a graded section: x is the fraction 0 (centre) – 1 (surface); a repeated x is a jump. */
 export const gradedPointSchema = z.strictObject({
   x: z.number({ message: 'x must be a number from 0 to 1' }).min(0, 'x must be at least 0').max(1, 'x must be at most 1'),
-  k: positive('Conductivity', 'W/m·K'),
-  rhoCp: positive('Volumetric heat capacity', 'J/m³·K'),
+  k: inRange(PHYSICAL.conductivity_W_mK, 'Conductivity'),
+  rhoCp: inRange(PHYSICAL.volumetricHeatCapacity_J_m3K, 'Volumetric heat capacity'),
 })
 
 export const gradedProfileSchema = z
   .array(gradedPointSchema)
   .min(2, 'A graded profile needs at least two points')
+  .max(CASE_LIMITS.profilePoints, `A graded profile has at most ${CASE_LIMITS.profilePoints} points`)
   .superRefine((points, ctx) => {
     if (points[0]?.x !== 0 || points.at(-1)?.x !== 1) {
       ctx.addIssue({ code: 'custom', message: 'A graded profile must run from x = 0 (centre) to x = 1 (surface)' })
@@ -22,14 +21,18 @@ export const gradedProfileSchema = z
       if (i > 1 && point.x === points[i - 1]!.x && point.x === points[i - 2]!.x)
         ctx.addIssue({ code: 'custom', path: [i, 'x'], message: 'An x may appear at most twice (a jump)' })
     })
+    for (const issue of profileLimitIssues(points)) {
+      const label = issue.key === 'k' ? 'Conductivity' : 'x'
+      ctx.addIssue({ code: 'custom', path: [issue.index, issue.key], message: `${label} ${issue.message}` })
+    }
   })
 
 // Field rules without defaults, so a partial update can tell "not sent" from "cleared".
 const materialFields = {
   name: z.string({ message: 'Name is required' }).trim().min(2, 'Name needs at least 2 characters').max(120, 'Name is too long'),
-  k_W_mK: positive('Thermal conductivity', 'W/m·K').max(500, 'Thermal conductivity above 500 W/m·K is not a steel or alloy'),
-  density_kg_m3: positive('Density', 'kg/m³').max(25000, 'Density above 25 000 kg/m³ is not plausible'),
-  specificHeat_J_kgK: positive('Specific heat', 'J/kg·K').max(5000, 'Specific heat above 5000 J/kg·K is not plausible for a metal'),
+  k_W_mK: inRange(PHYSICAL.conductivity_W_mK, 'Thermal conductivity'),
+  density_kg_m3: inRange(PHYSICAL.density_kg_m3, 'Density'),
+  specificHeat_J_kgK: inRange(PHYSICAL.specificHeat_J_kgK, 'Specific heat'),
   propertiesAt_C: z
     .number({ message: 'Reference temperature must be a number (°C)' })
     .finite()

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { CASE_LIMITS, PHYSICAL, inRange } from '../physicalBounds'
 import { gradedProfileSchema } from './material'
 import { QUENCHANT_KIND_VALUES } from './quenchant'
 
@@ -8,12 +9,7 @@ import { QUENCHANT_KIND_VALUES } from './quenchant'
  * API returns the zod path as the field ("stages.1.duration_s").
  */
 
-const length = (label: string) =>
-  z
-    .number({ message: `${label} must be a number (m)` })
-    .finite()
-    .positive(`${label} must be greater than zero`)
-    .max(5, `${label} above 5 m does not fit any furnace`)
+const length = (label: string) => inRange(PHYSICAL.partSize_m, label)
 
 const temperature = (label: string, min = -50, max = 1400) =>
   z
@@ -22,8 +18,7 @@ const temperature = (label: string, min = -50, max = 1400) =>
     .min(min, `${label} below ${min} °C is not supported`)
     .max(max, `${label} above ${max} °C is not supported`)
 
-const duration = (label: string) =>
-  z.number({ message: `${label} must be a number (s)` }).finite().positive(`${label} must be greater than zero`).max(30 * 86400, `${label} above 30 days is not plausible`)
+const duration = (label: string) => inRange(PHYSICAL.stageDuration_s, label)
 
 export const PART_SHAPES = ['plate', 'round-bar', 'sphere', 'cylinder', 'block'] as const
 export type PartShape = (typeof PART_SHAPES)[number]
@@ -73,7 +68,7 @@ export const soakSchema = z.strictObject({
   furnaceH_W_m2K: z
     .number({ message: 'Furnace coefficient must be a number (W/m²·K)' })
     .finite()
-    .positive('Furnace coefficient must be greater than zero')
+    .min(PHYSICAL.heatTransfer_W_m2K.min, `Furnace coefficient must be at least ${PHYSICAL.heatTransfer_W_m2K.minText}`)
     .max(2000, 'Furnace coefficient above 2000 W/m²·K is not a furnace')
     .nullable()
     .default(null),
@@ -84,7 +79,7 @@ const planSpecShape = {
   part: partSchema,
   materialId: z.number({ message: 'Choose a material' }).int().positive('Choose a material'),
   start_C: temperature('Start temperature', 20, 1300),
-  stages: z.array(planStageSchema, { message: 'Add at least one quench stage' }).min(1, 'Add at least one quench stage').max(6, 'At most six stages'),
+  stages: z.array(planStageSchema, { message: 'Add at least one quench stage' }).min(1, 'Add at least one quench stage').max(CASE_LIMITS.stages, `At most ${CASE_LIMITS.stages} stages`),
   handling: z.strictObject({
     below_C: temperature('Handling temperature', -50, 1000),
     at: z.enum(HANDLING_POINTS, { message: 'Handling point must be centre, surface or mean' }).default('centre'),

@@ -1,14 +1,10 @@
 import { z } from 'zod'
+import { PHYSICAL, inRange } from '../physicalBounds'
 
 export const QUENCHANT_KIND_VALUES = ['oil', 'water', 'polymer', 'salt', 'forced-air', 'still-air', 'gas'] as const
 export type QuenchantKind = (typeof QUENCHANT_KIND_VALUES)[number]
 
-const coefficient = (label: string) =>
-  z
-    .number({ message: `${label} must be a number (W/m²·K)` })
-    .finite()
-    .positive(`${label} must be greater than zero (W/m²·K)`)
-    .max(100000, `${label} above 100 000 W/m²·K is beyond any quench`)
+const coefficient = (label: string) => inRange(PHYSICAL.heatTransfer_W_m2K, label)
 
 // Field rules without defaults, so a partial update can tell "not sent" from "cleared".
 const quenchantFields = {

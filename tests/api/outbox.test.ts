@@ -82,7 +82,7 @@ describe('a hold-time sheet by e-mail', () => {
     expect(mail!.subject).toBe('Hold-time sheet · Load KB-API-0001 · Drive flange · 1 deviation')
     expect(mail!.to.map((to) => to.address).sort()).toEqual(activeByRole.qa)
     expect(mail!.html).toContain('Load KB-API-0001')
-    expect(mail!.html).toContain('Quench delay 52 s, 22 s over the allowed 30 s')
+    expect(mail!.html).toContain('Quench delay 52 s from the furnace door opening to the quench, 22 s over the allowed 30 s.')
     for (const caution of STANDARD_CAUTIONS) expect(mail!.html).toContain(escapeHtml(caution))
     expect(mail!.text).toContain('Load KB-API-0001')
 

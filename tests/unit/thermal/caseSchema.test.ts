@@ -3,7 +3,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { CaseError } from '../../../server/thermal/caseSchema'
+import { CaseError } from '../../../server/thermal/errors'
 import { curveTimes, runCase } from '../../../server/thermal/runCase'
 
 const example = JSON.parse(readFileSync('scripts/examples/oil-then-air-bar.json', 'utf8'))

@@ -3,7 +3,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { CaseError, caseToProblem, parseCase } from '../../../server/thermal/caseSchema'
+import { caseToProblem, parseCase } from '../../../server/thermal/caseSchema'
+import { CaseError } from '../../../server/thermal/errors'
 import { runCase } from '../../../server/thermal/runCase'
 
 const example = JSON.parse(readFileSync('scripts/examples/oil-quench-steel-table.json', 'utf8'))

@@ -94,7 +94,9 @@ describe('product solution of short cylinders and blocks', () => {
   it('short brass cylinder, D = 10 cm, H = 12 cm, 120 °C into 25 °C air at h = 60: centre ≈ 62.8 °C after 15 min (Çengel, Heat and Mass Transfer, worked example, quoted from memory; ±0.5 K for one-term table precision)', () => {
     const alpha = 3.39e-5
     const k = 110
-    const input = steelInput([rod(0.05), slab(0.06, 'length')], 60, { k, rho: k / alpha, cp: 1 }, 120, 25)
+    // Brass ρ ≈ 8530 kg/m³ (from memory); c_p follows from the example's k and α (≈ 380 J/kg·K).
+    const rho = 8530
+    const input = steelInput([rod(0.05), slab(0.06, 'length')], 60, { k, rho, cp: k / alpha / rho }, 120, 25)
     const T = centres(input, [15 * 60]).centre_C[0]!
     expect(Math.abs(T - 62.8)).toBeLessThan(0.5)
     // and the time to that temperature lands back on 15 min
