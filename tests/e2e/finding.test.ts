@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser, type ViewportName } from '../support/browser'
+import { FLOOR_STATES } from '../../shared/schedule'
 import type { FloorResponse } from '../../shared/types/schedule'
 
 const browser = useBrowser()
@@ -28,7 +29,7 @@ describe('finding loads on the floor', () => {
     await page.getByTestId('floor-no-match').waitFor()
 
     await page.getByTestId('floor-legend').locator('summary').click()
-    expect(await page.getByTestId('floor-legend').locator('li[data-state]').count()).toBe(6)
+    expect(await page.getByTestId('floor-legend').locator('li[data-state]').count()).toBe(FLOOR_STATES.length)
     await page.getByTestId('floor-alert').check()
     expect(await page.evaluate(() => localStorage.getItem('slakewise.floor.alert'))).toBe('on')
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true)
