@@ -1,3 +1,6 @@
+// The declarations must reach every tsconfig that compiles this file (app, server, tests, scripts).
+// eslint-disable-next-line @typescript-eslint/triple-slash-reference
+/// <reference path="./besselPackage.d.ts" />
 /**
  * J0, J1 and their zeros.
  *

@@ -58,6 +58,9 @@ describe('the signed-in shell', () => {
     await page.getByRole('button', { name: 'Sign in' }).click()
     await page.waitForURL((url) => url.pathname === '/admin/audit')
     await page.getByTestId('audit-table').waitFor()
+    expect(new URL(page.url()).pathname).toBe('/admin/audit')
+    // The sign-in just made is itself in the trail, so it cannot be empty.
+    expect(await page.getByTestId('audit-table').locator('tbody tr').count()).toBeGreaterThan(0)
     await page.context().close()
   })
 })
