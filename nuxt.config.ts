@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs'
+import { SHEET_FONT_FILES } from './server/records/sheetFonts'
 
 const { version } = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string }
 
@@ -50,5 +51,9 @@ export default defineNuxtConfig({
     sharedTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
     nodeTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
   },
-  nitro: { typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } } },
+  nitro: {
+    typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },
+    // The PDF sheet reads Plex's font files at run time; listed, the build copies them beside the server.
+    externals: { traceInclude: SHEET_FONT_FILES },
+  },
 })
