@@ -1,6 +1,8 @@
-// Once the app is mounted (hydration done), times switch from UTC to the reader's own zone (composables/useFormatTime.ts).
+// Once hydration is done, times switch from UTC to the reader's own zone (composables/useFormatTime.ts).
+// Not at app:mounted: pages that await their data hydrate after it, inside <Suspense>,
+// and would meet local times where the server wrote UTC.
 export default defineNuxtPlugin((nuxtApp) => {
-  nuxtApp.hook('app:mounted', () => {
+  nuxtApp.hooks.hookOnce('app:suspense:resolve', () => {
     useState('local-time').value = true
   })
 })
