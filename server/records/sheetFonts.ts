@@ -23,7 +23,6 @@ export interface TextRun {
   text: string
 }
 
-const require = createRequire(import.meta.url)
 const PLEX_SUBSETS = ['latin', 'latin-ext', 'greek', 'cyrillic', 'cyrillic-ext', 'vietnamese'] as const
 const PLEX_WEIGHTS: Record<SheetWeight, number> = { regular: 400, bold: 600 }
 const plexFile = (subset: string, weight: SheetWeight) => `@fontsource/ibm-plex-sans/files/ibm-plex-sans-${subset}-${PLEX_WEIGHTS[weight]}-normal.woff`
@@ -44,6 +43,8 @@ export function parseUnicodeRange(value: string): [number, number][] {
 }
 
 function plexFaces(weight: SheetWeight): SheetFace[] {
+  // Made here, not at load: in the server build import.meta.url is only the real entry once the entry has run.
+  const require = createRequire(import.meta.url)
   const ranges = JSON.parse(readFileSync(require.resolve(PLEX_RANGES), 'utf8')) as Record<(typeof PLEX_SUBSETS)[number], string>
   return PLEX_SUBSETS.map((subset) => {
     const covered = parseUnicodeRange(ranges[subset])
