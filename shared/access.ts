@@ -30,6 +30,14 @@ export const ACCESS = {
   /** Furnaces, quench stations and shop settings. */
   'equipment.manage': ['admin'],
   'audit.read': ['admin', 'qa'],
+  /** See uploaded thermocouple logs and their series. */
+  'logs.read': [],
+  /** Upload a thermocouple log on its own (probe tests, coupons). */
+  'logs.upload': ['metallurgist', 'qa', 'admin'],
+  /** Upload a log attached to a load; operators only to a load they are working on (charged and not yet signed). */
+  'logs.attach': ['operator', 'metallurgist', 'qa', 'admin'],
+  /** Fit a quench medium's coefficient or curve to a log. */
+  'media.calibrate': ['metallurgist', 'admin'],
   'outbox.manage': ['admin'],
   'mail.manage': ['admin'],
 } as const satisfies Record<string, readonly Role[]>

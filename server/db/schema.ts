@@ -1,4 +1,4 @@
-import { boolean, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { boolean, customType, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { sql } from 'drizzle-orm'
 import { ROLES } from '../../shared/roles'
 import { QUENCHANT_KIND_VALUES as QUENCHANT_KINDS } from '../../shared/schemas/quenchant'
@@ -7,6 +7,7 @@ import { OUTBOX_STATUSES, type OutboxAttachment } from '../../shared/types/outbo
 import { FURNACE_KINDS } from '../../shared/schemas/schedule'
 import { BATCH_STATES } from '../../shared/schedule'
 import { RECORD_STATES } from '../../shared/types/cooldownRecord'
+import type { LogMapping, LogPreview } from '../../shared/types/measurementLog'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -333,3 +334,62 @@ export const cooldownRecords = mysqlTable(
 )
 
 export type CooldownRecordRow = typeof cooldownRecords.$inferSelect
+
+/** Raw bytes up to 4 GB; the measurement tables keep files and number series in it. */
+const longblob = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'longblob' })
+
+/**
+ * An uploaded thermocouple log: who sent which file when, what the parser detected and
+ * the mapping the person confirmed. Written once with its bytes and parsed series in
+ * one transaction and never changed afterwards (server/measurements/logStore.ts).
+ * `time_s` is the series' time axis, seconds from the first row, as little-endian float64.
+ */
+export const measurementLogs = mysqlTable(
+  'measurement_logs',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    fileName: varchar('file_name', { length: 255 }).notNull(),
+    sha256: varchar('sha256', { length: 64 }).notNull(),
+    size_bytes: int('size_bytes').notNull(),
+    rows: int('rows').notNull(),
+    duration_s: double('duration_s').notNull(),
+    detected: json('detected').$type<Omit<LogPreview, 'firstRows'>>().notNull(),
+    mapping: json('mapping').$type<LogMapping>().notNull(),
+    time_s: longblob('time_s').notNull(),
+    batchId: int('batch_id').references(() => batches.id),
+    uploadedBy: int('uploaded_by').notNull().references(() => users.id),
+    uploadedAt: datetime('uploaded_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (table) => [index('log_batch_idx').on(table.batchId), index('log_uploaded_idx').on(table.uploadedAt)],
+)
+
+/** One mapped temperature channel of a log, in °C as little-endian float64 (one value per row of time_s). */
+export const measurementLogChannels = mysqlTable(
+  'measurement_log_channels',
+  {
+    logId: int('log_id').notNull().references(() => measurementLogs.id),
+    position: int('position').notNull(),
+    name: varchar('name', { length: 255 }).notNull(),
+    unit: mysqlEnum('unit', ['C', 'F']).notNull(),
+    min_C: double('min_c').notNull(),
+    max_C: double('max_c').notNull(),
+    T_C: longblob('t_c').notNull(),
+  },
+  (table) => [primaryKey({ columns: [table.logId, table.position] })],
+)
+
+/**
+ * The file as received, in parts of at most 1 MB: one statement stays far below the
+ * server's max_allowed_packet (16 MB by default) even as hex, whatever the file size.
+ */
+export const measurementLogParts = mysqlTable(
+  'measurement_log_parts',
+  {
+    logId: int('log_id').notNull().references(() => measurementLogs.id),
+    part: int('part').notNull(),
+    bytes: longblob('bytes').notNull(),
+  },
+  (table) => [primaryKey({ columns: [table.logId, table.part] })],
+)
+
+export type MeasurementLogRow = typeof measurementLogs.$inferSelect

@@ -8,6 +8,7 @@
  * wrong, with the row and column where there is one, and the caller stores nothing.
  */
 import { parse } from 'csv-parse'
+import type { LogColumn, LogMapping, LogPreview, TemperatureUnit, TimeFormat } from '../../shared/types/measurementLog'
 
 export const MAX_LOG_BYTES = 10 * 1024 * 1024
 export const MAX_LOG_ROWS = 200_000
@@ -23,29 +24,7 @@ export class LogError extends Error {
   }
 }
 
-export type TemperatureUnit = 'C' | 'F'
-export type TimeFormat = 'seconds' | 'clock' | 'date-time'
-
-export interface LogColumn {
-  name: string
-  role: 'time' | 'temperature' | 'other'
-  /** Detected from the header; null when the header does not say. */
-  unit: TemperatureUnit | null
-}
-
-export interface LogPreview {
-  delimiter: ',' | ';' | '\t'
-  decimalComma: boolean
-  timeFormat: TimeFormat | null
-  columns: LogColumn[]
-  rows: number
-  firstRows: string[][]
-}
-
-export interface LogMapping {
-  time: string
-  channels: { column: string; unit: TemperatureUnit }[]
-}
+export type { LogColumn, LogMapping, LogPreview, TemperatureUnit, TimeFormat }
 
 export interface LogSeries {
   t_s: number[]

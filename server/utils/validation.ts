@@ -52,3 +52,9 @@ export function positiveId(noun: string) {
 export function idParams(noun: string) {
   return z.object({ id: positiveId(noun) })
 }
+
+/** Validates the text fields of a multipart form (server/utils/upload.ts). */
+export function formFieldsValid<S extends z.ZodType>(fields: Record<string, string>, schema: S): z.infer<S> {
+  const parsed = schema.safeParse(fields)
+  return parsed.success ? parsed.data : invalidRequest(parsed.error, 'form fields')
+}
