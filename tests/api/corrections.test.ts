@@ -192,7 +192,7 @@ describe('the record of a load with an early tap, a correction and no door tap',
     const cooling = events.find((e) => e.toState === 'cooling')!
     const clock = await correct(metallurgist, batchId, cooling.id, { at: cooling.at, reason: 'Try the clock' })
     expect(clock.status).toBe(409)
-    expect(clock.body.statusMessage).toBe("Cooling to handling comes from the plan's clock, not a floor tap; only taps can be corrected")
+    expect(clock.body.statusMessage).toBe('Cooling to handling comes from the plan\'s clock, not a floor tap; only taps can be corrected')
 
     const approved = await qa.request(`/api/records/${recordId}/approve`, { method: 'POST', body: {} })
     expect(approved.status).toBe(200)
