@@ -41,6 +41,8 @@ export default defineNuxtConfig({
     loadPrefix: 'SW', // NUXT_LOAD_PREFIX: load numbers start with it (the shop's initials)
     siteOrigin: '', // NUXT_SITE_ORIGIN: where links in mail point (default: AUTH_ORIGIN without /api/auth)
     databaseUrl: '', // NUXT_DATABASE_URL (DATABASE_URL is read too)
+    engineWorkers: 0, // NUXT_ENGINE_WORKERS: engine worker threads per server process (0: one per core but one)
+    engineJobSeconds: 8, // NUXT_ENGINE_JOB_SECONDS: longest one engine job may run before it is stopped with a 422
     public: { appVersion: version },
   },
   // Index checks stay off: the numerical core indexes typed arrays in tight loops,

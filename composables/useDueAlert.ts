@@ -33,7 +33,7 @@ export function useDueAlert(floor: Ref<FloorResponse | null>, now: Ref<number>) 
   watch([floor, now], () => {
     if (!floor.value) return
     const { batches, settings } = floor.value
-    const due = new Map(batches.map((b) => [b.id, dueMoment(floorCountdown(b, now.value, settings.temperWithin_s))]))
+    const due = new Map(batches.map((b) => [b.id, dueMoment(floorCountdown({ ...b, summary: { handling_C: b.handling_C } }, now.value, settings.temperWithin_s))]))
     const fresh = newlyDue(due, announced)
     for (const key of fresh) announced.add(key)
     // The first answer only records what is already due.

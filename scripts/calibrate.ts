@@ -4,9 +4,9 @@
  * logged cooling curve and prints JSON on stdout; a bad input prints
  * "field: message" on stderr and exits 2.
  */
-import { readFileSync } from 'node:fs'
 import { FitError } from '../server/measurements/fitSchema'
 import { fitCoolingLog, type FitResult } from '../server/measurements/fit'
+import { runJsonCommand } from './cli/jsonCommand'
 
 function cliOutput(fit: FitResult) {
   const fitted = fit.h
@@ -18,24 +18,8 @@ function cliOutput(fit: FitResult) {
   return { ...fitted, rms_K: fit.rms_K, maxAbs_K: fit.maxAbs_K, points: fit.points, iterations: fit.iterations, uncertainty, warnings: fit.warnings }
 }
 
-const file = process.argv.slice(2).find((a) => !a.startsWith('--'))
-if (!file) {
-  process.stderr.write('usage: npm run --silent calibrate -- fit.json\n')
-  process.exit(2)
-}
-let input: unknown
-try {
-  input = JSON.parse(readFileSync(file, 'utf8'))
-} catch (error) {
-  process.stderr.write(`${file}: ${(error as Error).message}\n`)
-  process.exit(2)
-}
-try {
-  process.stdout.write(`${JSON.stringify(cliOutput(fitCoolingLog(input)), null, 2)}\n`)
-} catch (error) {
-  if (error instanceof FitError) {
-    process.stderr.write(`${error.message}\n`)
-    process.exit(2)
-  }
-  throw error
-}
+runJsonCommand({
+  usage: 'npm run --silent calibrate -- fit.json',
+  run: (input) => cliOutput(fitCoolingLog(input)),
+  isInputError: (error) => error instanceof FitError,
+})

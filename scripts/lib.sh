@@ -19,7 +19,7 @@ ensure_secret() {
 # Rebuilds the app when any source is newer than the last build.
 build_if_stale() {
   local stamp=.output/nitro.json
-  if [ ! -f "$stamp" ] || [ -n "$(find app.vue pages layouts components composables stores middleware server shared assets public \
+  if [ ! -f "$stamp" ] || [ -n "$(find app.vue pages layouts components composables stores middleware modules server shared assets public \
        nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -print -quit 2>/dev/null)" ]; then
     echo "[setup] building the app (nuxt build, about 30 s)…"
     npx nuxt build > .data/build.log 2>&1 || { tail -40 .data/build.log >&2; echo "[setup] build failed; full log in .data/build.log" >&2; return 1; }

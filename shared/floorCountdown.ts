@@ -16,7 +16,8 @@ export interface CountdownInput {
   handlingAt: number
   quenchedAt: number | null
   quenchDelayAllowance_s: number
-  summary: Pick<PlanSummary, 'handlingPointSeries' | 'handling_C'>
+  /** The curve may still be on its way to the floor (it is fetched once per plan revision): no core estimate until then. */
+  summary: Pick<PlanSummary, 'handling_C'> & Partial<Pick<PlanSummary, 'handlingPointSeries'>>
 }
 
 export interface CountdownView {
@@ -64,16 +65,21 @@ export function floorCountdown(
     case 'cooling':
       seconds = until(b.handlingAt)
       caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the quench stage ends`
-      if (b.quenchedAt !== null) coreNow_C = pointValue(b.summary.handlingPointSeries, (now - b.quenchedAt) / 1000)
+      coreNow_C = coreAt(b, now)
       break
     case 'ready':
       // Safe to handle: what counts now is getting the load to the temper furnace.
       seconds = until(b.handlingAt + temperWithin_s * 1000)
       caption = seconds >= 0 ? 'until tempering is overdue' : 'Tempering overdue'
-      if (b.quenchedAt !== null) coreNow_C = pointValue(b.summary.handlingPointSeries, (now - b.quenchedAt) / 1000)
+      coreNow_C = coreAt(b, now)
       break
     default:
       break
   }
   return { state, seconds, caption, reached: seconds !== null && seconds <= 0, coreNow_C, next: nextFloorMove(state), flags }
+}
+
+function coreAt(b: CountdownInput, now: number): number | null {
+  const series = b.summary.handlingPointSeries
+  return b.quenchedAt !== null && series ? pointValue(series, (now - b.quenchedAt) / 1000) : null
 }

@@ -3,9 +3,9 @@ import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
-import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
 import { CaseError } from '../thermal/errors'
-import { checkPlan, computePlan } from './computePlan'
+import { planEngine } from './planEngine'
+import { JobQueueFullError, JobTimeoutError } from '../workers/jobPool'
 import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
@@ -57,13 +57,17 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
   }
 }
 
+/** What the cap refusal tells the planner to change. */
+const COARSEN_HINT = 'coarsen the plan: fewer graded-profile points in the material, fewer quench stages, or a handling temperature further above the bath'
+
 /**
- * Engine refusals (CaseError, EngineLimitError) are 422 naming the plan field; anything else
- * is a real failure. Each computation gets the engine's time budget, so no plan holds the server.
+ * Engine refusals (CaseError, EngineLimitError: the engine's own budget) are 422 naming
+ * the plan field; a job over the engine's
+ * time cap is 422 naming the cap; a full queue is 503. Anything else is a real failure.
  */
-function engine<T>(run: () => T): T {
+async function engine<T>(run: () => Promise<T>): Promise<T> {
   try {
-    return run()
+    return await run()
   } catch (error) {
     if (error instanceof CaseError) {
       const message = error.reason
@@ -74,19 +78,26 @@ function engine<T>(run: () => T): T {
         data: { problems: [{ field: error.field, message }] },
       })
     }
+    if (error instanceof JobTimeoutError) {
+      const message = `this case needs more than ${error.limit_s} s of engine time; ${COARSEN_HINT}`
+      throw createError({ statusCode: 422, statusMessage: 'This plan takes too long to compute', message: `plan: ${message}`, data: { problems: [{ field: 'plan', message }] } })
+    }
+    if (error instanceof JobQueueFullError) {
+      throw createError({ statusCode: 503, statusMessage: 'The engine is busy', message: 'Too many computations are waiting; try again in a few seconds.' })
+    }
     throw error
   }
 }
 
-export const computeResolved = (plan: ResolvedPlan): PlanResult => engine(() => computePlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
-export const checkResolved = (plan: ResolvedPlan): PlanCheckResult => engine(() => checkPlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
+export const computeResolved = (plan: ResolvedPlan): Promise<PlanResult> => engine(() => planEngine().compute(plan))
+export const checkResolved = (plan: ResolvedPlan): Promise<PlanCheckResult> => engine(() => planEngine().check(plan))
 
 export async function previewPlan(spec: PlanSpec): Promise<PlanResult> {
-  return computeResolved(await resolvePlan(spec))
+  return await computeResolved(await resolvePlan(spec))
 }
 
 export async function checkSpec(spec: PlanSpec): Promise<PlanCheckResult> {
-  return checkResolved(await resolvePlan(spec))
+  return await checkResolved(await resolvePlan(spec))
 }
 
 function storedPlan(spec: unknown): ResolvedPlan {
@@ -142,8 +153,8 @@ export async function setPlanArchived(id: number, archived: boolean, actorId: nu
   return { id, archived }
 }
 
-async function insertRevision(tx: Transaction, planId: number, revision: number, plan: ResolvedPlan, note: string | null, actorId: number) {
-  const result = computeResolved(plan)
+/** `result` is computed before the transaction opens: a solve never holds row locks or a connection. */
+async function insertRevision(tx: Transaction, planId: number, revision: number, plan: ResolvedPlan, result: PlanResult, note: string | null, actorId: number) {
   await tx.insert(planRevisions).values({
     planId,
     revision,
@@ -152,7 +163,6 @@ async function insertRevision(tx: Transaction, planId: number, revision: number,
     note,
     createdBy: actorId,
   })
-  return result
 }
 
 /** What POST /api/plans does; the demo seed calls it too (with the script's database), so demo plans are ordinary plans. */
@@ -162,9 +172,10 @@ export async function createPlan(spec: PlanSpec, actorId: number, note: string |
 }
 
 async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}, db: Database = useDb()): Promise<PlanDetail> {
-  const { id, result } = await db.transaction(async (tx) => {
+  const result = await computeResolved(resolved)
+  const id = await db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(plans).values({ name: resolved.name, latestRevision: 1, createdBy: actorId }).$returningId()
-    const result = await insertRevision(tx, id, 1, resolved, note, actorId)
+    await insertRevision(tx, id, 1, resolved, result, note, actorId)
     await recordAudit(tx, {
       actorId,
       action,
@@ -172,7 +183,7 @@ async function createFromResolved(resolved: ResolvedPlan, actorId: number, note:
       entityId: id,
       details: { name: resolved.name, revision: 1, quenchToHandling_s: result.summary.quenchToHandling_s, ...details },
     })
-    return { id, result }
+    return id
   })
   // The result was just computed for the revision; reading the plan back need not compute it again.
   return { ...(await readPlan(id, 1, db)), result }
@@ -181,11 +192,12 @@ async function createFromResolved(resolved: ResolvedPlan, actorId: number, note:
 /** An edit is a new revision; earlier revisions are never touched. */
 export async function addRevision(id: number, spec: PlanSpec, note: string | null, actorId: number): Promise<PlanDetail> {
   const resolved = await resolvePlan(spec)
-  const { revision, result } = await useDb().transaction(async (tx) => {
+  const result = await computeResolved(resolved)
+  const revision = await useDb().transaction(async (tx) => {
     const [plan] = await tx.select().from(plans).where(eq(plans.id, id)).for('update')
     if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
     const revision = plan.latestRevision + 1
-    const result = await insertRevision(tx, id, revision, resolved, note, actorId)
+    await insertRevision(tx, id, revision, resolved, result, note, actorId)
     await tx.update(plans).set({ name: resolved.name, latestRevision: revision }).where(eq(plans.id, id))
     await recordAudit(tx, {
       actorId,
@@ -194,7 +206,7 @@ export async function addRevision(id: number, spec: PlanSpec, note: string | nul
       entityId: id,
       details: { revision, name: resolved.name, quenchToHandling_s: result.summary.quenchToHandling_s, from: plan.latestRevision },
     })
-    return { revision, result }
+    return revision
   })
   return { ...(await readPlan(id, revision)), result }
 }
@@ -212,7 +224,7 @@ export async function duplicatePlan(id: number, actorId: number): Promise<PlanDe
 /** The given revision (default: latest) with its freshly computed result and the revision list. */
 export async function getPlan(id: number, revision?: number, db: Database = useDb()): Promise<PlanDetail> {
   const plan = await readPlan(id, revision, db)
-  return { ...plan, result: computeResolved(plan.spec) }
+  return { ...plan, result: await computeResolved(plan.spec) }
 }
 
 /** The given revision (default: latest) and the revision list, without computing the result. */

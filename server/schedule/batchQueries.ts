@@ -63,12 +63,18 @@ export async function collisions(tx: Transaction, furnaceId: number, stationId: 
     tx
       .select()
       .from(batches)
-      .where(and(eq(batches.furnaceId, furnaceId), open, ne(batches.id, exceptId), lt(batches.furnaceStart, new Date(slots.furnaceEnd)), gt(batches.furnaceEnd, new Date(slots.furnaceStart))))
+      .where(and(
+        eq(batches.furnaceId, furnaceId), open, ne(batches.id, exceptId),
+        lt(batches.furnaceStart, new Date(slots.furnaceEnd)), gt(batches.furnaceEnd, new Date(slots.furnaceStart)),
+      ))
       .orderBy(asc(batches.furnaceStart)),
     tx
       .select()
       .from(batches)
-      .where(and(eq(batches.stationId, stationId), open, ne(batches.id, exceptId), lt(batches.quenchStart, new Date(slots.quenchEnd)), gt(batches.quenchEnd, new Date(slots.quenchStart))))
+      .where(and(
+        eq(batches.stationId, stationId), open, ne(batches.id, exceptId),
+        lt(batches.quenchStart, new Date(slots.quenchEnd)), gt(batches.quenchEnd, new Date(slots.quenchStart)),
+      ))
       .orderBy(asc(batches.quenchStart)),
   ])
   return { furnace, station }
@@ -143,20 +149,37 @@ export async function eventViewsOf(db: Database | Transaction, batchIds: number[
   if (batchIds.length === 0) return views
   const [events, corrections] = await Promise.all([
     db
-      .select({ id: batchEvents.id, batchId: batchEvents.batchId, fromState: batchEvents.fromState, toState: batchEvents.toState, at: batchEvents.at, actorId: batchEvents.actorId, actorName: users.displayName, shortfallNote: batchEvents.shortfallNote })
+      .select({
+        id: batchEvents.id,
+        batchId: batchEvents.batchId,
+        fromState: batchEvents.fromState,
+        toState: batchEvents.toState,
+        at: batchEvents.at,
+        actorId: batchEvents.actorId,
+        actorName: users.displayName,
+        shortfallNote: batchEvents.shortfallNote,
+      })
       .from(batchEvents)
       .leftJoin(users, eq(users.id, batchEvents.actorId))
       .where(inArray(batchEvents.batchId, batchIds))
       .orderBy(asc(batchEvents.at), asc(batchEvents.id)),
     db
-      .select({ eventId: batchEventCorrections.eventId, correctedAt: batchEventCorrections.correctedAt, reason: batchEventCorrections.reason, by: users.displayName, madeAt: batchEventCorrections.createdAt })
+      .select({
+        eventId: batchEventCorrections.eventId,
+        correctedAt: batchEventCorrections.correctedAt,
+        reason: batchEventCorrections.reason,
+        by: users.displayName,
+        madeAt: batchEventCorrections.createdAt,
+      })
       .from(batchEventCorrections)
       .innerJoin(users, eq(users.id, batchEventCorrections.actorId))
       .where(inArray(batchEventCorrections.batchId, batchIds))
       .orderBy(asc(batchEventCorrections.createdAt), asc(batchEventCorrections.id)),
   ])
   for (const event of events) {
-    const own = corrections.filter((c) => c.eventId === event.id).map((c) => ({ at: c.correctedAt.toISOString(), reason: c.reason, by: c.by, madeAt: c.madeAt.toISOString() }))
+    const own = corrections
+      .filter((c) => c.eventId === event.id)
+      .map((c) => ({ at: c.correctedAt.toISOString(), reason: c.reason, by: c.by, madeAt: c.madeAt.toISOString() }))
     views.get(event.batchId)!.push({
       id: event.id,
       fromState: event.fromState,

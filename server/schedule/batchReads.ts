@@ -2,8 +2,8 @@ import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database } from '../db/client'
 import { batches, planRevisions, plans } from '../db/schema'
-import { FLOOR_STATES } from '../../shared/schedule'
-import type { BatchDetail, FloorBatch, PlanOption } from '../../shared/types/schedule'
+import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
+import type { BatchDetail, FloorBatch, FloorCurve, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
 import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
 import { quenchMediumOf } from './quenchMedium'
@@ -51,17 +51,48 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     .orderBy(asc(batches.furnaceStart))
     .limit(200)
   const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
-  const list: FloorBatch[] = rows.map((r) => ({
-    ...toBatchView(r.batch, settings, now),
-    planName: r.plan.name,
-    furnaceName: r.furnace.name,
-    stationName: r.station.name,
-    summary: readSummary(r.revision.summary)!,
-    minimumSoak_s: r.batch.minimumSoak_s,
-    quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
-    events: events.get(r.batch.id)!,
-  }))
+  const list: FloorBatch[] = rows.map((r) => {
+    const view = toBatchView(r.batch, settings, now)
+    return {
+      id: view.id,
+      loadNumber: view.loadNumber,
+      planRevisionId: view.planRevisionId,
+      partCount: view.partCount,
+      mass_kg: view.mass_kg,
+      reference: view.reference,
+      state: view.state,
+      furnaceStart: view.furnaceStart,
+      furnaceEnd: view.furnaceEnd,
+      quenchEnd: view.quenchEnd,
+      handlingAt: view.handlingAt,
+      chargedAt: view.chargedAt,
+      quenchedAt: view.quenchedAt,
+      planName: r.plan.name,
+      furnaceName: r.furnace.name,
+      stationName: r.station.name,
+      handling_C: readSummary(r.revision.summary)!.handling_C,
+      quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
+      ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
+      taps: events
+        .get(r.batch.id)!
+        .filter((event) => event.actorId !== null && FLOOR_TAPS.includes(event.toState))
+        .map(({ id, toState, at, originalAt }) => ({ id, toState, at, originalAt })),
+    }
+  })
   return { serverNow: now, settings, batches: list }
+}
+
+/** The handling-point series of the given plan revisions, for the floor's countdown cards. */
+export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve[]> {
+  if (planRevisionIds.length === 0) return []
+  const rows = await useDb()
+    .select({ id: planRevisions.id, summary: planRevisions.summary })
+    .from(planRevisions)
+    .where(inArray(planRevisions.id, planRevisionIds))
+  return rows.flatMap((row) => {
+    const summary = readSummary(row.summary)
+    return summary ? [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries }] : []
+  })
 }
 
 /** Plan revisions with a computed summary, newest first: what the booking form offers. */

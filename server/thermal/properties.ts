@@ -121,5 +121,6 @@ export function maxCapacityRatio(pieces: PropertyPiece[]): number {
  * split at every property breakpoint (and at `extraBreakpoints`), panels no wider than `maxWidth`.
  */
 export function weightedRule(domain: ScaledDomain, maxWidth: number, extraBreakpoints: number[] = []): QuadratureRule {
-  return compositeRule([...breakpointsOf(domain.pieces), ...extraBreakpoints], maxWidth, (x) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m))
+  const capacityWeight = (x: number) => propertiesAt(domain.pieces, x).c * (domain.m === 0 ? 1 : x ** domain.m)
+  return compositeRule([...breakpointsOf(domain.pieces), ...extraBreakpoints], maxWidth, capacityWeight)
 }

@@ -52,8 +52,13 @@ export function brent(f: (x: number) => number, a: number, b: number, options: B
       e = d
     }
     if (Math.abs(fc) < Math.abs(fb)) {
-      a = b; b = c; c = a
-      fa = fb; fb = fc; fc = fa
+      // Swap so that b is the better estimate (Brent's bookkeeping: a keeps the old b).
+      a = b
+      b = c
+      c = a
+      fa = fb
+      fb = fc
+      fc = fa
     }
     const tol = 2 * EPS * Math.abs(b) + 0.5 * (xtol + rtol * Math.abs(b))
     const mid = 0.5 * (c - b)

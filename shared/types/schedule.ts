@@ -1,6 +1,7 @@
 import type { BatchFlags, BatchState, ShopSettings } from '../schedule'
 import type { FurnaceKind } from '../schemas/schedule'
 import type { QuenchantKind } from '../schemas/quenchant'
+import type { PointStage } from '../pointSeries'
 import type { PlanSummary } from './plan'
 
 export interface Furnace {
@@ -83,21 +84,39 @@ export interface ScheduleResponse {
   batches: BatchView[]
 }
 
-export interface FloorBatch extends BatchView {
+/**
+ * What one floor card needs, and no more: the poll repeats it every few seconds for
+ * every load on the floor. Flags and the clock's moves are derived in the browser
+ * (shared/floorCountdown.ts); the curve comes once per plan revision from
+ * GET /api/floor/curves; the conflict pair is present only when there is one.
+ */
+export interface FloorBatch
+  extends Pick<BatchView, 'id' | 'loadNumber' | 'planRevisionId' | 'partCount' | 'mass_kg' | 'reference' | 'state' | 'furnaceStart' | 'furnaceEnd' | 'quenchEnd' | 'handlingAt' | 'chargedAt' | 'quenchedAt'> {
   planName: string
   furnaceName: string
   stationName: string
-  summary: PlanSummary
-  minimumSoak_s: number | null
+  /** The plan's handling temperature (°C), for the countdown's caption. */
+  handling_C: number
   quenchDelayAllowance_s: number
-  /** The floor taps so far, for corrections and the card's history. */
-  events: BatchEventView[]
+  conflictWith?: string
+  conflictNote?: string | null
+  /** Taps a person made on the floor (what the card offers to correct); other events stay on the batch's page. */
+  taps: FloorTap[]
 }
+
+/** What a floor card needs of a tap to offer its correction; who tapped and why stay on the batch's page. */
+export type FloorTap = Pick<BatchEventView, 'id' | 'toState' | 'at' | 'originalAt'>
 
 export interface FloorResponse {
   serverNow: number
   settings: ShopSettings
   batches: FloorBatch[]
+}
+
+/** GET /api/floor/curves: each plan revision's handling-point series (a revision never changes). */
+export interface FloorCurve {
+  planRevisionId: number
+  handlingPointSeries: PointStage[]
 }
 
 export interface PlanOption {

@@ -1,5 +1,5 @@
 /**
- * Issue 11 over HTTP: one preview from any signed-in role could hold the server for
+ * Previews over HTTP: one preview from any signed-in role could once hold the server for
  * good (a 1e-300 m plate) and heavy graded previews held it for 10–13 s. Each input
  * now answers within 5 s with a field and a reason, and the server answers right after.
  */

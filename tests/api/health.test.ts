@@ -8,7 +8,7 @@ const db = (command: 'start' | 'stop') => execFileSync('bash', ['scripts/db.sh',
 describe('/api/health', () => {
   it('is 200 with the app version while MariaDB runs, 503 with a clear message when it is down', async () => {
     const up = await anonymous().request('/api/health')
-    expect(up).toEqual({ status: 200, body: { status: 'ok', database: 'reachable', version: pkg.version } })
+    expect(up).toEqual({ status: 200, body: { status: 'ok', database: 'reachable', version: pkg.version, engine: expect.objectContaining({ mode: 'worker' }) } })
 
     db('stop')
     try {

@@ -65,6 +65,7 @@ const PAGE_CALLS: Record<string, Call[]> = {
   'pages/floor.vue': [
     { call: 'GET /api/furnaces' },
     { call: 'GET /api/floor' },
+    { call: 'GET /api/floor/curves', via: 'composables/useFloorCurves.ts' },
     { call: 'POST /api/batches/[id]/events', when: 'floor.record' },
     { call: 'POST /api/batches/[id]/events/[eventId]/corrections', via: 'components/batch/BatchTapCorrection.vue' },
   ],

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { bookedHeatUp_s, tapShortfall, type GuardTimes } from '../../shared/floorGuards'
 
-// Issue 14's load: charged 05:05:00 UTC, predicted heat-up 2 min 39 s, minimum soak 2 min.
+// A load tapped early on a tablet: charged 05:05:00 UTC, predicted heat-up 2 min 39 s, minimum soak 2 min.
 const charged = Date.parse('2026-03-04T05:05:00Z')
 const times: GuardTimes = { chargedAt: charged, furnaceEnd: charged + 279_000, handlingAt: charged + 900_000, heatUp_s: 159, minimumSoak_s: 120 }
 

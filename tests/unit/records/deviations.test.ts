@@ -56,7 +56,7 @@ describe('findDeviations', () => {
   })
 
   it('heat-up shorter than predicted: core at heat 14 s after charging against 2 min 39 s is 2 min 25 s sooner', () => {
-    // Issue 14's early tap: 159 − 14 = 145 s = 2 min 25 s
+    // An early tap seen on a tablet: 159 − 14 = 145 s = 2 min 25 s
     const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
     expect(findDeviations(shortPlan, at({ charged: 0, soaking: 14 }))).toEqual([
       {
@@ -69,7 +69,7 @@ describe('findDeviations', () => {
     ])
   })
 
-  it('issue 14 load: early core-at-heat, 20 s soak to a quench with no door tap, no quench delay derived', () => {
+  it('a load tapped early: early core-at-heat, 20 s soak to a quench with no door tap, no quench delay derived', () => {
     // heat-up 14 s (145 s short); soak 34 − 14 = 20 s against 120 s (100 s = 1 min 40 s short); door missing: no delay rule
     const shortPlan: DeviationPlan = { heatUp_s: 159, minimumSoak_s: 120, quenchDelayAllowance_s: 20, quenchToHandling_s: 600 }
     const found = findDeviations(shortPlan, at({ charged: 0, soaking: 14, quenched: 34, released: 700 }))
@@ -134,6 +134,7 @@ describe('deviationPlanFromSummary', () => {
   }
   it('takes heat-up, soak and handling time from the stored summary and the allowance from the shop', () => {
     expect(deviationPlanFromSummary(summary, 30)).toEqual({ heatUp_s: 4200, minimumSoak_s: 3600, quenchDelayAllowance_s: 30, quenchToHandling_s: 979.5 })
-    expect(deviationPlanFromSummary({ ...summary, soak: null }, 45)).toEqual({ heatUp_s: null, minimumSoak_s: null, quenchDelayAllowance_s: 45, quenchToHandling_s: 979.5 })
+    expect(deviationPlanFromSummary({ ...summary, soak: null }, 45))
+      .toEqual({ heatUp_s: null, minimumSoak_s: null, quenchDelayAllowance_s: 45, quenchToHandling_s: 979.5 })
   })
 })

@@ -1,6 +1,6 @@
 /**
- * Issue 11, item 1: every computation ends. Each finding of the issue is reproduced
- * here in the engine (cliRefusals.test.ts does it on the command line) and must now be
+ * Every computation ends. Each case that once hung or crashed the engine is reproduced
+ * here (cliRefusals.test.ts does it on the command line) and must now be
  * refused with a field and a reason; a property test then draws cases across the whole
  * accepted range (shared/physicalBounds.ts) and requires each to answer within 5 s,
  * with finite numbers or a `field: message` refusal, never a loop or a stack trace.
@@ -15,7 +15,7 @@ import { runCase, type CaseResult } from '../../../server/thermal/runCase'
 import { solveCooldown } from '../../../server/thermal/solveCooldown'
 import { CASE_LIMITS, PHYSICAL, type PhysicalRange } from '../../../shared/physicalBounds'
 import { resolvedPlanSchema } from '../../../shared/schemas/plan'
-import { ANSWER_WITHIN_MS, FINDINGS } from './issue11Findings'
+import { ANSWER_WITHIN_MS, PATHOLOGICAL_CASES } from './pathologicalCases'
 
 /** runCase under the product's budget: the result or the refusal, and the wall time it took. */
 function timed(input: unknown): { result?: CaseResult; error?: unknown; ms: number } {
@@ -28,8 +28,8 @@ function timed(input: unknown): { result?: CaseResult; error?: unknown; ms: numb
   }
 }
 
-describe('the findings of issue 11 are refused in the engine, naming the field', () => {
-  it.each(FINDINGS)('$name → $field', ({ input, field, message }) => {
+describe('the pathological cases are refused in the engine, naming the field', () => {
+  it.each(PATHOLOGICAL_CASES)('$name → $field', ({ input, field, message }) => {
     const { error, ms } = timed(input)
     expect(error).toBeInstanceOf(CaseError)
     expect((error as CaseError).field).toBe(field)
@@ -69,13 +69,13 @@ describe('the engine refuses on its own, below the schema', () => {
     let now = 0
     // Each reading of the clock advances it by 10 ms: the budget of 1 s runs out mid-solve.
     const deadline = new Deadline(1000, () => (now += 10))
-    const graded = { ...FINDINGS[2]!.input, size_m: 0.02 }
+    const graded = { ...PATHOLOGICAL_CASES[2]!.input, size_m: 0.02 }
     expect(() => runCase(graded, { deadline })).toThrow(/^material\.profile: this case needs more than 1 s to solve/)
   })
 })
 
 /**
- * Issue 11's heavy previews: a graded sphere, six alternating stages, sizes in metres
+ * Heavy previews that once ran for seconds: a graded sphere, six alternating stages, sizes in metres
  * (10–13 s each before). Under the budget each answers in time: a result or a refusal
  * on the plan's material.
  */

@@ -1,9 +1,10 @@
 /**
- * Issue 11's findings as engine cases, each with the field its refusal must name and
- * the words of the reason: shared by the engine and command-line regression tests.
+ * Cases that once hung or crashed the engine (absurd sizes, extreme coefficients, jumps
+ * in conductivity), each with the field its refusal must name and the words of the
+ * reason: shared by the engine and command-line regression tests.
  */
 
-/** The issue's limit for an answer, wall clock. */
+/** The longest an answer may take, wall clock, before a case counts as hung. */
 export const ANSWER_WITHIN_MS = 5000
 
 const steel = { k: 40, rho: 7850, cp: 475 }
@@ -13,8 +14,8 @@ const layered = (k1: number, k2: number) => ({
 })
 const oilThenAir = [{ surface: { h: 800, ambient_C: 60 }, duration_s: 180 }, { surface: { h: 15, ambient_C: 25 } }]
 
-/** The issue's findings as engine cases, each with the field its refusal must name. */
-export const FINDINGS: { name: string; input: Record<string, unknown>; field: string; message: RegExp }[] = [
+/** The cases, each with the field its refusal must name. */
+export const PATHOLOGICAL_CASES: { name: string; input: Record<string, unknown>; field: string; message: RegExp }[] = [
   {
     name: 'a slab 1e-300 m thick (looped for good)',
     input: { geometry: 'slab', size_m: 1e-300, material: steel, initial_C: 850, stages: oilThenAir, target: { below_C: 100 } },

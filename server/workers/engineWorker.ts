@@ -1,0 +1,29 @@
+/**
+ * Worker-thread entry for engine jobs (run by the pool in server/workers/jobPool.ts).
+ * Each named export is one job. The build bundles this file on its own into
+ * .output/server/workers/engineWorker.mjs (modules/engineWorker.ts), so it imports
+ * only framework-free code: the planning computations and the engine.
+ *
+ * Errors lose their class crossing threads, so an engine refusal (CaseError) comes
+ * back as a value and the request thread rebuilds it.
+ */
+import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
+import { CaseError } from '../thermal/errors'
+import { checkPlan, computePlan } from '../planning/computePlan'
+import type { ResolvedPlan } from '../../shared/schemas/plan'
+import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
+
+export type EngineOutcome<T> = { ok: true; value: T } | { ok: false; field: string; message: string }
+
+function outcome<T>(run: () => T): EngineOutcome<T> {
+  try {
+    return { ok: true, value: run() }
+  } catch (error) {
+    if (error instanceof CaseError) return { ok: false, field: error.field, message: error.reason }
+    throw error
+  }
+}
+
+// The engine's own budget refuses a slow case with a message; the pool's cap is the backstop for anything it misses.
+export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
+export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))

@@ -1,0 +1,95 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { BASE_URL } from '../support/stackConfig'
+import { anonymous, signInDemo, type Client } from '../support/http'
+import { createLibraryFixture } from '../support/library'
+import { pinSpec, savePlan, type SavedPlan } from '../support/plans'
+import { booking, createLine } from '../support/schedule'
+import { pointValue } from '../../shared/pointSeries'
+
+let admin: Client
+let metallurgist: Client
+let operator: Client
+let pin: SavedPlan
+const booked: number[] = []
+const CARDS = 40
+
+/** A raw GET with the operator's session, so headers and bytes can be read as sent. */
+const get = (path: string, headers: Record<string, string> = {}) => fetch(`${BASE_URL}${path}`, { headers: { cookie: operator.cookie, accept: 'application/json', ...headers } })
+
+beforeAll(async () => {
+  ;[admin, metallurgist, operator] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator')])
+  pin = await savePlan(metallurgist, pinSpec(await createLibraryFixture(metallurgist)))
+  // 40 loads due within the floor's 12 hours: eight lines, five loads each back to back.
+  for (let l = 0; l < CARDS / 5; l++) {
+    const line = await createLine(admin, 'Floor')
+    let charge = Date.now() + 10 * 60_000
+    for (let k = 0; k < 5; k++) {
+      const response = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, `WO-FLOOR-${l}-${k}`) })
+      if (response.status !== 201) throw new Error(`booking: ${response.status} ${JSON.stringify(response.body)}`)
+      booked.push(response.body.id)
+      charge = response.body.furnaceEnd + 5 * 60_000
+    }
+  }
+}, 120_000)
+
+afterAll(async () => {
+  // Withdrawn loads leave the floor, so the browser tests see the floor they expect.
+  for (const id of booked) await metallurgist.request(`/api/batches/${id}/events`, { method: 'POST', body: { to: 'cancelled' } })
+})
+
+describe('the floor poll', () => {
+  it(`sends card data only: under 20 kB for ${CARDS} cards, no curves`, async () => {
+    const response = await get('/api/floor')
+    expect(response.status).toBe(200)
+    const text = await response.text()
+    const floor = JSON.parse(text)
+    const ours = floor.batches.filter((b: { id: number }) => booked.includes(b.id))
+    expect(ours).toHaveLength(CARDS)
+    expect(text).not.toContain('handlingPointSeries')
+    expect(ours[0].handling_C).toBe(pin.summary.handling_C)
+    expect(ours[0]).not.toHaveProperty('flags')
+    // Other tests' loads may share the floor: the figure is per card, scaled to 40.
+    const perCard = Buffer.byteLength(text) / floor.batches.length
+    expect(perCard * CARDS).toBeLessThan(20_000)
+  })
+
+  it('answers 304 with no body while nothing changed, with the server clock in a header; a change gives a new ETag', async () => {
+    const first = await get('/api/floor')
+    const tag = first.headers.get('etag')
+    expect(tag).toMatch(/^W\/".+"$/)
+    expect(first.headers.get('cache-control')).toContain('no-cache')
+    const before = Date.now()
+    const again = await get('/api/floor', { 'if-none-match': tag! })
+    expect(again.status).toBe(304)
+    expect(await again.text()).toBe('')
+    expect(Math.abs(Number(again.headers.get('x-server-now')) - before)).toBeLessThan(5000)
+
+    // Withdrawing one of our loads changes the cards.
+    const last = booked.pop()!
+    expect((await metallurgist.request(`/api/batches/${last}/events`, { method: 'POST', body: { to: 'cancelled' } })).status).toBe(201)
+    const changed = await get('/api/floor', { 'if-none-match': tag! })
+    expect(changed.status).toBe(200)
+    expect(changed.headers.get('etag')).not.toBe(tag)
+  })
+
+  it('sends the curves once per plan revision: the same series the plan saved', async () => {
+    const response = await get(`/api/floor/curves?ids=${pin.planRevisionId}`)
+    expect(response.status).toBe(200)
+    expect(response.headers.get('cache-control')).toContain('immutable')
+    const curves = await response.json()
+    expect(curves).toHaveLength(1)
+    expect(curves[0].planRevisionId).toBe(pin.planRevisionId)
+    // The saved series crosses the handling temperature at the saved quench-to-handling time.
+    expect(pointValue(curves[0].handlingPointSeries, pin.summary.quenchToHandling_s)).toBeCloseTo(pin.summary.handling_C, 6)
+  })
+
+  it('400 naming ids for a bad list; 401 without a session; 403 for a role without the floor', async () => {
+    const bad = await operator.request('/api/floor/curves?ids=3,x')
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems).toEqual([{ field: 'ids', message: 'ids must list plan revision ids separated by commas' }])
+    expect((await operator.request('/api/floor/curves')).status).toBe(400)
+    expect((await anonymous().request('/api/floor/curves?ids=1')).status).toBe(401)
+    const qa = await signInDemo('qa')
+    expect((await qa.request('/api/floor/curves?ids=1')).status).toBe(403)
+  })
+})
