@@ -41,7 +41,7 @@ describe('signing a record from the e-mailed link', () => {
 
     // Approving signs for good: the first tap only asks for confirmation.
     await page.getByRole('button', { name: 'Approve record' }).click()
-    expect(await page.getByTestId('record-state').textContent()).toBe('Unsigned')
+    expect(await page.getByTestId('record-state').textContent()).toBe('Waiting for sign-off')
     await page.getByRole('button', { name: 'Confirm: approve and sign' }).click()
     await page.getByRole('status').filter({ hasText: 'Record approved.' }).waitFor()
     expect((await page.getByTestId('sign-off-state').textContent())!.trim()).toBe(`Approved by ${user.displayName}`)
@@ -83,8 +83,9 @@ describe('the record of a load with an early tap, a correction and no door tap',
   it('desktop: a metallurgist corrects core at heat on the record; tablet: QA reads recorded and predicted moments apart, to the second', async () => {
     const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
     const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
-    const line = await createLine(admin, 'Truth')
+    const line = await createLine(admin, 'Truth', 'water')
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-TRUTH') })
+    expect(booked.status).toBe(201)
     const batchId = booked.body.id
     await move(operator, batchId, 'charged')
     // Core at heat tapped at once, confirmed early; the door tap is missed.
