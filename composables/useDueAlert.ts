@@ -1,6 +1,6 @@
 import { floorCountdown } from '~~/shared/floorCountdown'
 import { dueMoment, newlyDue } from '~~/shared/floorAlerts'
-import type { FloorResponse } from '~~/shared/types/schedule'
+import type { FloorBatch, FloorResponse } from '~~/shared/types/schedule'
 
 const SETTING_KEY = 'slakewise.floor.alert'
 
@@ -33,7 +33,9 @@ export function useDueAlert(floor: Ref<FloorResponse | null>, now: Ref<number>) 
   watch([floor, now], () => {
     if (!floor.value) return
     const { batches, settings } = floor.value
-    const due = new Map(batches.map((b) => [b.id, dueMoment(floorCountdown({ ...b, summary: { handling_C: b.handling_C } }, now.value, settings.temperWithin_s))]))
+    // Which moment is due needs no curve, only the handling temperature of the caption.
+    const dueOf = (b: FloorBatch) => dueMoment(floorCountdown({ ...b, summary: { handling_C: b.handling_C } }, now.value, settings.temperWithin_s))
+    const due = new Map(batches.map((b) => [b.id, dueOf(b)]))
     const fresh = newlyDue(due, announced)
     for (const key of fresh) announced.add(key)
     // The first answer only records what is already due.
