@@ -98,7 +98,14 @@ export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve
 /** Plan revisions with a computed summary, newest first: what the booking form offers. */
 export async function planOptions(): Promise<PlanOption[]> {
   const rows = await useDb()
-    .select({ planRevisionId: planRevisions.id, planId: plans.id, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary, spec: planRevisions.spec })
+    .select({
+      planRevisionId: planRevisions.id,
+      planId: plans.id,
+      planName: plans.name,
+      revision: planRevisions.revision,
+      summary: planRevisions.summary,
+      spec: planRevisions.spec,
+    })
     .from(planRevisions)
     .innerJoin(plans, eq(plans.id, planRevisions.planId))
     .where(and(eq(plans.archived, false), sql`${planRevisions.summary} IS NOT NULL`))

@@ -91,7 +91,8 @@ describe('booking', () => {
     expect(second.status).toBe(409)
     expect(second.body.data.collidesWith).toMatchObject({ loadNumber: first.body.loadNumber, resource: 'station' })
     // The bath must start when the first bath ends: start = bath end − (furnace time + transfer).
-    expect(Date.parse(second.body.data.nextFreeStart)).toBe(Math.ceil((first.body.quenchEnd - (first.body.quenchStart - first.body.furnaceStart)) / 1000) * 1000)
+    const firstFreeCharge = first.body.quenchEnd - (first.body.quenchStart - first.body.furnaceStart)
+    expect(Date.parse(second.body.data.nextFreeStart)).toBe(Math.ceil(firstFreeCharge / 1000) * 1000)
   })
 
   it('400 naming each missing or wrong field, 422 for a station that does not serve the furnace, 403 for operators', async () => {
@@ -136,7 +137,11 @@ describe('bookings the floor can run', () => {
     const charge = futureDay()
     const a = (await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, 'Move A') })).body
     const b = (await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge + 6 * HOUR, 'Move B') })).body
-    const place = (target: typeof line, at: number) => ({ furnaceId: target.furnace.id, stationId: target.station.id, plannedCharge: new Date(at).toISOString() })
+    const place = (target: typeof line, at: number) => ({
+      furnaceId: target.furnace.id,
+      stationId: target.station.id,
+      plannedCharge: new Date(at).toISOString(),
+    })
 
     // Onto B's time on the same line: refused like a booking, with a whole-second offer after B.
     const clash = await metallurgist.request(`/api/batches/${a.id}`, { method: 'PATCH', body: place(line, charge + 6 * HOUR + 60_000) })

@@ -86,7 +86,9 @@ describe('the record written on release', () => {
     expect(s.plan).toMatchObject({ planId: cleanPlan.planId, revisionId: cleanPlan.planRevisionId, revision: 1 })
     // tests/support/library.ts: steel k 40, ρ 7850, cₚ 475; water h 3000 (2500–3500) at 30 °C.
     expect(s.plan.spec.library.material).toMatchObject({ k_W_mK: 40, density_kg_m3: 7850, specificHeat_J_kgK: 475 })
-    expect(s.plan.spec.library.quenchants).toEqual([expect.objectContaining({ id: lib.waterId, hTypical_W_m2K: 3000, hLow_W_m2K: 2500, hHigh_W_m2K: 3500, bath_C: 30 })])
+    expect(s.plan.spec.library.quenchants).toEqual([
+      expect.objectContaining({ id: lib.waterId, hTypical_W_m2K: 3000, hLow_W_m2K: 2500, hHigh_W_m2K: 3500, bath_C: 30 }),
+    ])
     expect(s.plan.spec.soak).toMatchObject({ furnace_C: 860, minimumSoak_s: 2 })
     expect(s.predicted).toMatchObject({
       handling_C: 60,
