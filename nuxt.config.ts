@@ -8,7 +8,40 @@ export default defineNuxtConfig({
   srcDir: '.',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth', 'nuxt-security'],
+  // Response headers (CSP with a per-response nonce, no framing, nosniff, no referrer) and no
+  // x-powered-by come from nuxt-security. Its request-size limiter skips PATCH and chunked bodies,
+  // its rate limiter counts per process and its XSS filter rewrites input, so those three are off:
+  // server/middleware/requestGuard.ts limits bodies and the database-backed sign-in limits count.
+  security: {
+    headers: {
+      contentSecurityPolicy: {
+        'base-uri': ['\'none\''],
+        'default-src': ['\'self\''],
+        'connect-src': ['\'self\''],
+        'font-src': ['\'self\''],
+        'form-action': ['\'self\''],
+        'frame-ancestors': ['\'none\''],
+        'img-src': ['\'self\'', 'data:'],
+        'object-src': ['\'none\''],
+        'script-src-attr': ['\'none\''],
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        // Shops serve Slakewise over plain HTTP on loopback or their LAN as well as behind TLS.
+        'upgrade-insecure-requests': false,
+      },
+      xFrameOptions: 'DENY',
+      referrerPolicy: 'same-origin',
+      // HSTS is the TLS proxy's to send: on plain HTTP it would lock browsers out of the LAN address.
+      strictTransportSecurity: false,
+      crossOriginEmbedderPolicy: false,
+    },
+    corsHandler: false,
+    requestSizeLimiter: false,
+    rateLimiter: false,
+    xssValidator: false,
+    removeLoggers: false,
+  },
   css: [
     '@fontsource/ibm-plex-sans/latin-400.css',
     '@fontsource/ibm-plex-sans/latin-500.css',
@@ -54,6 +87,8 @@ export default defineNuxtConfig({
     nodeTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
   },
   nitro: {
+    // Bundles and fonts are served pre-compressed (gzip and brotli) when the browser accepts it.
+    compressPublicAssets: { gzip: true, brotli: true },
     typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },
     // The PDF sheet reads Plex's font files at run time; listed, the build copies them beside the server.
     externals: { traceInclude: SHEET_FONT_FILES },

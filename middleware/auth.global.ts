@@ -15,10 +15,11 @@ export default defineNuxtRouteMiddleware(async (to) => {
   if (to.meta.public) return
   const { data, getSession } = useAuth()
   if (!data.value?.user) await getSession()
-  const user = data.value?.user as { role?: Role } | undefined
+  const user = data.value?.user as { role?: Role; mustChangePassword?: boolean } | undefined
   if (!user?.role) {
     return navigateTo({ path: '/login', query: { next: to.fullPath } })
   }
+  if (user.mustChangePassword && to.path !== '/account/password') return navigateTo('/account/password')
   if (to.meta.capability && !can(user.role, to.meta.capability)) {
     return navigateTo({ path: '/', query: { denied: to.path } })
   }

@@ -8,12 +8,26 @@ ensure_node_modules() {
   fi
 }
 
-# A stable secret for signing sessions, kept in the ignored .data folder.
 # Prints the secret kept in .data/<name>, making a random one the first time.
+# Readable by the owner only (0600), also when an older copy was not.
 ensure_secret() {
-  mkdir -p .data
-  [ -s ".data/$1" ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > ".data/$1"
+  mkdir -p .data && chmod 700 .data
+  [ -s ".data/$1" ] || (umask 077 && node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" > ".data/$1")
+  chmod 600 ".data/$1"
   cat ".data/$1"
+}
+
+# Stops a process: TERM, then KILL when it has not ended after the grace period
+# (a server busy in a long computation cannot run its TERM handler).
+stop_process() {
+  local pid=$1 grace=${2:-10}
+  kill -TERM "$pid" 2>/dev/null || return 0
+  for _ in $(seq 1 $((grace * 10))); do
+    kill -0 "$pid" 2>/dev/null || return 0
+    sleep 0.1
+  done
+  echo "[stop] process $pid did not stop within ${grace} s; killing it" >&2
+  kill -KILL "$pid" 2>/dev/null || true
 }
 
 # Rebuilds the app when any source is newer than the last build.

@@ -18,7 +18,7 @@ started_db=0
 stop_all() {
   trap - INT TERM EXIT
   echo; echo "[start] stopping…"
-  for pid in "${children[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for pid in "${children[@]}"; do stop_process "$pid" 10 & done
   wait 2>/dev/null || true
   [ "$started_db" = 1 ] && scripts/db.sh stop dev || true
 }
@@ -73,8 +73,9 @@ cat <<MSG
   Slakewise is running:   ${addresses[*]}
   Mail catcher (inbox):   http://localhost:$MAIL_WEB_PORT   (SMTP on 127.0.0.1:$MAIL_SMTP_PORT)
 
-  Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop):
+  Demo sign-ins (Kestrel Bay Heat Treat, a fictional shop; on loopback only):
 $(npx tsx scripts/demo-sign-ins.ts)
+  A shop's own first administrator: see "Putting Slakewise on the shop network" in README.md.
 
   Press Ctrl-C to stop.
 MSG

@@ -89,7 +89,7 @@ async function main(): Promise<number> {
 
     const shared = {
       AUTH_ORIGIN: `${base(APP_PORT)}/api/auth`,
-      NUXT_AUTH_SECRET: 'slakewise-cluster-test-secret',
+      NUXT_AUTH_SECRET: 'slakewise-cluster-test-secret-not-for-production',
       NUXT_RECORD_SEAL_KEY: 'slakewise-cluster-test-record-seal-key-0123456789',
       NUXT_SHOP_NAME: DEMO_SHOP_NAME,
       NUXT_LOAD_PREFIX: DEMO_LOAD_PREFIX,
@@ -102,7 +102,7 @@ async function main(): Promise<number> {
     say(`instances on ${base(APP_PORT)} (node 0 first) and ${base(APP_PORT + 1)} (node 1 first)`)
 
     const signIn = async (role: 'admin' | 'metallurgist' | 'operator') => {
-      const client = await signInAs(demoUser(role).email, demoUser(role).password, base(APP_PORT))
+      const client = await signInAs(demoUser(role).email, demoUser(role).password, { baseUrl: base(APP_PORT) })
       if (!client) throw new Error(`demo ${role} could not sign in`)
       return [client, sameSessionAt(client, base(APP_PORT + 1))] as const
     }

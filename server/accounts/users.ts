@@ -1,4 +1,4 @@
-import { asc, eq } from 'drizzle-orm'
+import { asc, eq, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { PublicUser } from '../../shared/types/user'
 import type { UserCreate, UserUpdate } from '../../shared/schemas/user'
@@ -7,6 +7,8 @@ import { recordAudit } from '../utils/audit'
 import { isDuplicateKey } from '../utils/dbErrors'
 import { hashPassword } from '../utils/password'
 import { useDb } from '../utils/db'
+import { assertPasswordAcceptable } from '../security/passwordPolicy'
+import { changeEndsSessions } from '../security/sessions'
 
 export function toPublicUser(row: UserRow): PublicUser {
   return {
@@ -26,6 +28,7 @@ export async function listUsers(): Promise<PublicUser[]> {
 }
 
 export async function createUser(input: UserCreate, actorId: number): Promise<PublicUser> {
+  assertPasswordAcceptable(input.password, input)
   const passwordHash = await hashPassword(input.password)
   try {
     return await useDb().transaction(async (tx) => {
@@ -64,6 +67,10 @@ export async function updateUser(id: number, change: UserUpdate, actorId: number
       data: { problems: [{ field: change.active === false ? 'active' : 'role', message: 'Ask another administrator to do this' }] },
     })
   }
+  if (change.password) {
+    const [owner] = await useDb().select().from(users).where(eq(users.id, id))
+    if (owner) assertPasswordAcceptable(change.password, { email: owner.email, displayName: change.displayName ?? owner.displayName })
+  }
   const passwordHash = change.password ? await hashPassword(change.password) : undefined
   return await useDb().transaction(async (tx) => {
     const [before] = await tx.select().from(users).where(eq(users.id, id)).for('update')
@@ -73,7 +80,9 @@ export async function updateUser(id: number, change: UserUpdate, actorId: number
     if (change.role !== undefined) values.role = change.role
     if (change.active !== undefined) values.active = change.active
     if (passwordHash) values.passwordHash = passwordHash
-    await tx.update(users).set(values).where(eq(users.id, id))
+    // A reset, a role change or a deactivation ends the sessions the account has open.
+    const endSessions = changeEndsSessions(before, change)
+    await tx.update(users).set({ ...values, ...(endSessions ? { sessionVersion: sql`${users.sessionVersion} + 1` } : {}) }).where(eq(users.id, id))
     const details: Record<string, unknown> = {}
     for (const key of ['displayName', 'role', 'active'] as const) {
       if (change[key] !== undefined && change[key] !== before[key]) details[key] = { from: before[key], to: change[key] }

@@ -22,6 +22,12 @@ export const users = mysqlTable('users', {
   /** scrypt$N$r$p$salt$hash — see server/utils/password.ts */
   passwordHash: varchar('password_hash', { length: 255 }).notNull(),
   active: boolean('active').notNull().default(true),
+  /** Raised to end every open session of the account (server/security/sessions.ts). */
+  sessionVersion: int('session_version').notNull().default(0),
+  /** Set on a generated first password: the account may do nothing but choose its own. */
+  mustChangePassword: boolean('must_change_password').notNull().default(false),
+  /** A demo shop sign-in with a published password: signs in only on loopback. */
+  demo: boolean('demo').notNull().default(false),
   ...timestamps,
 })
 
@@ -43,11 +49,13 @@ export const auditLog = mysqlTable(
 export type UserRow = typeof users.$inferSelect
 
 /**
- * Recent failed sign-ins per e-mail address (server/accounts/signInThrottle.ts), kept in
- * the database so that neither a restart nor a second server process resets the brake.
+ * Sign-in attempts per account ('account:<e-mail>') and per client address
+ * ('address:<ip>'), counted when they start so attempts in flight count too
+ * (server/security/signInLimits.ts), kept in the database so that neither a restart
+ * nor a second server process resets them.
  */
-export const signInFailures = mysqlTable('sign_in_failures', {
-  email: varchar('email', { length: 190 }).primaryKey(),
+export const signInAttempts = mysqlTable('sign_in_attempts', {
+  subject: varchar('subject', { length: 200 }).primaryKey(),
   count: int('count').notNull(),
   lastAt: datetime('last_at', { mode: 'date', fsp: 3 }).notNull(),
 })

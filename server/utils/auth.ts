@@ -19,10 +19,14 @@ export interface SessionUser {
  */
 export async function requireRole(event: H3Event, capability: Capability): Promise<SessionUser> {
   const session = await getServerSession(event)
-  const user = session?.user as { id?: unknown; email?: string; name?: string; role?: Role } | undefined
+  const user = session?.user as { id?: unknown; email?: string; name?: string; role?: Role; mustChangePassword?: boolean } | undefined
   const id = Number(user?.id)
   if (!user || !Number.isInteger(id) || id <= 0 || !user.role) {
     throw createError({ statusCode: 401, statusMessage: 'Sign in required' })
+  }
+  if (user.mustChangePassword) {
+    // A generated first password was shown once on a console; only its owner's own choice may act.
+    throw createError({ statusCode: 403, statusMessage: 'Choose your own password first', data: { problems: [{ field: 'password', message: 'Change the generated password at /account/password' }] } })
   }
   if (!can(user.role, capability)) {
     throw createError({

@@ -3,7 +3,7 @@ import { ROLES } from '../roles'
 
 const email = z.string({ message: 'E-mail is required' }).trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address' })).pipe(z.string().max(190, 'E-mail is too long'))
 const displayName = z.string({ message: 'Name is required' }).trim().min(2, 'Name needs at least 2 characters').max(120, 'Name is too long')
-const password = z.string({ message: 'Password is required' }).min(10, 'Password needs at least 10 characters').max(200, 'Password is too long')
+const password = z.string({ message: 'Password is required' }).min(12, 'Password needs at least 12 characters').max(200, 'Password is too long')
 const role = z.enum(ROLES, { message: `Role must be one of: ${ROLES.join(', ')}` })
 
 export const signInSchema = z.object({
@@ -20,3 +20,10 @@ export const userUpdateSchema = z
   .partial()
   .refine((value) => Object.keys(value).length > 0, { message: 'Nothing to change: send displayName, role, active or password' })
 export type UserUpdate = z.infer<typeof userUpdateSchema>
+
+/** A signed-in user choosing their own password; the strength rules are checked on the server. */
+export const ownPasswordSchema = z.strictObject({
+  currentPassword: z.string({ message: 'Enter your current password' }).min(1, 'Enter your current password').max(200, 'Password is too long'),
+  newPassword: password,
+})
+export type OwnPasswordChange = z.infer<typeof ownPasswordSchema>

@@ -56,7 +56,7 @@ beforeAll(async () => {
   db = await connectTestDb()
 
   // A user who works the floor as an operator and is later made a QA lead.
-  switcher = { id: 0, email: `switcher-${Date.now()}@kestrelbay.example`, password: 'switcher-pass-1' }
+  switcher = { id: 0, email: `switcher-${Date.now()}@kestrelbay.example`, password: 'Pewter-anvil-71-cascade' }
   const created = await admin.request('/api/users', { method: 'POST', body: { email: switcher.email, displayName: 'Ana Switcher', role: 'operator', password: switcher.password } })
   expect(created.status).toBe(201)
   switcher.id = created.body.id

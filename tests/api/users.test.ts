@@ -85,13 +85,16 @@ describe('user lifecycle', () => {
     expect(update.actorName).toBe('Rowan Achterberg')
   })
 
-  it('a role change takes effect on the next request', async () => {
+  it('a role change ends the open session; signing in again carries the new role', async () => {
     const email = `promoted.${Date.now()}@kestrelbay.example`
     const created = await admin.request('/api/users', { method: 'POST', body: { email, displayName: 'Promoted Person', role: 'operator', password: 'promote-me-please' } })
     const person = (await signInAs(email, 'promote-me-please'))!
     expect((await person.request('/api/audit')).status).toBe(403)
     await admin.request(`/api/users/${created.body.id}`, { method: 'PATCH', body: { role: 'qa' } })
-    expect((await person.request('/api/audit')).status).toBe(200)
+    // Issue 11: a role change raises the session version, so the old session stops at once.
+    expect((await person.request('/api/audit')).status).toBe(401)
+    const again = (await signInAs(email, 'promote-me-please'))!
+    expect((await again.request('/api/audit')).status).toBe(200)
   })
 
   it('refuses a duplicate e-mail with 409 naming the field', async () => {

@@ -58,21 +58,41 @@ export function anonymous(): Client {
   return makeClient(new Map())
 }
 
-/** Signs in through /api/auth/csrf and /api/auth/callback/credentials. Resolves to null on refusal. */
-export async function signInAs(email: string, password: string, baseUrl = BASE_URL): Promise<Client | null> {
+/** Where a sign-in comes from: another server, or another client address (the stack trusts X-Forwarded-For). */
+export interface SignInVia {
+  baseUrl?: string
+  address?: string
+}
+
+export interface SignInAttempt {
+  status: number
+  retryAfter: string | null
+  client: Client | null
+}
+
+/** One sign-in through /api/auth/csrf and /api/auth/callback/credentials, with its HTTP answer. */
+export async function attemptSignIn(email: string, password: string, via: SignInVia = {}): Promise<SignInAttempt> {
+  const base = via.baseUrl ?? BASE_URL
+  const forwarded: Record<string, string> = via.address ? { 'x-forwarded-for': via.address } : {}
   const jar = new Map<string, string>()
-  const csrfResponse = await fetch(`${baseUrl}/api/auth/csrf`)
+  const csrfResponse = await fetch(`${base}/api/auth/csrf`)
   mergeCookies(jar, csrfResponse)
   const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string }
   const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: '/' })
-  const response = await fetch(`${baseUrl}/api/auth/callback/credentials`, {
+  const response = await fetch(`${base}/api/auth/callback/credentials`, {
     method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': cookieHeader(jar) },
+    headers: { 'content-type': 'application/x-www-form-urlencoded', 'cookie': cookieHeader(jar), ...forwarded },
     body: form,
     redirect: 'manual',
   })
   mergeCookies(jar, response)
-  return [...jar.keys()].some((name) => name.endsWith('next-auth.session-token')) ? makeClient(jar, baseUrl) : null
+  const signedIn = [...jar.keys()].some((name) => name.endsWith('next-auth.session-token'))
+  return { status: response.status, retryAfter: response.headers.get('retry-after'), client: signedIn ? makeClient(jar, base) : null }
+}
+
+/** Signs in through the real auth endpoints. Resolves to null on refusal. */
+export async function signInAs(email: string, password: string, via: SignInVia = {}): Promise<Client | null> {
+  return (await attemptSignIn(email, password, via)).client
 }
 
 export function demoUser(role: Role) {

@@ -50,6 +50,8 @@ export async function startServer(databaseUrl: string, port: number): Promise<Ch
       OUTBOX_RETRY_BASE_MS: '300',
       OUTBOX_RETRY_MAX_MS: '1500',
       NODE_ENV: 'production',
+      // The sign-in limit tests pose as many client addresses through X-Forwarded-For.
+      SLAKEWISE_TRUST_PROXY: '1',
     },
   })
   try {

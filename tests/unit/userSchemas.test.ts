@@ -12,7 +12,7 @@ describe('user schemas', () => {
     [{ ...valid, email: 'nope' }, 'email', 'Enter a valid e-mail address'],
     [{ ...valid, displayName: 'A' }, 'displayName', 'Name needs at least 2 characters'],
     [{ ...valid, role: 'boss' }, 'role', 'Role must be one of: admin, metallurgist, operator, qa'],
-    [{ ...valid, password: 'short' }, 'password', 'Password needs at least 10 characters'],
+    [{ ...valid, password: 'short' }, 'password', 'Password needs at least 12 characters'],
     [{ ...valid, password: undefined }, 'password', 'Password is required'],
   ])('refuses %j at %s', (input, field, message) => {
     const result = userCreateSchema.safeParse(input)

@@ -1,9 +1,11 @@
 import CredentialsProvider from 'next-auth/providers/credentials'
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { NuxtAuthHandler } from '#auth'
 import { signInSchema } from '../../../shared/schemas/user'
 import { users } from '../../db/schema'
-import { clearSignInFailures, noteSignInFailure, signInDelayMs } from '../../accounts/signInThrottle'
+import { spendPasswordCheckOnUnknownAccount } from '../../security/unknownAccount'
+import { demoSignInsAllowed } from '../../security/demoShop'
+import { SHIFT_SECONDS, sessionStands } from '../../security/sessions'
 
 // The provider ships as CommonJS; its default export sits one level down under ESM.
 const Credentials = ((CredentialsProvider as unknown as { default?: typeof CredentialsProvider }).default ?? CredentialsProvider)
@@ -14,24 +16,22 @@ async function authorize(credentials: Record<string, string> | undefined) {
   const parsed = signInSchema.safeParse(credentials ?? {})
   if (!parsed.success) return null
   const { email, password } = parsed.data
-  const delay = await signInDelayMs(email)
-  if (delay > 0) await new Promise((resolve) => setTimeout(resolve, delay))
+  // Attempts are counted and limited before this runs (server/middleware/signInLimit.ts).
   const [user] = await useDb().select().from(users).where(eq(users.email, email))
-  // The same answer for an unknown e-mail, a wrong password and an inactive account.
-  const ok = user ? await verifyPassword(password, user.passwordHash) : false
-  if (!user || !ok || !user.active) {
-    await noteSignInFailure(email)
-    return null
-  }
-  await clearSignInFailures(email)
+  // The same answer, after the same hashing work, for an unknown e-mail, a wrong password,
+  // an inactive account and a demo account off loopback.
+  const ok = user ? await verifyPassword(password, user.passwordHash) : await spendPasswordCheckOnUnknownAccount(password)
+  if (!user || !ok || !user.active || (user.demo && !demoSignInsAllowed())) return null
   await recordAudit(useDb(), { actorId: user.id, action: 'session.sign-in', entityType: 'user', entityId: user.id })
-  return { id: String(user.id), email: user.email, name: user.displayName, role: user.role }
+  return { id: String(user.id), email: user.email, name: user.displayName, role: user.role, sessionVersion: user.sessionVersion }
 }
 
 export default NuxtAuthHandler({
   secret: config.authSecret,
   pages: { signIn: '/login' },
-  session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+  session: { strategy: 'jwt', maxAge: SHIFT_SECONDS },
+  // Behind a TLS proxy (an https:// AUTH_ORIGIN) the session cookie is sent over HTTPS only.
+  useSecureCookies: (process.env.AUTH_ORIGIN ?? '').startsWith('https://'),
   providers: [
     Credentials({
       name: 'Slakewise',
@@ -41,18 +41,29 @@ export default NuxtAuthHandler({
   ],
   callbacks: {
     jwt({ token, user }) {
-      if (user) token.uid = Number(user.id)
+      if (user) {
+        token.uid = Number(user.id)
+        token.sv = (user as { sessionVersion?: number }).sessionVersion
+        token.authAt = Date.now()
+      }
       return token
     },
     async session({ session, token }) {
-      // Re-read the account so a deactivated user's open session stops at the next request,
-      // and a role change shows without signing in again.
+      // Re-read the account: deactivation, a role change, a new password or signing out
+      // raise its session version and end this session at its next request.
       const [row] = await useDb().select().from(users).where(eq(users.id, Number(token.uid)))
-      if (!row || !row.active) return { expires: session.expires } as typeof session
+      if (!sessionStands(row, token, Date.now(), demoSignInsAllowed())) return { expires: session.expires } as typeof session
       return {
         ...session,
-        user: { id: row.id, email: row.email, name: row.displayName, role: row.role },
+        user: { id: row!.id, email: row!.email, name: row!.displayName, role: row!.role, mustChangePassword: row!.mustChangePassword },
       } as typeof session
+    },
+  },
+  events: {
+    // Signing out ends the account's sessions everywhere, so a copied cookie stops working too.
+    async signOut({ token }) {
+      const id = Number(token?.uid)
+      if (Number.isInteger(id) && id > 0) await useDb().update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, id))
     },
   },
 })

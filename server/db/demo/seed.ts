@@ -36,7 +36,7 @@ export async function seedDemoData(db: Database): Promise<SeedResult> {
   const hashed = seedUsers ? await Promise.all(DEMO_USERS.map(async (user) => ({ ...user, passwordHash: await hashPassword(user.password) }))) : []
   await db.transaction(async (tx) => {
     for (const user of hashed) {
-      await tx.insert(users).values({ email: user.email, displayName: user.displayName, role: user.role, passwordHash: user.passwordHash })
+      await tx.insert(users).values({ email: user.email, displayName: user.displayName, role: user.role, passwordHash: user.passwordHash, demo: true })
     }
     result.users = hashed.length
     if (await isEmpty(tx, materials)) {
