@@ -62,6 +62,9 @@ export interface ModalBasis {
   /** φ_j and φ_j′ at node q: index j·Q + q. */
   phi: Float64Array
   dphi: Float64Array
+  /** w_q φ_a φ_b and w_q φ_a′ φ_b′ at node q for each pair a ≤ b (pair by pair, Q apart): the frozen matrices are their sums weighted by ρc and k. */
+  phiPairs: Float64Array
+  dphiPairs: Float64Array
   /** φ_j at x = 0 and x = 1. */
   end0: Float64Array
   end1: Float64Array
@@ -152,7 +155,16 @@ export function modalBasis(spec: BasisSpec): ModalBasis {
   const t1 = spec.outer === 'fixed' ? (spec.outerFixed_C as number) : undefined
   const lift0 = t0 ?? t1 ?? spec.outerAmbient_C ?? 0
   const liftSlope = t0 !== undefined && t1 !== undefined ? t1 - t0 : 0
-  return { spec, m, count: size, roots, nodes: rule.x, weights: rule.w, phi, dphi, end0, end1, lift0, liftSlope, at: functions.at }
+  const phiPairs = new Float64Array(((size * (size + 1)) / 2) * q)
+  const dphiPairs = new Float64Array(phiPairs.length)
+  let offset = 0
+  for (let a = 0; a < size; a++)
+    for (let b = a; b < size; b++, offset += q)
+      for (let i = 0; i < q; i++) {
+        phiPairs[offset + i] = rule.w[i] * phi[a * q + i] * phi[b * q + i]
+        dphiPairs[offset + i] = rule.w[i] * dphi[a * q + i] * dphi[b * q + i]
+      }
+  return { spec, m, count: size, roots, nodes: rule.x, weights: rule.w, phi, dphi, phiPairs, dphiPairs, end0, end1, lift0, liftSlope, at: functions.at }
 }
 
 /** φ_j(x) for every j, for reading a sub-step's series away from the nodes. */
@@ -223,37 +235,41 @@ export interface FrozenSeries {
   steady: Float64Array
   /** a_n v_n for mode n at index n·N + i. */
   modeVectors: Float64Array
+  /** The orthogonal eigenvectors of the symmetrised problem: the warm start of the next, nearby frozen problem. */
+  rotation: Float64Array
 }
 
-/** The Ritz modes of the frozen problem and the series from coefficients c0 at τ = 0. */
-export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: Float64Array): FrozenSeries {
+/**
+ * The Ritz modes of the frozen problem and the series from coefficients c0 at τ = 0.
+ * `start` is the `rotation` of a nearby frozen problem on the same basis (the eigen
+ * solve then takes one or two Jacobi sweeps).
+ */
+export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: Float64Array, start?: Float64Array): FrozenSeries {
   const n = basis.count
   const q = basis.nodes.length
-  const { phi, dphi, weights } = basis
+  const { dphi, weights, phiPairs, dphiPairs } = basis
   const L = frozen.length_m
   const mass = new Float64Array(n * n)
   const stiffness = new Float64Array(n * n)
   const load = new Float64Array(n)
-  const kw = new Float64Array(q)
-  const cw = new Float64Array(q)
-  for (let i = 0; i < q; i++) {
-    kw[i] = weights[i] * frozen.k_W_mK[i]
-    cw[i] = L * L * weights[i] * frozen.rhoCp_J_m3K[i]
-  }
+  const k = frozen.k_W_mK
+  const c = frozen.rhoCp_J_m3K
+  let offset = 0
   for (let a = 0; a < n; a++) {
-    for (let b = a; b < n; b++) {
+    for (let b = a; b < n; b++, offset += q) {
       let sm = 0
       let sk = 0
       for (let i = 0; i < q; i++) {
-        sm += cw[i] * phi[a * q + i] * phi[b * q + i]
-        sk += kw[i] * dphi[a * q + i] * dphi[b * q + i]
+        sm += c[i] * phiPairs[offset + i]
+        sk += k[i] * dphiPairs[offset + i]
       }
-      mass[a * n + b] = mass[b * n + a] = sm
+      mass[a * n + b] = mass[b * n + a] = L * L * sm
       stiffness[a * n + b] = stiffness[b * n + a] = sk
     }
+    if (basis.liftSlope === 0) continue
     let sl = 0
-    for (let i = 0; i < q; i++) sl += kw[i] * basis.liftSlope * dphi[a * q + i]
-    load[a] = -sl
+    for (let i = 0; i < q; i++) sl += weights[i] * k[i] * dphi[a * q + i]
+    load[a] = -basis.liftSlope * sl
   }
   const faces: [FaceKind, Float64Array, number, number, number][] = [
     [basis.spec.outer, basis.end1, frozen.outerH_W_m2K, frozen.outerAmbient_C, basis.lift0 + basis.liftSlope],
@@ -287,7 +303,7 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
     for (let b = 0; b < n; b++) s[a * n + b] = column[b]
   }
   const u = new Float64Array(n * n)
-  jacobiEigen(s, n, u)
+  jacobiEigen(s, n, u, start)
   // Amplitude of mode j: a_j = v_jᵀ M (c0 − c_ss) = u_jᵀ Rᵀ (c0 − c_ss).
   const excess = new Float64Array(n)
   for (let a = 0; a < n; a++) excess[a] = c0[a] - steady[a]
@@ -309,7 +325,7 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
     backSubstitute(r, n, column)
     for (let a = 0; a < n; a++) modeVectors[j * n + a] = amplitude * column[a]
   }
-  return { rates_per_s: rates, steady, modeVectors }
+  return { rates_per_s: rates, steady, modeVectors, rotation: u }
 }
 
 /** Coefficients of a frozen series τ seconds after its start. */

@@ -17,6 +17,34 @@ describe('jacobiEigen', () => {
     const found = Array.from({ length: n }, (_, i) => a[i * n + i]).sort((x, y) => x - y)
     found.forEach((value, k) => expect(value).toBeCloseTo(2 - 2 * Math.cos(((k + 1) * Math.PI) / (n + 1)), 12))
   })
+
+  // Warm start: begin from the eigenvectors of a different matrix (a perturbed diagonal), as a sub-step begins from the last one's.
+  it.each([4, 12, 30])('n = %d: started from the eigenvectors of another matrix, the same closed-form eigenvalues and A v = λ v', (n) => {
+    const secondDifference = (bump: number) => {
+      const a = new Float64Array(n * n)
+      for (let i = 0; i < n; i++) {
+        a[i * n + i] = 2 + bump * Math.sin(i + 1)
+        if (i > 0) a[i * n + i - 1] = a[(i - 1) * n + i] = -1
+      }
+      return a
+    }
+    const start = new Float64Array(n * n)
+    jacobiEigen(secondDifference(0.3), n, start)
+    const a = secondDifference(0)
+    const v = new Float64Array(n * n)
+    jacobiEigen(a, n, v, start)
+    const found = Array.from({ length: n }, (_, i) => a[i * n + i])
+    Array.from(found)
+      .sort((x, y) => x - y)
+      .forEach((value, k) => expect(value).toBeCloseTo(2 - 2 * Math.cos(((k + 1) * Math.PI) / (n + 1)), 12))
+    const original = secondDifference(0)
+    for (let j = 0; j < n; j++)
+      for (let i = 0; i < n; i++) {
+        let av = 0
+        for (let k = 0; k < n; k++) av += original[i * n + k] * v[k * n + j]
+        expect(av).toBeCloseTo(found[j] * v[i * n + j], 12)
+      }
+  })
 })
 
 describe('Ritz modes of a frozen uniform body', () => {
