@@ -11,7 +11,7 @@ export interface GuardTimes {
   chargedAt: number | null
   /** The planned end of soak (core at heat + minimum soak, or charge + furnace time). */
   furnaceEnd: number
-  /** The predicted moment the handling point is below the handling temperature. */
+  /** The booked safe-to-handle moment (the band's slow end unless the shop set otherwise), not the headline. */
   handlingAt: number
   /** Charge to core at heat as booked; null when the plan does no soak planning. */
   heatUp_s: number | null
@@ -52,7 +52,7 @@ export function tapShortfall(from: BatchState, to: BatchState, times: GuardTimes
   }
   if (to === 'released' && now < times.handlingAt) {
     const short_s = (times.handlingAt - now) / 1000
-    return { rule: 'early_release', short_s, message: `Release ${span(short_s)} before the predicted handling time.` }
+    return { rule: 'early_release', short_s, message: `Release ${span(short_s)} before the safe-to-handle time.` }
   }
   return null
 }

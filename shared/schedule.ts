@@ -6,6 +6,7 @@
  */
 import { type Capability, can } from './access'
 import { ROLE_LABELS, type Role } from './roles'
+import { DEFAULT_TOWARD_SLOW_END_PCT, safeToHandle_s } from './safeHandling'
 import type { PlanSummary } from './types/plan'
 
 export const BATCH_STATES = ['planned', 'charged', 'soaking', 'unloaded', 'quenched', 'cooling', 'ready', 'released', 'cancelled'] as const
@@ -108,6 +109,8 @@ export interface ShopSettings {
   correctionWindow_s: number
   /** How long after "safe to handle" the load may wait for tempering before it is flagged. */
   temperWithin_s: number
+  /** Where "safe to handle" sits between the headline estimate (0) and the slow end of the quench band (100). */
+  safeHandlingTowardSlowEnd_pct: number
 }
 
 export const DEFAULT_SHOP_SETTINGS: ShopSettings = {
@@ -116,6 +119,7 @@ export const DEFAULT_SHOP_SETTINGS: ShopSettings = {
   quenchDelayAllowance_s: 600,
   correctionWindow_s: 600,
   temperWithin_s: 2 * 3600,
+  safeHandlingTowardSlowEnd_pct: DEFAULT_TOWARD_SLOW_END_PCT,
 }
 
 /** Durations a booking needs, read from a plan revision's summary and the shop settings. */
@@ -125,20 +129,22 @@ export interface SlotDurations {
   furnaceIsDefault: boolean
   minimumSoak_s: number | null
   transfer_s: number
-  /** Time on the quench station: the plan's first (bath) stage, or the whole cooldown if it has one stage only. */
+  /** Time on the quench station: the plan's first (bath) stage, or the whole cooldown to safe handling if it has one stage only. */
   quench_s: number
+  /** Quench to safe to handle: toward the slow end of the band as the shop sets (shared/safeHandling.ts). */
   quenchToHandling_s: number
 }
 
 export function slotDurations(summary: PlanSummary, settings: ShopSettings): SlotDurations {
   const bathEnd = summary.handlingPointSeries[0]?.end_s
+  const safe_s = safeToHandle_s(summary, settings.safeHandlingTowardSlowEnd_pct)
   return {
     furnace_s: summary.soak?.total_s ?? settings.defaultFurnace_s,
     furnaceIsDefault: summary.soak === null,
     minimumSoak_s: summary.soak?.minimumSoak_s ?? null,
     transfer_s: settings.transfer_s,
-    quench_s: bathEnd ?? summary.quenchToHandling_s,
-    quenchToHandling_s: summary.quenchToHandling_s,
+    quench_s: bathEnd ?? safe_s,
+    quenchToHandling_s: safe_s,
   }
 }
 

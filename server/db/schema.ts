@@ -72,6 +72,9 @@ export const materials = mysqlTable('materials', {
   propertiesAt_C: double('properties_at_c'),
   /** [{ x (0–1 of the section), k, rhoCp }] with a repeated x for a jump; see shared/schemas/material.ts. */
   gradedProfile: json('graded_profile').$type<{ x: number; k: number; rhoCp: number }[]>(),
+  /** [{ T_C, k, cp, rho? }] rising in T; linear between rows, constant beyond (shared/schemas/material.ts). */
+  propertyTable: json('property_table').$type<{ T_C: number; k: number; cp: number; rho?: number }[]>(),
+  propertyTableSource: text('property_table_source'),
   notes: text('notes'),
   source: text('source').notNull(),
   createdBy: int('created_by').references(() => users.id),
@@ -87,6 +90,11 @@ export const quenchants = mysqlTable('quenchants', {
   hLow_W_m2K: double('h_low_w_m2k').notNull(),
   hHigh_W_m2K: double('h_high_w_m2k').notNull(),
   bath_C: double('bath_c').notNull(),
+  /** { low, typical, high }: each [{ T_C (surface), h }] rising in T (shared/schemas/quenchant.ts). */
+  coolingCurves: json('cooling_curves').$type<Record<'low' | 'typical' | 'high', { T_C: number; h: number }[]>>(),
+  /** Air and gas only: radiation to surroundings at bath_C on top of the curve or h. */
+  emissivity: double('emissivity'),
+  curveSource: text('curve_source'),
   notes: text('notes'),
   source: text('source').notNull(),
   createdBy: int('created_by').references(() => users.id),

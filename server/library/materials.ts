@@ -5,7 +5,7 @@ import { libraryStore } from './library'
 const store = libraryStore<MaterialValues>({
   table: materials,
   entity: 'material',
-  fields: ['name', 'k_W_mK', 'density_kg_m3', 'specificHeat_J_kgK', 'propertiesAt_C', 'gradedProfile', 'notes', 'source'],
+  fields: ['name', 'k_W_mK', 'density_kg_m3', 'specificHeat_J_kgK', 'propertiesAt_C', 'gradedProfile', 'propertyTable', 'propertyTableSource', 'notes', 'source'],
   schema: materialInputSchema,
 })
 

@@ -5,7 +5,7 @@ import { libraryStore } from './library'
 const store = libraryStore<QuenchantValues>({
   table: quenchants,
   entity: 'quenchant',
-  fields: ['name', 'kind', 'hTypical_W_m2K', 'hLow_W_m2K', 'hHigh_W_m2K', 'bath_C', 'notes', 'source'],
+  fields: ['name', 'kind', 'hTypical_W_m2K', 'hLow_W_m2K', 'hHigh_W_m2K', 'bath_C', 'coolingCurves', 'emissivity', 'curveSource', 'notes', 'source'],
   schema: quenchantInputSchema,
 })
 

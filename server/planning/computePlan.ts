@@ -5,8 +5,8 @@
  *
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
  * stages, graded materials). Short cylinders and blocks go through product
- * solutions (../thermal/productSolution.ts): uniform properties, every stage at
- * the same bath temperature, handling point centre or mean.
+ * solutions (../thermal/productSolution.ts): uniform properties, a different bath or
+ * air temperature per stage by superposition, handling point centre or mean.
  */
 import type { Deadline } from '../thermal/deadline'
 import { CaseError, WHOLE_CASE } from '../thermal/errors'
@@ -17,6 +17,7 @@ import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanMode, PlanResult, PlanStageResult } from '../../shared/types/planResult'
 import { furnaceCoefficient_W_m2K } from './furnace'
 import { MODES_LISTED, checkProduct, runProduct, type ModelRun, type ProductInput } from '../thermal/productSolution'
+import { crackingWarning, handlingAtMediumWarning } from './warnings'
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 
 const PROFILE_TIMES = 25
@@ -246,6 +247,8 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     : null
   const summary: PlanSummary = {
     quenchToHandling_s: t_h,
+    // The band's longest time: the low coefficients normally, whichever run is slowest in any case.
+    slowEndToHandling_s: Math.max(t_h, runs.low.targetTime_s, runs.high.targetTime_s),
     handling_C: plan.handling.below_C,
     soak: soak ? { furnace_C: soak.furnace_C, heatUp_s: soak.heatUp_s, minimumSoak_s: soak.minimumSoak_s, total_s: soak.total_s } : null,
     handlingPointSeries: runs.headline.series,
@@ -272,6 +275,10 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     },
     soak,
     summary,
+    warnings: [
+      handlingAtMediumWarning(plan.handling.below_C, quenchants.at(-1)!),
+      crackingWarning(runs.detailed.curve, plan.part, plan.library.material.k_W_mK),
+    ].filter((w) => w !== null),
   }
 }
 

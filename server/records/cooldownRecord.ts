@@ -13,6 +13,7 @@
  * than deriving the moment from the plan.
  */
 import { pointValue } from '../../shared/pointSeries'
+import { handlingBasis } from '../../shared/safeHandling'
 import { deriveSlots, type BatchState, type SlotDurations } from '../../shared/schedule'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../shared/types/cooldownRecord'
@@ -20,6 +21,7 @@ import type { CurvePoint, EventCorrection, HoldTimeSheet, RecordEventType } from
 import { canonicalJson, hmacSha256Hex, verifyRecordSeal } from './canonical'
 import { STANDARD_CAUTIONS } from './cautions'
 import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
+import { formatSpan } from './format'
 
 /** Who a predicted moment is attributed to on the sheet. */
 export const CLOCK_NAME = 'Slakewise (plan clock)'
@@ -142,6 +144,8 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
       transfer_s: batch.transfer_s,
       quench_s: batch.quench_s,
       quenchToHandling_s: batch.quenchToHandling_s,
+      headlineToHandling_s: revision.summary.quenchToHandling_s,
+      handlingBasis: handlingBasis(batch.quenchToHandling_s, revision.summary),
       quenchDelayAllowance_s: batch.quenchDelayAllowance_s,
       soakEnd: iso(soakEnd),
       handlingAt: iso(afterQuench.handlingAt),
@@ -197,6 +201,7 @@ export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, si
       furnace_C: p.furnace_C,
       handling_C: p.handling_C,
     },
+    handlingNote: p.handlingBasis && p.headlineToHandling_s !== undefined ? `Predicted handling time: ${p.handlingBasis}; headline estimate ${formatSpan(p.headlineToHandling_s)}.` : null,
     measured: snapshot.measured,
     predictedCurve: p.curve,
     events: snapshot.events.map(({ actorId: _actorId, ...event }) => event),
@@ -233,7 +238,7 @@ export interface StoredRecord {
  */
 export function checkIntegrity(row: StoredRecord, key: string | Buffer): { integrity: RecordIntegrity; problems: string[] } {
   const problems: string[] = []
-  let snapshotOk = false
+  let snapshotOk: boolean
   try {
     snapshotOk = verifyRecordSeal(row.snapshot, row.hash, key)
   } catch {

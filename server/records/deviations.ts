@@ -96,7 +96,7 @@ export function findDeviations(plan: DeviationPlan, events: readonly TimedEvent[
       planned_s: plan.quenchToHandling_s,
       actual_s: measured.quenchToRelease_s,
       excess_s: early,
-      message: `Released ${span(measured.quenchToRelease_s)} after the quench, ${span(early)} before the predicted handling time of ${span(plan.quenchToHandling_s)}.`,
+      message: `Released ${span(measured.quenchToRelease_s)} after the quench, ${span(early)} before the safe-to-handle time of ${span(plan.quenchToHandling_s)}.`,
     })
   }
   return found

@@ -54,6 +54,8 @@ export function sampleHoldTimeSheet(input: { loadNumber: string; shopName: strin
     quenchant: `medium-speed quench oil at ${BATH_C} °C`,
     plan: { name: 'Drive flange, harden', revision: 3 },
     planned: { ...plan, furnace_C: 850, handling_C: HANDLING_C },
+    // The one-term sample has no quench band to take a slow end from.
+    handlingNote: null,
     measured: measureTimes(tapped),
     predictedCurve,
     events,

@@ -86,7 +86,7 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
 </div>
 <div style="background:${white};border:1px solid ${ink[200]};border-top:0;border-radius:0 0 8px 8px;padding:8px 20px 20px;">
 ${section('Load', identity)}
-${section('Times', times)}
+${section('Times', times + (sheet.handlingNote ? `<p data-handling-note style="font-size:14px;margin:8px 0 0;">${escapeHtml(sheet.handlingNote)}</p>` : ''))}
 ${section('Deviations', deviations)}
 ${section('Predicted cooldown', curveNote)}
 ${section('Events', events)}
@@ -111,6 +111,7 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     `Plan: ${sheet.plan.name}, revision ${sheet.plan.revision}`,
     '',
     ...spanRows(sheet).map(([span, plannedValue, recordedValue]) => `${span}: plan ${plannedValue}; recorded ${recordedValue}`),
+    ...(sheet.handlingNote ? [sheet.handlingNote] : []),
     '',
     'Deviations:',
     ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),

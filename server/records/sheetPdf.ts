@@ -180,6 +180,10 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
 
   heading(doc, 'Times')
   drawTable(doc, [contentWidth - 260, 130, 130], [['Span', 'Planned', 'Recorded'], ...spanRows(sheet)])
+  if (sheet.handlingNote) {
+    doc.fontSize(9).fillColor(ink[600])
+    write(doc, 'regular', sheet.handlingNote, { width: contentWidth })
+  }
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {

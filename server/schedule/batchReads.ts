@@ -2,6 +2,7 @@ import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database } from '../db/client'
 import { batches, planRevisions, plans } from '../db/schema'
+import { handlingBasis } from '../../shared/safeHandling'
 import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, FloorCurve, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
@@ -32,7 +33,14 @@ export async function getBatch(id: number): Promise<BatchDetail> {
     furnaceName: found.furnace.name,
     stationName: found.station.name,
     summary: readSummary(found.revision.summary)!,
-    durations: { furnace_s: b.furnace_s, minimumSoak_s: b.minimumSoak_s, transfer_s: b.transfer_s, quench_s: b.quench_s, quenchToHandling_s: b.quenchToHandling_s, quenchDelayAllowance_s: b.quenchDelayAllowance_s },
+    durations: {
+      furnace_s: b.furnace_s,
+      minimumSoak_s: b.minimumSoak_s,
+      transfer_s: b.transfer_s,
+      quench_s: b.quench_s,
+      quenchToHandling_s: b.quenchToHandling_s,
+      quenchDelayAllowance_s: b.quenchDelayAllowance_s,
+    },
     events,
   }
 }
@@ -53,6 +61,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
   const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
   const list: FloorBatch[] = rows.map((r) => {
     const view = toBatchView(r.batch, settings, now)
+    const summary = readSummary(r.revision.summary)!
     return {
       id: view.id,
       loadNumber: view.loadNumber,
@@ -70,7 +79,9 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       planName: r.plan.name,
       furnaceName: r.furnace.name,
       stationName: r.station.name,
-      handling_C: readSummary(r.revision.summary)!.handling_C,
+      handling_C: summary.handling_C,
+      handlingBasis: handlingBasis(r.batch.quenchToHandling_s, summary),
+      headlineToHandling_s: summary.quenchToHandling_s,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
       taps: events

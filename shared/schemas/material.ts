@@ -27,6 +27,26 @@ export const gradedProfileSchema = z
     }
   })
 
+/** One row of a property table: k and c_p at T; ρ may be left out (the room-temperature density is used). */
+export const propertyRowSchema = z.strictObject({
+  T_C: inRange(PHYSICAL.temperature_C, 'T'),
+  k: inRange(PHYSICAL.conductivity_W_mK, 'Conductivity'),
+  cp: inRange(PHYSICAL.specificHeat_J_kgK, 'Specific heat'),
+  rho: inRange(PHYSICAL.density_kg_m3, 'Density').optional(),
+})
+export type PropertyRow = z.output<typeof propertyRowSchema>
+
+/** Properties against temperature: linear between rows, constant beyond the ends (the engine reads it the same way). */
+export const propertyTableSchema = z
+  .array(propertyRowSchema, { message: 'A property table is a list of rows' })
+  .min(2, 'A property table needs at least two rows')
+  .max(60, 'A property table has at most 60 rows')
+  .superRefine((rows, ctx) => {
+    rows.forEach((row, i) => {
+      if (i > 0 && !(row.T_C > rows[i - 1]!.T_C)) ctx.addIssue({ code: 'custom', path: [i, 'T_C'], message: 'Temperatures must rise strictly from row to row' })
+    })
+  })
+
 // Field rules without defaults, so a partial update can tell "not sent" from "cleared".
 const materialFields = {
   name: z.string({ message: 'Name is required' }).trim().min(2, 'Name needs at least 2 characters').max(120, 'Name is too long'),
@@ -40,17 +60,32 @@ const materialFields = {
     .max(1600, 'Reference temperature above 1600 °C is beyond any steel')
     .nullable(),
   gradedProfile: gradedProfileSchema.nullable(),
+  propertyTable: propertyTableSchema.nullable(),
+  propertyTableSource: z.string({ message: 'Say where the table comes from' }).trim().min(3, 'Say where the table comes from').max(1000, 'Table source is too long').nullable(),
   notes: z.string({ message: 'Notes must be text' }).trim().max(2000, 'Notes are too long').nullable(),
   source: z.string({ message: 'Say where the values come from' }).trim().min(3, 'Say where the values come from').max(1000, 'Source is too long'),
 }
 
+type TableFields = { gradedProfile: unknown; propertyTable: unknown; propertyTableSource: string | null }
+
+/** A table needs its source, and a graded section and a temperature table do not combine. */
+export function checkPropertyTable(m: TableFields, ctx: z.RefinementCtx): void {
+  if (m.propertyTable && !m.propertyTableSource) ctx.addIssue({ code: 'custom', path: ['propertyTableSource'], message: 'Say where the table comes from' })
+  if (m.propertyTable && m.gradedProfile)
+    ctx.addIssue({ code: 'custom', path: ['propertyTable'], message: 'A graded material cannot also carry a temperature table; use one or the other' })
+}
+
 /** A material as the library stores it (SI). */
-export const materialInputSchema = z.strictObject({
-  ...materialFields,
-  propertiesAt_C: materialFields.propertiesAt_C.default(null),
-  gradedProfile: materialFields.gradedProfile.default(null),
-  notes: materialFields.notes.default(null),
-})
+export const materialInputSchema = z
+  .strictObject({
+    ...materialFields,
+    propertiesAt_C: materialFields.propertiesAt_C.default(null),
+    gradedProfile: materialFields.gradedProfile.default(null),
+    propertyTable: materialFields.propertyTable.default(null),
+    propertyTableSource: materialFields.propertyTableSource.default(null),
+    notes: materialFields.notes.default(null),
+  })
+  .superRefine(checkPropertyTable)
 export type MaterialInput = z.input<typeof materialInputSchema>
 /** The values as stored, defaults applied. */
 export type MaterialValues = z.output<typeof materialInputSchema>

@@ -82,4 +82,10 @@ export const settingsUpdateSchema = z.strictObject({
   quenchDelayAllowance_s: positive('Quench delay allowance', 's', 24 * 3600).optional(),
   temperWithin_s: positive('Temper-within time', 's', 7 * 24 * 3600).optional(),
   correctionWindow_s: positive('Correction window', 's', 24 * 3600).optional(),
+  safeHandlingTowardSlowEnd_pct: z
+    .number({ message: 'Safe-to-handle position must be a number (%)' })
+    .finite()
+    .min(0, 'Safe-to-handle position cannot be below 0 % (the headline estimate)')
+    .max(100, 'Safe-to-handle position cannot be above 100 % (the slow end of the quench band)')
+    .optional(),
 })

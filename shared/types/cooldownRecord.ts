@@ -51,6 +51,10 @@ export interface RecordSnapshot {
     transfer_s: number
     quench_s: number
     quenchToHandling_s: number
+    /** The plan's headline (typical coefficients) time, kept beside the booked one; absent on older records. */
+    headlineToHandling_s?: number
+    /** In words: where the booked time sits in the quench band (shared/safeHandling.ts); absent on older records. */
+    handlingBasis?: string
     quenchDelayAllowance_s: number
     /** The planned end of soak (ready to quench) from the recorded charge and soak start. */
     soakEnd: string

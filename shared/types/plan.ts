@@ -8,6 +8,12 @@ import type { PointStage } from '../pointSeries'
 export interface PlanSummary {
   /** From the start of the quench until the handling point is below the handling temperature. */
   quenchToHandling_s: number
+  /**
+   * The same at the slow end of the quench band (the low coefficients, the longest
+   * time): what "safe to handle" books by default (shared/safeHandling.ts). Absent in
+   * summaries saved before it was kept.
+   */
+  slowEndToHandling_s?: number
   handling_C: number
   /** Soak planning, when the plan asks for it. */
   soak: {

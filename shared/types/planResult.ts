@@ -1,4 +1,5 @@
 import type { PlanSummary } from './plan'
+import type { PlanWarning } from '../planWarnings'
 import type { PartShape, PlanSpec, ResolvedPlan } from '../schemas/plan'
 
 /** One row of the per-mode table: T − T∞ carries e^{−rate·t} of each mode. */
@@ -57,6 +58,8 @@ export interface PlanResult {
     total_s: number
   } | null
   summary: PlanSummary
+  /** What a metallurgist should look at before trusting the figures (server/planning/warnings.ts). */
+  warnings: PlanWarning[]
 }
 
 export interface PlanCheckResult {

@@ -73,7 +73,7 @@ export type DeviationRule = (typeof DEVIATION_RULES)[number]
 
 export interface Deviation {
   rule: DeviationRule
-  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the predicted handling time. */
+  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the safe-to-handle time. */
   planned_s: number
   /** What the recorded events give for the same span. */
   actual_s: number
@@ -106,6 +106,8 @@ export interface HoldTimeSheet {
   quenchant: string
   plan: { name: string; revision: number }
   planned: DeviationPlan & { furnace_C: number; handling_C: number }
+  /** Which basis the predicted handling time stands on and the headline beside it; null on records made before it was kept. */
+  handlingNote: string | null
   measured: MeasuredTimes
   /** Predicted handling-point temperature after the quench starts. */
   predictedCurve: CurvePoint[]

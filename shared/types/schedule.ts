@@ -75,7 +75,14 @@ export interface BatchDetail extends BatchView {
   furnaceName: string
   stationName: string
   summary: PlanSummary
-  durations: { furnace_s: number; minimumSoak_s: number | null; transfer_s: number; quench_s: number; quenchToHandling_s: number; quenchDelayAllowance_s: number }
+  durations: {
+    furnace_s: number
+    minimumSoak_s: number | null
+    transfer_s: number
+    quench_s: number
+    quenchToHandling_s: number
+    quenchDelayAllowance_s: number
+  }
   events: BatchEventView[]
 }
 
@@ -97,6 +104,9 @@ export interface FloorBatch
   stationName: string
   /** The plan's handling temperature (°C), for the countdown's caption. */
   handling_C: number
+  /** Which moment the booked handling time stands on (shared/safeHandling.ts), and the headline estimate beside it. */
+  handlingBasis: string
+  headlineToHandling_s: number
   quenchDelayAllowance_s: number
   conflictWith?: string
   conflictNote?: string | null

@@ -3,7 +3,7 @@ import { auditFor } from '../support/audit'
 import { runCase } from '../../server/thermal/runCase'
 import { signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
-import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, pinSpec, savePlan, type SavedPlan } from '../support/plans'
+import { PIN_HEAT_UP_CASE, PIN_QUENCH_SLOW_END_CASE, pinSpec, savePlan, type SavedPlan } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
 import { move } from '../support/records'
 
@@ -16,7 +16,8 @@ let pin: SavedPlan
 const HOUR = 3600_000
 // The engine's own answers for the pin plan, called on the same pin written by hand, for comparison with what the server derives.
 const heatUp_s = runCase(PIN_HEAT_UP_CASE).targetTime_s!
-const quenchToHandling_s = runCase(PIN_QUENCH_CASE).targetTime_s!
+// Safe to handle is booked at the slow end of the quench band (every medium at its low coefficient) by default.
+const quenchToHandling_s = runCase(PIN_QUENCH_SLOW_END_CASE).targetTime_s!
 const furnace_ms = (heatUp_s + 1800) * 1000
 
 /** A far-future day per test, so tests never share time on a line. */
@@ -30,7 +31,7 @@ beforeAll(async () => {
 })
 
 describe('booking', () => {
-  it('books a revision: load number, slots from the summary (heat-up + 1800 s soak, 60 s transfer, 180 s bath, engine time to handling)', async () => {
+  it('books a revision: load number, slots from the summary (heat-up + 1800 s soak, 60 s transfer, 180 s bath, engine time to handling at the band’s slow end)', async () => {
     const line = await createLine(admin)
     const charge = futureDay()
     const response = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, 'Customer 7731') })

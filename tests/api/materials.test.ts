@@ -97,6 +97,30 @@ describe('editing the materials library', () => {
     expect(cleared.body.gradedProfile).toBeNull()
   })
 
+  it('the seeded steels carry their Table A.1 temperature columns with a source', async () => {
+    const list = (await metallurgist.request('/api/materials')).body
+    const carbon = list.find((m: { name: string }) => m.name === 'Plain carbon steel (Mn ≤ 1 %, Si ≤ 0.1 %)')
+    // Incropera et al., Table A.1, plain carbon steel, 600 K: k 48.0, c_p 559 (from memory; DEVELOPERS.md provenance).
+    expect(carbon.propertyTable).toContainEqual({ T_C: 326.85, k: 48, cp: 559 })
+    expect(carbon.propertyTableSource).toMatch(/Table A\.1/)
+  })
+
+  it('a property table can be set with its source and cleared; an unsorted one is a 400 naming the row', async () => {
+    const created = await metallurgist.request('/api/materials', { method: 'POST', body: newMaterial(uniqueName('Tabled')) })
+    const table = [
+      { T_C: 20, k: 42.3, cp: 442 },
+      { T_C: 400, k: 38, cp: 560, rho: 7740 },
+    ]
+    const set = await metallurgist.request(`/api/materials/${created.body.id}`, { method: 'PATCH', body: { propertyTable: table, propertyTableSource: 'Kestrel Bay lab, heat 2231' } })
+    expect(set.status).toBe(200)
+    expect(set.body.propertyTable).toEqual(table)
+    const unsorted = await metallurgist.request(`/api/materials/${created.body.id}`, { method: 'PATCH', body: { propertyTable: [...table].reverse() } })
+    expect(unsorted.status).toBe(400)
+    expect(unsorted.body.data.problems).toContainEqual({ field: 'propertyTable.1.T_C', message: 'Temperatures must rise strictly from row to row' })
+    const cleared = await metallurgist.request(`/api/materials/${created.body.id}`, { method: 'PATCH', body: { propertyTable: null, propertyTableSource: null } })
+    expect(cleared.body.propertyTable).toBeNull()
+  })
+
   it.each(['operator', 'qa'] as const)('%s gets 403 on POST and PATCH, and nothing changes', async (role) => {
     const client = await signInDemo(role)
     const name = uniqueName(`${role} steel`)

@@ -105,6 +105,32 @@ describe('editing the quench media', () => {
     expect(await latestAuditId(admin)).toBe(before)
   })
 
+  it('the seeded media keep their band as curves with a source, air with an emissivity', async () => {
+    const oil = await seeded('Fast quench oil, still')
+    expect(oil.coolingCurves.typical.length).toBeGreaterThanOrEqual(3)
+    expect(oil.curveSource).toMatch(/Common practice, from memory/)
+    expect((await seeded('Still air')).emissivity).toBe(0.8)
+  })
+
+  it('curves are stored with their source; an emissivity on a liquid is a 400 on the merged record, and the row is unchanged', async () => {
+    const created = await metallurgist.request('/api/quenchants', { method: 'POST', body: newQuenchant(uniqueName('Curved polymer')) })
+    const curve = (scale: number) => [
+      { T_C: 35, h: 800 * scale },
+      { T_C: 300, h: 6000 * scale },
+      { T_C: 850, h: 700 * scale },
+    ]
+    const coolingCurves = { low: curve(0.6), typical: curve(1), high: curve(1.5) }
+    const set = await metallurgist.request(`/api/quenchants/${created.body.id}`, { method: 'PATCH', body: { coolingCurves, curveSource: 'probe test' } })
+    expect(set.status).toBe(200)
+    expect(set.body.coolingCurves).toEqual(coolingCurves)
+    const radiating = await metallurgist.request(`/api/quenchants/${created.body.id}`, { method: 'PATCH', body: { emissivity: 0.8 } })
+    expect(radiating.status).toBe(400)
+    expect(radiating.body.data.problems.map((p: { field: string }) => p.field)).toContain('emissivity')
+    expect((await metallurgist.request(`/api/quenchants/${created.body.id}`)).body.emissivity).toBeNull()
+    const tooFew = await metallurgist.request(`/api/quenchants/${created.body.id}`, { method: 'PATCH', body: { coolingCurves: { ...coolingCurves, low: curve(0.6).slice(0, 2) } } })
+    expect(tooFew.body.data.problems).toContainEqual({ field: 'coolingCurves.low', message: 'A cooling curve needs at least three points' })
+  })
+
   it('a duplicate name is a 409 naming name, with nothing half-written', async () => {
     const before = await latestAuditId(admin)
     const count = (await metallurgist.request('/api/quenchants')).body.length

@@ -95,19 +95,23 @@ describe('the record written on release', () => {
       furnace_C: 860,
       minimumSoak_s: 2,
       quenchDelayAllowance_s: 60,
-      quenchToHandling_s: cleanPlan.summary.quenchToHandling_s,
+      // Booked, and so predicted, at the slow end of the quench band; the headline beside it.
+      quenchToHandling_s: cleanPlan.summary.slowEndToHandling_s,
+      headlineToHandling_s: cleanPlan.summary.quenchToHandling_s,
+      handlingBasis: 'safe-to-handle at the slow end of the quench band',
       heatUp_s: cleanPlan.summary.soak!.heatUp_s,
     })
-    // 121 points over 1.25 × the time to handling: point 96 is that time, where the core crosses the plan's 60 °C;
-    // the first is the 850 °C start within the series' truncation at the quench instant.
-    const qth = cleanPlan.summary.quenchToHandling_s
+    // 121 points over 1.25 × the booked time to handling: point 96 is that time, by which the headline curve is below
+    // the plan's 60 °C; the first is the 850 °C start within the series' truncation at the quench instant.
+    const qth = cleanPlan.summary.slowEndToHandling_s!
+    expect(qth).toBeGreaterThan(cleanPlan.summary.quenchToHandling_s)
     expect(s.predicted.curve).toHaveLength(121)
     expect(s.predicted.curve[96].t_s).toBeCloseTo(qth, 3)
-    expect(s.predicted.curve[96].T_C).toBeCloseTo(60, 1)
+    expect(s.predicted.curve[96].T_C).toBeLessThan(60)
     expect(Math.abs(s.predicted.curve[0].T_C - 850)).toBeLessThan(1)
     expect(s.predicted.curve.at(-1).T_C).toBeLessThan(60)
     expect(s.predicted.soakEnd).toBe(new Date(clean.at.soaking! + 2000).toISOString())
-    expect(s.predicted.handlingAt).toBe(new Date(clean.at.quenched! + Math.round(cleanPlan.summary.quenchToHandling_s * 1000)).toISOString())
+    expect(s.predicted.handlingAt).toBe(new Date(clean.at.quenched! + Math.round(qth * 1000)).toISOString())
 
     const operatorName = demoUser('operator').displayName
     const iso = (state: string) => new Date(clean.at[state]!).toISOString()
@@ -120,7 +124,8 @@ describe('the record written on release', () => {
       tapped('furnace_opened', 'unloaded'),
       tapped('quenched', 'quenched'),
       predicted('cooling', clean.at.quenched! + Math.round(s.predicted.quench_s * 1000)),
-      predicted('ready_to_handle', clean.at.quenched! + Math.round(cleanPlan.summary.quenchToHandling_s * 1000)),
+      // Ready to handle at the booked, safe moment: the band's slow end, the one the release guard waits for.
+      predicted('ready_to_handle', clean.at.quenched! + Math.round(qth * 1000)),
       tapped('released', 'released'),
     ])
     expect(s.notRecorded).toEqual([])
@@ -160,11 +165,11 @@ describe('the record written on release', () => {
     expect(lateRecord.snapshot.measured.soak_s).toBe((late.at.unloaded! - late.at.soaking!) / 1000)
   })
 
-  it('release before the predicted handling time is refused (409) and writes no record; the release after it did', async () => {
+  it('release before the safe-to-handle time (the band’s slow end) is refused (409) and writes no record; the release after it did', async () => {
     // releaseLoad() asserted the early 409; here: exactly one record per released batch.
     const list = (await qa.request('/api/records?limit=500')).body as { batchId: number }[]
     for (const batchId of [clean.batchId, shortSoak.batchId, late.batchId]) expect(list.filter((r) => r.batchId === batchId)).toHaveLength(1)
-    expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.quenchToHandling_s * 1000))
+    expect(clean.at.released! - clean.at.quenched!).toBeGreaterThanOrEqual(Math.round(cleanPlan.summary.slowEndToHandling_s! * 1000))
   })
 })
 

@@ -31,6 +31,12 @@ export const PIN_QUENCH_CASE = {
   target: { at: 'centre', below_C: 100 },
 }
 
+/** The same pin at the slow end of the band: every medium at its low coefficient (oil 500, air 10); what "safe to handle" books. */
+export const PIN_QUENCH_SLOW_END_CASE = {
+  ...PIN_QUENCH_CASE,
+  stages: [{ surface: { h: 500, ambient_C: 60 }, duration_s: 180 }, { surface: { h: 10, ambient_C: 25 } }],
+}
+
 export const PIN_HEAT_UP_CASE = {
   geometry: 'rod', size_m: 0.02, material: steel, initial_C: 20,
   stages: [{ surface: { h: 120, ambient_C: 860 } }],
@@ -55,6 +61,9 @@ export const THIN_SHEET_QUENCH_CASE = {
   stages: [{ surface: { h: 3000, ambient_C: 30 } }],
   target: { at: 'centre', below_C: 60 },
 }
+
+/** The sheet at the slow end of the band: water at its low coefficient, 2500. */
+export const THIN_SHEET_SLOW_END_CASE = { ...THIN_SHEET_QUENCH_CASE, stages: [{ surface: { h: 2500, ambient_C: 30 } }] }
 
 export interface SavedPlan {
   planId: number

@@ -36,8 +36,8 @@ describe('tapShortfall', () => {
     expect(tapShortfall('soaking', 'unloaded', { ...times, minimumSoak_s: null, heatUp_s: null }, charged)).toBeNull()
   })
 
-  it('release 45 s before the predicted handling time', () => {
-    expect(tapShortfall('ready', 'released', times, times.handlingAt - 45_000)).toEqual({ rule: 'early_release', short_s: 45, message: 'Release 45 s before the predicted handling time.' })
+  it('release 45 s before the safe-to-handle time', () => {
+    expect(tapShortfall('ready', 'released', times, times.handlingAt - 45_000)).toEqual({ rule: 'early_release', short_s: 45, message: 'Release 45 s before the safe-to-handle time.' })
     expect(tapShortfall('ready', 'released', times, times.handlingAt)).toBeNull()
   })
 })

@@ -20,6 +20,9 @@ import { PIN_HEAT_UP_CASE, PIN_QUENCH_CASE, offlineSummary, pinSpec } from '../s
 
 // Summaries from the planner's own compute, as a saved revision stores them.
 const pin = offlineSummary(pinSpec(lib))
+// The slot and countdown mechanics are checked against the headline engine run, so these tests book at the
+// headline (a shop's 0 %); the default, the quench band's slow end, is checked in safeHandling.test.ts.
+const AT_HEADLINE = { ...DEFAULT_SHOP_SETTINGS, safeHandlingTowardSlowEnd_pct: 0 }
 /** A Ø120 bar, 600 s in oil then still air, without soak planning. */
 const flange = offlineSummary({
   ...pinSpec(lib),
@@ -33,7 +36,7 @@ const charge = Date.UTC(2031, 2, 3, 6, 0, 0)
 
 describe('slot derivation from a planner-computed summary', () => {
   it('the pin plan: furnace = heat-up + minimum soak, 60 s transfer, bath = first stage (180 s), handling from the quench start', () => {
-    const d = slotDurations(pin, DEFAULT_SHOP_SETTINGS)
+    const d = slotDurations(pin, AT_HEADLINE)
     const quench = runCase(PIN_QUENCH_CASE)
     const heat = runCase(PIN_HEAT_UP_CASE)
     expect(d.furnace_s).toBeCloseTo(heat.targetTime_s! + 1800, 9)
@@ -67,11 +70,11 @@ describe('slot derivation from a planner-computed summary', () => {
   it('a single-stage quench holds the station until handling', () => {
     const single = offlineSummary({ ...pinSpec(lib), stages: [{ quenchantId: lib.oilId }] })
     expect(single.handlingPointSeries).toHaveLength(1)
-    expect(slotDurations(single, DEFAULT_SHOP_SETTINGS).quench_s).toBe(single.quenchToHandling_s)
+    expect(slotDurations(single, AT_HEADLINE).quench_s).toBe(single.quenchToHandling_s)
   })
 
   it('recorded floor times re-plan the later slots', () => {
-    const d = slotDurations(pin, DEFAULT_SHOP_SETTINGS)
+    const d = slotDurations(pin, AT_HEADLINE)
     const late = charge + 45 * 60_000
     const charged = deriveSlots(charge, d, { chargedAt: late })
     expect(charged.furnaceStart).toBe(late)
@@ -163,7 +166,7 @@ describe('overlap and the next free start', () => {
 })
 
 describe('floor countdown', () => {
-  const d = slotDurations(pin, DEFAULT_SHOP_SETTINGS)
+  const d = slotDurations(pin, AT_HEADLINE)
   const quenchedAt = charge + 3600_000
   const slots = deriveSlots(charge, d, { chargedAt: charge, quenchedAt })
   const batch = { ...slots, state: 'quenched' as BatchState, quenchedAt, quenchDelayAllowance_s: 600, summary: pin }

@@ -175,3 +175,79 @@ describe('seed quench media', () => {
     expect(typical('Nitrogen gas, 10 bar')).toBeGreaterThan(typical('Nitrogen gas, 1 bar'))
   })
 })
+
+describe('seed property tables (Incropera Table A.1 columns, from memory; c_p peak common practice)', () => {
+  const TABLED: [string, AlloyClass][] = ROOM_TEMPERATURE_ROWS
+  const tableOf = (name: string) => byName(name).propertyTable!
+  const at = (name: string, T_C: number) => tableOf(name).find((row) => Math.abs(row.T_C - T_C) < 1e-9)!
+
+  it.each(TABLED)('%s carries a table with a source whose 300 K row is the entry’s own room values', (name) => {
+    const m = byName(name)
+    expect(m.propertyTableSource).toMatch(/Table A\.1.*from memory/)
+    expect(at(name, 300 - 273.15)).toMatchObject({ k: m.k_W_mK, cp: m.specificHeat_J_kgK })
+  })
+
+  // The stand-alone 600 K and 1000 K entries and the table columns are the same recalled figures, so they must agree.
+  it.each([
+    ['Plain carbon steel (Mn ≤ 1 %, Si ≤ 0.1 %)', 'Plain carbon steel at 600 K'],
+    ['Plain carbon steel (Mn ≤ 1 %, Si ≤ 0.1 %)', 'Plain carbon steel at 1000 K'],
+    ['AISI 304 stainless', 'AISI 304 stainless at 600 K'],
+    ['AISI 304 stainless', 'AISI 304 stainless at 1000 K'],
+  ])('%s: the table agrees with the entry %s', (name, entry) => {
+    const single = byName(entry)
+    expect(at(name, single.propertiesAt_C!)).toMatchObject({ k: single.k_W_mK, cp: single.specificHeat_J_kgK })
+  })
+
+  // Common practice: ferritic steels' c_p peaks at the magnetic change near 750 °C at several times its room value, then falls in austenite.
+  it.each(TABLED.filter(([, c]) => c === 'carbon or low-alloy'))('%s: c_p peaks at 750 °C at 2.5–4 × the room value and falls beyond', (name) => {
+    const rows = tableOf(name)
+    const peak = rows.reduce((a, b) => (b.cp > a.cp ? b : a))
+    expect(peak.T_C).toBe(750)
+    expect(peak.cp / rows[0]!.cp).toBeGreaterThanOrEqual(2.5)
+    expect(peak.cp / rows[0]!.cp).toBeLessThanOrEqual(4)
+    expect(rows.at(-1)!.cp).toBeLessThan(peak.cp)
+  })
+
+  // Common practice: austenitic stainless has no magnetic change, so c_p and k rise steadily.
+  it.each(TABLED.filter(([, c]) => c === 'austenitic stainless'))('%s: k and c_p rise through every column', (name) => {
+    const rows = tableOf(name)
+    rows.slice(1).forEach((row, i) => {
+      expect(row.k).toBeGreaterThan(rows[i]!.k)
+      expect(row.cp).toBeGreaterThan(rows[i]!.cp)
+    })
+  })
+})
+
+describe('seed cooling curves (common practice, from memory)', () => {
+  const parsed = (name: string) => quenchantInputSchema.parse(DEMO_QUENCHANTS.find((q) => q.name === name)!)
+  const BOILING = ['Fast quench oil, still', 'Fast quench oil, agitated', 'Water', 'Polymer solution 10–20 %']
+  const NON_BOILING = ['Nitrate salt bath', 'Still air', 'Forced air (fan)', 'Nitrogen gas, 10 bar', 'Nitrogen gas, 1 bar']
+
+  it.each(DEMO_QUENCHANTS.map((q) => [q.name]))('%s keeps its band as three curves with a source marked common practice', (name) => {
+    const q = parsed(name)
+    expect(q.coolingCurves).not.toBeNull()
+    expect(q.curveSource).toMatch(/Common practice, from memory/)
+  })
+
+  // Vapour blanket (low h while very hot), a boiling peak in between, convection (low again) near the bath.
+  it.each(BOILING.map((n) => [n]))('%s: the typical curve peaks between a vapour blanket and convection', (name) => {
+    const curve = parsed(name).coolingCurves!.typical
+    const peak = curve.reduce((a, b) => (b.h > a.h ? b : a))
+    expect(peak.h).toBeGreaterThan(2.5 * curve[0]!.h)
+    expect(peak.h).toBeGreaterThan(2.5 * curve.at(-1)!.h)
+    expect(peak.T_C).toBeGreaterThan(curve[0]!.T_C)
+    expect(peak.T_C).toBeLessThan(curve.at(-1)!.T_C)
+  })
+
+  it.each(NON_BOILING.map((n) => [n]))('%s: no boiling peak, h never falls as the surface heats', (name) => {
+    const curve = parsed(name).coolingCurves!.typical
+    curve.slice(1).forEach((p, i) => expect(p.h).toBeGreaterThanOrEqual(curve[i]!.h))
+  })
+
+  it('air and gas carry an emissivity (radiation), liquids none', () => {
+    for (const q of DEMO_QUENCHANTS.map((entry) => quenchantInputSchema.parse(entry))) {
+      if (['still-air', 'forced-air', 'gas'].includes(q.kind)) expect(q.emissivity).toBeGreaterThan(0)
+      else expect(q.emissivity).toBeNull()
+    }
+  })
+})

@@ -86,14 +86,14 @@ describe('findDeviations', () => {
     ])
   })
 
-  it('release before the predicted handling time: 12 min 30 s against 16 min 40 s is 4 min 10 s early', () => {
+  it('release before the safe-to-handle time: 12 min 30 s against 16 min 40 s is 4 min 10 s early', () => {
     expect(findDeviations(plan, at({ quenched: 0, released: 750 }))).toEqual([
       {
         rule: 'early_release',
         planned_s: 1000,
         actual_s: 750,
         excess_s: 250,
-        message: 'Released 12 min 30 s after the quench, 4 min 10 s before the predicted handling time of 16 min 40 s.',
+        message: 'Released 12 min 30 s after the quench, 4 min 10 s before the safe-to-handle time of 16 min 40 s.',
       },
     ])
   })

@@ -143,3 +143,15 @@ describe('renderSheetPdf', () => {
     expect(pdfText(compressed)).toEqual([])
   })
 })
+
+describe('the handling basis on the sheet', () => {
+  const note = 'Predicted handling time: safe-to-handle at the slow end of the quench band; headline estimate 16 min 20 s.'
+  const withNote = { ...sheet, handlingNote: note }
+
+  it('is written under the times in HTML, text and PDF, and left out when a record has none', async () => {
+    expect(renderSheetHtml(withNote)).toContain(note)
+    expect(renderSheetText(withNote)).toContain(note)
+    expect(pdfText(await renderSheetPdf(withNote, { compress: false })).join(' ')).toContain('safe-to-handle at the slow end of the quench band')
+    expect(renderSheetHtml(sheet)).not.toContain('data-handling-note')
+  })
+})

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import bessel from 'bessel'
 import { solveCrankNicolson } from '../../../server/thermal/crankNicolson'
-import { runProduct, type ProductDirection, type ProductInput } from '../../../server/thermal/productSolution'
+import { checkProduct, runProduct, type ProductDirection, type ProductInput } from '../../../server/thermal/productSolution'
+import { pointValue } from '../../../shared/pointSeries'
 import { bisect } from '../../support/bisect'
 import { centreFraction1D, referenceCentre_C, referenceTimeToCentre_s } from '../../support/productReference'
 
@@ -147,13 +148,75 @@ describe('product solution of short cylinders and blocks', () => {
     expect(timeTo(block, 100).targetTime_s).toBeLessThan(timeTo(bar, 100).targetTime_s)
   })
 
+  it('a short cylinder charged at 20 °C into a furnace at 860 °C heats as the closed form says (the heating term carries its sign in its weight)', () => {
+    const input: ProductInput = { ...steelInput([rod(0.06), slab(0.02, 'length')], 150, undefined, 20, 860), target: { at: 'centre', above_C: 850 } }
+    const run = runProduct(input)
+    expect(referenceCentre_C(referenceOf(input), run.targetTime_s)).toBeCloseTo(850, 6)
+    expect(checkProduct(input, [60, 600, run.targetTime_s])).toBeLessThan(0.2)
+  })
+
   const cylinder = steelInput([rod(0.03), slab(0.05, 'length')], 500)
   it.each([
-    ['stages', { ...cylinder, stages: [{ h_W_m2K: 500, ambient_C: 40, duration_s: 60 }, { h_W_m2K: 15, ambient_C: 25 }] }],
     ['material.k', { ...cylinder, material: { k: 0, rho: RHO, cp: CP } }],
     ['target.below_C', { ...cylinder, target: { at: 'centre' as const, below_C: 30 } }], // below the 40 °C bath
     ['part', steelInput([slab(0.02), slab(2.5, 'side 2'), slab(2.5, 'side 3')], 800)], // the long sides never reach the centre
   ])('refuses an input it cannot compute, naming %s', (field, input) => {
     expect(() => runProduct(input)).toThrow(expect.objectContaining({ field }))
   })
+})
+
+describe('product solution with a different surrounding temperature per stage (superposition, one term per change)', () => {
+  const oilThenAir = [
+    { h_W_m2K: 1500, ambient_C: 60, duration_s: 40 },
+    { h_W_m2K: 15, ambient_C: 25 },
+  ]
+
+  // A rod direction alone is the 1-D rod: compared with the finite-volume solver run straight through both stages.
+  it('a body with only a rod direction, oil at 60 °C then air at 25 °C, follows the 1-D Crank–Nicolson rod within 0.05 K', () => {
+    const R = 0.02
+    const times = [10, 40, 41, 120, 600, 1500]
+    const cn = solveCrankNicolson(
+      {
+        domain: { geometry: 'rod', length_m: R, properties: [{ x: 0, k_W_mK: K, rhoCp_J_m3K: RHO * CP }, { x: 1, k_W_mK: K, rhoCp_J_m3K: RHO * CP }] },
+        initial: START_C,
+        stages: oilThenAir.map((s) => ({ outer: { type: 'convective' as const, h_W_m2K: s.h_W_m2K, ambient_C: s.ambient_C }, inner: { type: 'symmetry' as const }, ...(s.duration_s ? { duration_s: s.duration_s } : {}) })),
+      },
+      { times_s: times, points: [0] },
+    )
+    const input: ProductInput = { body: { directions: [rod(R)] }, material: { k: K, rho: RHO, cp: CP }, initial_C: START_C, stages: oilThenAir, target: { at: 'centre', below_C: 100 } }
+    const run = runProduct(input, { times_s: times })
+    times.forEach((t, i) => expect(Math.abs(run.profiles.T_C[i]![0]! - cn.T_C[i]![0]!), `t=${t}`).toBeLessThan(0.05))
+  })
+
+  // Bi = h L / k = 5e-4: the body is lumped, T − a(t) decays as e^{−t/τ} per stage with τ = ρ c_p L / (3 h) for a cube of
+  // half-side L (V/A = L/3). Closed form (Incropera et al. §5.1, lumped capacitance), applied stage after stage; its own
+  // error, about Bi/3 of the excess per time constant, stays under 0.1 K here.
+  it('a near-lumped cube through two stages with different surroundings matches the lumped closed form to 0.1 K', () => {
+    const L = 0.01
+    const material = { k: 400, rho: 8900, cp: 385 }
+    const stages = [
+      { h_W_m2K: 20, ambient_C: 200, duration_s: 600 },
+      { h_W_m2K: 10, ambient_C: 20 },
+    ]
+    const tau = (h: number) => (material.rho * material.cp * L) / (3 * h)
+    const atSwitch = 200 + (800 - 200) * Math.exp(-600 / tau(20))
+    const lumped = (t: number) => (t <= 600 ? 200 + (800 - 200) * Math.exp(-t / tau(20)) : 20 + (atSwitch - 20) * Math.exp(-(t - 600) / tau(10)))
+    const input: ProductInput = { body: { directions: [slab(L), slab(L, 'side 2'), slab(L, 'side 3')] }, material, initial_C: 800, stages, target: { at: 'mean', below_C: 100 } }
+    const run = runProduct(input)
+    for (const t of [300, 600, 900, 1500, 2800]) {
+      const i = run.curve.t_s.findIndex((s) => s >= t)
+      expect(Math.abs(run.curve.mean_C[i]! - lumped(run.curve.t_s[i]!)), `t=${t}`).toBeLessThan(0.1)
+    }
+    expect(lumped(run.targetTime_s)).toBeCloseTo(100, 1)
+  })
+
+  it('the shipped series and the Crank–Nicolson check agree with the curve for a short cylinder, oil then air', () => {
+    const input: ProductInput = { body: { directions: [rod(0.03), slab(0.03, 'length')] }, material: { k: K, rho: RHO, cp: CP }, initial_C: START_C, stages: oilThenAir, target: { at: 'centre', below_C: 100 } }
+    const run = runProduct(input)
+    run.curve.t_s.forEach((t, i) => {
+      if (t > 1 && i % 50 === 0) expect(Math.abs(pointValue(run.series, t) - run.curve.centre_C[i]!), `t=${t}`).toBeLessThan(0.1)
+    })
+    expect(pointValue(run.series, run.targetTime_s)).toBeCloseTo(100, 1)
+    expect(checkProduct(input, [20, 40, 60, 300, run.targetTime_s])).toBeLessThan(0.2)
+  }, 60_000)
 })
