@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs'
+import { SHEET_FONT_FILES } from './server/records/sheetFonts'
 
 const { version } = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 'utf8')) as { version: string }
 
@@ -89,5 +90,7 @@ export default defineNuxtConfig({
     // Bundles and fonts are served pre-compressed (gzip and brotli) when the browser accepts it.
     compressPublicAssets: { gzip: true, brotli: true },
     typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },
+    // The PDF sheet reads Plex's font files at run time; listed, the build copies them beside the server.
+    externals: { traceInclude: SHEET_FONT_FILES },
   },
 })

@@ -46,8 +46,9 @@ export function useFormSubmit(options: FormSubmitOptions = {}) {
   }
 
   /**
-   * Runs the request with `busy` set; a failure shows the server's headline and its
-   * `data.problems` under the inputs, then goes to `onFailure` for anything form-specific.
+   * Runs the request with `busy` set; a failure shows the server's `data.problems` under
+   * the inputs, or its headline when it names no field (a generic "Invalid request body"
+   * beside a field's own message only repeats it), then goes to `onFailure`.
    */
   async function send(request: () => Promise<void>, onFailure?: (failure: unknown) => void) {
     busy.value = true
@@ -55,7 +56,8 @@ export function useFormSubmit(options: FormSubmitOptions = {}) {
       await request()
     } catch (failure) {
       const described = describe(failure)
-      problem.value = described.message
+      const fields = Object.keys(described.fields)
+      problem.value = fields.length === 0 ? described.message : fields.includes('(body)') ? described.fields['(body)']! : ''
       showProblems(Object.entries(described.fields).map(([field, message]) => ({ field, message })))
       onFailure?.(failure)
     } finally {

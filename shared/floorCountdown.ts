@@ -64,7 +64,7 @@ export function floorCountdown(
     case 'quenched':
     case 'cooling':
       seconds = until(b.handlingAt)
-      caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the bath stage ends`
+      caption = seconds > 0 ? `until the core is below ${formatTemperature(b.summary.handling_C)}` : `Core below ${formatTemperature(b.summary.handling_C)}: lift out when the quench stage ends`
       coreNow_C = coreAt(b, now)
       break
     case 'ready':

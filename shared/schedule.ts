@@ -5,7 +5,7 @@
  * all times are epoch milliseconds unless the name says seconds.
  */
 import { type Capability, can } from './access'
-import type { Role } from './roles'
+import { ROLE_LABELS, type Role } from './roles'
 import { DEFAULT_TOWARD_SLOW_END_PCT, safeToHandle_s } from './safeHandling'
 import type { PlanSummary } from './types/plan'
 
@@ -17,11 +17,11 @@ export const BATCH_STATE_LABELS: Record<BatchState, string> = {
   charged: 'In furnace',
   soaking: 'Holding at heat',
   unloaded: 'Out of the furnace',
-  quenched: 'In the bath',
+  quenched: 'Quenching',
   cooling: 'Cooling to handling',
   ready: 'Safe to handle',
-  released: 'Handed on',
-  cancelled: 'Withdrawn',
+  released: 'Released',
+  cancelled: 'Booking cancelled',
 }
 
 /** States in which a batch still holds (or will hold) furnace or station time. */
@@ -50,10 +50,10 @@ export const TRANSITIONS: Record<Exclude<BatchState, 'planned'>, Transition> = {
   unloaded: { from: ['soaking'], capability: 'floor.record', action: 'Out of the furnace' },
   // From "soaking" too: a quench whose door tap was missed is still recorded, and the record says the door time is missing.
   quenched: { from: ['soaking', 'unloaded'], capability: 'floor.record', action: 'Quench started' },
-  cooling: { from: ['quenched'], capability: null, action: 'Out of the bath' },
+  cooling: { from: ['quenched'], capability: null, action: 'Quench stage over' },
   ready: { from: ['cooling'], capability: null, action: 'Safe to handle' },
-  released: { from: ['ready'], capability: 'floor.record', action: 'Hand on' },
-  cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Withdraw' },
+  released: { from: ['ready'], capability: 'floor.record', action: 'Release' },
+  cancelled: { from: ['planned', 'charged', 'soaking'], capability: 'schedule.book', action: 'Cancel booking' },
 }
 
 /** True when `role` may record the move to `requested` at all (whatever the batch's state). */
@@ -71,15 +71,15 @@ export type MoveCheck =
  * never record the move gets 403 whatever the state; otherwise the order decides.
  */
 export function checkMove(current: BatchState, requested: BatchState, role: Role): MoveCheck {
-  if (requested === 'planned') return { ok: false, status: 409, message: `A batch cannot go back to ${BATCH_STATE_LABELS.planned} (planned); it is ${BATCH_STATE_LABELS[current]} (${current})` }
+  if (requested === 'planned') return { ok: false, status: 409, message: `A load cannot go back to ${BATCH_STATE_LABELS.planned}; it is ${BATCH_STATE_LABELS[current]}` }
   const rule = TRANSITIONS[requested]
-  if (rule.capability === null) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} (${requested}) follows from the plan's times; nobody records it` }
-  if (!canRecord(role, requested)) return { ok: false, status: 403, message: `A ${role} cannot record ${BATCH_STATE_LABELS[requested]} (${requested})` }
+  if (rule.capability === null) return { ok: false, status: 409, message: `${BATCH_STATE_LABELS[requested]} follows from the plan's times; nobody records it` }
+  if (!canRecord(role, requested)) return { ok: false, status: 403, message: `The ${ROLE_LABELS[role]} role cannot record ${BATCH_STATE_LABELS[requested]}` }
   if (!rule.from.includes(current)) {
     return {
       ok: false,
       status: 409,
-      message: `The batch is ${BATCH_STATE_LABELS[current]} (${current}); it cannot move to ${BATCH_STATE_LABELS[requested]} (${requested})`,
+      message: `The load is ${BATCH_STATE_LABELS[current]}; it cannot move to ${BATCH_STATE_LABELS[requested]}`,
     }
   }
   return { ok: true }
@@ -205,11 +205,13 @@ export function overlaps(a: Interval, b: Interval): boolean {
 }
 
 /**
- * The earliest start at or after `from` at which the furnace holds the load for
- * `furnace_ms` and the station, `stationOffset_ms` after the start, holds it for
- * `station_ms`, clear of every busy interval. The answer is `from` itself or a
+ * The earliest whole-second start at or after `from` at which the furnace holds the
+ * load for `furnace_ms` and the station, `stationOffset_ms` after the start, holds it
+ * for `station_ms`, clear of every busy interval. The answer is `from` itself or a
  * moment at which some busy interval ends (shifted by the offset for the station),
- * so only those candidates need checking.
+ * rounded up to the second, so only those candidates need checking. Whole seconds,
+ * because a charge time is typed and sent to the second: an offer with milliseconds
+ * would come back truncated and collide again.
  */
 export function nextFreeStart(
   from: number,
@@ -219,7 +221,9 @@ export function nextFreeStart(
   furnaceBusy: Interval[],
   stationBusy: Interval[],
 ): number {
+  const wholeSecond = (t: number) => Math.ceil(t / 1000) * 1000
   const candidates = [from, ...furnaceBusy.map((b) => b.end), ...stationBusy.map((b) => b.end - stationOffset_ms)]
+    .map(wholeSecond)
     .filter((t) => t >= from)
     .sort((a, b) => a - b)
   for (const t of candidates) {

@@ -104,14 +104,23 @@ function storedPlan(spec: unknown): ResolvedPlan {
   return resolvedPlanSchema.parse(spec)
 }
 
-export async function listPlans(): Promise<PlanListItem[]> {
+export interface PlanListQuery {
+  /** Part of the plan's name or its material's, any case. */
+  q?: string
+  shape?: PlanListItem['shape']
+  /** Archived plans instead of the active ones. */
+  archived: boolean
+}
+
+export async function listPlans(query: PlanListQuery = { archived: false }): Promise<PlanListItem[]> {
   const rows = await useDb()
     .select({ plan: plans, spec: planRevisions.spec, summary: planRevisions.summary })
     .from(plans)
     .innerJoin(planRevisions, and(eq(planRevisions.planId, plans.id), eq(planRevisions.revision, plans.latestRevision)))
-    .where(eq(plans.archived, false))
+    .where(eq(plans.archived, query.archived))
     .orderBy(desc(plans.updatedAt))
-  return rows.map(({ plan, spec, summary }) => {
+  const wanted = query.q?.trim().toLowerCase() ?? ''
+  const items = rows.map(({ plan, spec, summary }): PlanListItem => {
     const s = spec as Partial<ResolvedPlan>
     const sum = summary as PlanSummary | null
     return {
@@ -124,8 +133,24 @@ export async function listPlans(): Promise<PlanListItem[]> {
       soakTotal_s: sum?.soak?.total_s ?? null,
       handling_C: sum?.handling_C ?? null,
       updatedAt: plan.updatedAt.toISOString(),
+      archived: plan.archived,
     }
   })
+  return items.filter((item) => (!query.shape || item.shape === query.shape) && (!wanted || `${item.name}\n${item.materialName}`.toLowerCase().includes(wanted)))
+}
+
+/**
+ * Archives a plan (out of the list and the booking form) or brings it back. Its
+ * revisions stay as they are: loads booked on them, their records and links still read them.
+ */
+export async function setPlanArchived(id: number, archived: boolean, actorId: number): Promise<{ id: number; archived: boolean }> {
+  await useDb().transaction(async (tx) => {
+    const [plan] = await tx.select({ id: plans.id, name: plans.name }).from(plans).where(eq(plans.id, id)).for('update')
+    if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
+    await tx.update(plans).set({ archived }).where(eq(plans.id, id))
+    await recordAudit(tx, { actorId, action: archived ? 'plan.archive' : 'plan.restore', entityType: 'plan', entityId: id, details: { name: plan.name } })
+  })
+  return { id, archived }
 }
 
 /** `result` is computed before the transaction opens: a solve never holds row locks or a connection. */

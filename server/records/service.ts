@@ -26,7 +26,7 @@ export async function refuseIfRecordSigned(tx: Transaction, batchId: number): Pr
   if (record && record.state !== 'unsigned') {
     throw createError({
       statusCode: 409,
-      statusMessage: `The cooldown record of this load is ${record.state}; its batch takes no more events`,
+      statusMessage: `The cooldown record of this load is ${record.state}; the load takes no more events`,
       data: { recordId: record.id, recordState: record.state },
     })
   }

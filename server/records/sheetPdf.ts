@@ -1,13 +1,13 @@
 /**
- * The hold-time sheet as a PDF (pdfkit, A4). Helvetica is one of the PDF standard
- * fonts, so nothing is embedded; the app's own typeface ships only as WOFF, which
- * pdfkit cannot read. The predicted curve is drawn with vector lines, not an image,
- * so it stays sharp when printed and the file stays small.
+ * The hold-time sheet as a PDF (pdfkit, A4), in IBM Plex Sans embedded as subsets
+ * (sheetFonts.ts), so every character the sheet is given prints. The predicted curve is
+ * drawn with vector lines, not an image, so it stays sharp when printed and the file stays small.
  */
 import PDFDocument from 'pdfkit'
 import type { CurvePoint, HoldTimeSheet } from '../../shared/types/records'
 import { palette } from '../../shared/palette'
 import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
+import { sheetFaces, textRuns, type SheetWeight } from './sheetFonts'
 
 const { ink, temper, bath, alarm } = palette
 
@@ -20,9 +20,47 @@ export interface PdfOptions {
 
 type Doc = InstanceType<typeof PDFDocument>
 
+interface Place extends PDFKit.Mixins.TextOptions {
+  x?: number
+  y?: number
+}
+
+/**
+ * pdfkit sets each run's baseline its own font's ascent below the line's top; the fallback's
+ * ascent differs from Plex's, so the runs of a mixed line take the first face's. pdfkit
+ * offers no public reading of either value.
+ */
+interface PdfkitLineMetrics {
+  _font: { ascender: number }
+  _fontSize: number
+}
+
+/** Text in the runs of the faces that hold its characters; `continued` keeps the runs one paragraph. */
+function write(doc: Doc, weight: SheetWeight, text: string, { x, y, ...options }: Place = {}) {
+  const faces = sheetFaces()[weight]
+  const runs = textRuns(text, faces)
+  if (runs.length > 1) {
+    const metrics = doc.font(faces[0]!.name) as unknown as PdfkitLineMetrics
+    options.baseline = -((metrics._font.ascender / 1000) * metrics._fontSize)
+  }
+  runs.forEach((run, index) => {
+    const continued = index < runs.length - 1
+    doc.font(run.face)
+    // pdfkit reads a missing x as "options in its place", so a position goes only when there is one.
+    if (index === 0 && (x !== undefined || y !== undefined)) doc.text(run.text, x, y, { ...options, continued })
+    else doc.text(run.text, { ...options, continued })
+  })
+}
+
+/** Height of the text as one face would set it: runs in another face differ by a few hundredths of a line. */
+function heightOf(doc: Doc, weight: SheetWeight, text: string, options: PDFKit.Mixins.TextOptions): number {
+  return doc.font(sheetFaces()[weight][0]!.name).heightOfString(text, options)
+}
+
 function heading(doc: Doc, text: string) {
   ensureRoom(doc, 60)
-  doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor(ink[900]).text(text, MARGIN)
+  doc.moveDown(0.8).fontSize(12).fillColor(ink[900])
+  write(doc, 'bold', text, { x: MARGIN })
   doc.moveDown(0.3)
 }
 
@@ -34,13 +72,15 @@ function ensureRoom(doc: Doc, height: number) {
 function drawTable(doc: Doc, widths: number[], rows: string[][]) {
   const width = widths.reduce((a, b) => a + b, 0)
   rows.forEach((row, index) => {
-    doc.font(index === 0 ? 'Helvetica-Bold' : 'Helvetica').fontSize(9)
-    const height = Math.max(...row.map((text, column) => doc.heightOfString(text, { width: widths[column]! - 8 }))) + 8
+    const weight: SheetWeight = index === 0 ? 'bold' : 'regular'
+    doc.fontSize(9)
+    const height = Math.max(...row.map((text, column) => heightOf(doc, weight, text, { width: widths[column]! - 8 }))) + 8
     ensureRoom(doc, height)
     const top = doc.y
     let x = MARGIN
     row.forEach((text, column) => {
-      doc.fillColor(index === 0 ? ink[600] : ink[900]).text(text, x + 4, top + 4, { width: widths[column]! - 8 })
+      doc.fillColor(index === 0 ? ink[600] : ink[900])
+      write(doc, weight, text, { x: x + 4, y: top + 4, width: widths[column]! - 8 })
       x += widths[column]!
     })
     doc.moveTo(MARGIN, top + height).lineTo(MARGIN + width, top + height).lineWidth(0.5).strokeColor(ink[200]).stroke()
@@ -73,24 +113,25 @@ function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, q
   const x = (t_s: number) => left + (t_s / 60 / (Math.ceil(minutes / stepMin) * stepMin)) * width
   const y = (T_C: number) => top + height - ((T_C - TMin) / (TMax - TMin)) * height
 
-  doc.lineWidth(0.5).strokeColor(ink[200]).font('Helvetica').fontSize(8).fillColor(ink[600])
+  doc.lineWidth(0.5).strokeColor(ink[200]).fontSize(8).fillColor(ink[600])
   for (let T = TMin; T <= TMax + 1e-9; T += stepT) {
     doc.moveTo(left, y(T)).lineTo(left + width, y(T)).stroke()
-    doc.text(`${T.toFixed(0)}`, MARGIN, y(T) - 4, { width: 34, align: 'right' })
+    write(doc, 'regular', `${T.toFixed(0)}`, { x: MARGIN, y: y(T) - 4, width: 34, align: 'right' })
   }
   for (let m = 0; m <= Math.ceil(minutes / stepMin) * stepMin + 1e-9; m += stepMin) {
     doc.moveTo(x(m * 60), top).lineTo(x(m * 60), top + height).stroke()
-    doc.text(`${Number(m.toPrecision(6))}`, x(m * 60) - 15, top + height + 4, { width: 30, align: 'center' })
+    write(doc, 'regular', `${Number(m.toPrecision(6))}`, { x: x(m * 60) - 15, y: top + height + 4, width: 30, align: 'center' })
   }
-  doc.text('°C', MARGIN, top - 16, { width: 34, align: 'right' })
-  doc.text('minutes after the quench starts', left, top + height + 16, { width, align: 'center' })
+  write(doc, 'regular', '°C', { x: MARGIN, y: top - 16, width: 34, align: 'right' })
+  write(doc, 'regular', 'minutes after the quench starts', { x: left, y: top + height + 16, width, align: 'center' })
 
   // The handling temperature and the predicted handling time, dashed, so the reader sees where the curve crosses.
   doc.lineWidth(1).strokeColor(bath[600]).dash(4, { space: 3 })
   doc.moveTo(left, y(handling_C)).lineTo(left + width, y(handling_C)).stroke()
   doc.moveTo(x(quenchToHandling_s), top).lineTo(x(quenchToHandling_s), top + height).stroke()
   doc.undash()
-  doc.fillColor(bath[600]).text(`handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, x(quenchToHandling_s) + 4, y(handling_C) - 12)
+  doc.fillColor(bath[600])
+  write(doc, 'regular', `handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, { x: x(quenchToHandling_s) + 4, y: y(handling_C) - 12 })
 
   if (curve.length > 1) {
     doc.lineWidth(1.6).strokeColor(temper[400]).lineJoin('round')
@@ -115,13 +156,17 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     doc.on('end', () => resolve(Buffer.concat(chunks)))
     doc.on('error', reject)
   })
+  for (const face of [...sheetFaces().regular, ...sheetFaces().bold]) doc.registerFont(face.name, face.data)
   const contentWidth = doc.page.width - 2 * MARGIN
   const { planned } = sheet
 
   doc.rect(0, 0, doc.page.width, 6).fill(temper[400])
-  doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(`${sheet.shopName} · Hold-time sheet`, MARGIN, MARGIN)
-  doc.font('Helvetica-Bold').fontSize(20).fillColor(ink[900]).text(`Load ${sheet.loadNumber}`)
-  doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(`Generated ${formatInstant(sheet.generatedAt)}`)
+  doc.fontSize(9).fillColor(ink[600])
+  write(doc, 'regular', `${sheet.shopName} · Hold-time sheet`, { x: MARGIN, y: MARGIN })
+  doc.fontSize(20).fillColor(ink[900])
+  write(doc, 'bold', `Load ${sheet.loadNumber}`)
+  doc.fontSize(9).fillColor(ink[600])
+  write(doc, 'regular', `Generated ${formatInstant(sheet.generatedAt)}`)
 
   heading(doc, 'Load')
   drawTable(doc, [150, contentWidth - 150], [
@@ -135,29 +180,33 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
 
   heading(doc, 'Times')
   drawTable(doc, [contentWidth - 260, 130, 130], [['Span', 'Planned', 'Recorded'], ...spanRows(sheet)])
-  if (sheet.handlingNote) doc.font('Helvetica').fontSize(9).fillColor(ink[600]).text(sheet.handlingNote, { width: contentWidth })
+  if (sheet.handlingNote) {
+    doc.fontSize(9).fillColor(ink[600])
+    write(doc, 'regular', sheet.handlingNote, { width: contentWidth })
+  }
 
   heading(doc, 'Deviations')
   if (sheet.deviations.length === 0) {
-    doc.font('Helvetica').fontSize(10).fillColor(bath[600]).text('No deviations from the plan.')
+    doc.fontSize(10).fillColor(bath[600])
+    write(doc, 'regular', 'No deviations from the plan.')
   } else {
-    doc.font('Helvetica').fontSize(10).fillColor(alarm[600])
-    for (const deviation of sheet.deviations) doc.text(`•  ${deviation.message}`, { width: contentWidth })
+    doc.fontSize(10).fillColor(alarm[600])
+    for (const deviation of sheet.deviations) write(doc, 'regular', `•  ${deviation.message}`, { width: contentWidth })
   }
 
   heading(doc, 'Predicted handling-point temperature')
   drawCurve(doc, sheet.predictedCurve, planned.handling_C, planned.quenchToHandling_s)
 
   heading(doc, 'Events')
-  doc.font('Helvetica').fontSize(10).fillColor(alarm[600])
-  for (const type of sheet.notRecorded) doc.text(notRecordedLine(type), MARGIN, doc.y, { width: contentWidth })
+  doc.fontSize(10).fillColor(alarm[600])
+  for (const type of sheet.notRecorded) write(doc, 'regular', notRecordedLine(type), { x: MARGIN, width: contentWidth })
   drawTable(doc, [130, contentWidth - 260, 130], [['When', 'What', 'Who'], ...sheet.events.map((event) => [eventWhen(event), eventWhat(event), event.by])])
 
   heading(doc, 'Cautions')
-  doc.font('Helvetica').fontSize(9).fillColor(temper[800])
+  doc.fontSize(9).fillColor(temper[800])
   for (const caution of sheet.cautions) {
     ensureRoom(doc, 30)
-    doc.text(`•  ${caution}`, MARGIN, doc.y, { width: contentWidth })
+    write(doc, 'regular', `•  ${caution}`, { x: MARGIN, width: contentWidth })
     doc.moveDown(0.3)
   }
 

@@ -6,6 +6,7 @@ import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
 import type { BatchDetail, FloorBatch, FloorCurve, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
 import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
+import { quenchMediumOf } from './quenchMedium'
 import { readShopSettings } from './shopSettings'
 
 /** Batches whose time (charge to handling) touches [from, to); the schedule's week query. */
@@ -21,7 +22,7 @@ export async function listBatches(from: Date, to: Date, furnaceId?: number, db: 
 export async function getBatch(id: number): Promise<BatchDetail> {
   const db = useDb()
   const [found] = await selectBatchesInContext(db).where(eq(batches.id, id))
-  if (!found) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  if (!found) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
   const events = (await eventViewsOf(db, [id])).get(id)!
   const b = found.batch
   return {
@@ -106,19 +107,32 @@ export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve
 /** Plan revisions with a computed summary, newest first: what the booking form offers. */
 export async function planOptions(): Promise<PlanOption[]> {
   const rows = await useDb()
-    .select({ planRevisionId: planRevisions.id, planName: plans.name, revision: planRevisions.revision, summary: planRevisions.summary })
+    .select({
+      planRevisionId: planRevisions.id,
+      planId: plans.id,
+      planName: plans.name,
+      revision: planRevisions.revision,
+      summary: planRevisions.summary,
+      spec: planRevisions.spec,
+    })
     .from(planRevisions)
     .innerJoin(plans, eq(plans.id, planRevisions.planId))
     .where(and(eq(plans.archived, false), sql`${planRevisions.summary} IS NOT NULL`))
     .orderBy(asc(plans.name), desc(planRevisions.revision))
     .limit(500)
+  // Rows come newest revision first within each plan, so the first seen is the latest.
+  const seen = new Set<number>()
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
     if (!summary) return []
+    const latest = !seen.has(row.planId)
+    seen.add(row.planId)
     return [{
       planRevisionId: row.planRevisionId,
       planName: row.planName,
       revision: row.revision,
+      latest,
+      quenchKind: quenchMediumOf(row.spec)?.kind ?? null,
       quenchToHandling_s: summary.quenchToHandling_s,
       furnace_s: summary.soak?.total_s ?? null,
       furnace_C: summary.soak?.furnace_C ?? null,

@@ -30,7 +30,7 @@ export async function moveBatch(
   db: Database = useDb(),
 ): Promise<{ batch: BatchView; repeated: boolean }> {
   const [pre] = await db.select({ furnaceId: batches.furnaceId, stationId: batches.stationId }).from(batches).where(eq(batches.id, id))
-  if (!pre) throw createError({ statusCode: 404, statusMessage: 'Batch not found' })
+  if (!pre) throw createError({ statusCode: 404, statusMessage: 'Load not found' })
   return await db.transaction(
     async (tx) => {
       await lockResources(tx, pre.furnaceId, pre.stationId)

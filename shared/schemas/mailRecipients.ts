@@ -18,7 +18,7 @@ export const MAIL_RECIPIENT_KIND_INFO: Record<MailRecipientKind, { label: string
   },
   daily_digest: {
     label: 'Daily digest',
-    description: 'One message a day listing the loads released and the deviations found.',
+    description: 'One message a day listing the cooldown records that have waited more than a day for QA sign-off.',
     defaultRole: 'qa',
   },
 }

@@ -143,3 +143,14 @@ export const resolvedPlanSchema = z.strictObject({
   library: z.strictObject({ material: materialSnapshotSchema, quenchants: z.array(quenchantSnapshotSchema) }),
 })
 export type ResolvedPlan = z.output<typeof resolvedPlanSchema>
+
+/** The plan list's search and filters (GET /api/plans). */
+export const planListQuerySchema = z.object({
+  q: z.string().trim().max(80, 'Search is too long').optional(),
+  shape: z.enum(PART_SHAPES, { message: `Shape must be one of: ${PART_SHAPES.join(', ')}` }).optional(),
+  archived: z.enum(['true', 'false'], { message: 'Archived must be true or false' }).default('false').transform((value) => value === 'true'),
+})
+
+export const planArchiveSchema = z.strictObject({
+  archived: z.boolean({ message: 'Archived must be true or false' }),
+})

@@ -52,6 +52,10 @@ export const bookingInputSchema = z.strictObject({
 })
 export type BookingInput = z.input<typeof bookingInputSchema>
 
+/** A booked load moved to another time, furnace or station; plan, parts and mass stay. */
+export const bookingMoveSchema = bookingInputSchema.pick({ furnaceId: true, stationId: true, plannedCharge: true })
+export type BookingMove = z.input<typeof bookingMoveSchema>
+
 export const moveInputSchema = z.strictObject({
   to: z.enum(BATCH_STATES, { message: `State must be one of: ${BATCH_STATES.join(', ')}` }),
   /** The operator's second confirmation of a tap that comes before the plan says it should. */

@@ -78,6 +78,7 @@ export interface PlanListItem {
   soakTotal_s: number | null
   handling_C: number | null
   updatedAt: string
+  archived: boolean
 }
 
 export interface PlanRevisionListItem {

@@ -137,6 +137,10 @@ export interface PlanOption {
   planRevisionId: number
   planName: string
   revision: number
+  /** The plan's newest computed revision. */
+  latest: boolean
+  /** The first stage's medium: the kind of station the load needs. */
+  quenchKind: QuenchantKind | null
   quenchToHandling_s: number
   furnace_s: number | null
   furnace_C: number | null

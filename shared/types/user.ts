@@ -19,5 +19,7 @@ export interface AuditEntry {
   action: string
   entityType: string
   entityId: string | null
+  /** What the entry is about, by name: the person's name, the load number, the plan's name. */
+  entityName: string | null
   details: Record<string, unknown> | null
 }

@@ -59,7 +59,11 @@ describe('booking', () => {
     expect(clash.status).toBe(409)
     expect(clash.body.statusMessage).toBe(`${line.furnace.name} is taken by ${first.body.loadNumber}`)
     expect(clash.body.data.collidesWith).toEqual({ id: first.body.id, loadNumber: first.body.loadNumber, resource: 'furnace' })
-    expect(Date.parse(clash.body.data.nextFreeStart)).toBe(first.body.furnaceEnd)
+    // The furnace frees at a moment with milliseconds; the offer is the next whole second, so it books as typed.
+    const offered = clash.body.data.nextFreeStart as string
+    expect(Date.parse(offered)).toBe(Math.ceil(first.body.furnaceEnd / 1000) * 1000)
+    expect(offered).toMatch(/:\d\d\.000Z$/)
+    expect(clash.body.data.problems).toEqual([{ field: 'plannedCharge', message: `${line.furnace.name} is taken by ${first.body.loadNumber}; the next free charge time is ${offered.slice(0, 19).replace('T', ' ')} UTC` }])
     const retry = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, Date.parse(clash.body.data.nextFreeStart)) })
     expect(retry.status).toBe(201)
   })
@@ -88,7 +92,8 @@ describe('booking', () => {
     expect(second.status).toBe(409)
     expect(second.body.data.collidesWith).toMatchObject({ loadNumber: first.body.loadNumber, resource: 'station' })
     // The bath must start when the first bath ends: start = bath end − (furnace time + transfer).
-    expect(Date.parse(second.body.data.nextFreeStart)).toBe(first.body.quenchEnd - (first.body.quenchStart - first.body.furnaceStart))
+    const firstFreeCharge = first.body.quenchEnd - (first.body.quenchStart - first.body.furnaceStart)
+    expect(Date.parse(second.body.data.nextFreeStart)).toBe(Math.ceil(firstFreeCharge / 1000) * 1000)
   })
 
   it('400 naming each missing or wrong field, 422 for a station that does not serve the furnace, 403 for operators', async () => {
@@ -102,6 +107,69 @@ describe('booking', () => {
     expect(wrong.status).toBe(422)
     expect(wrong.body.data.problems[0].field).toBe('stationId')
     expect((await operator.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, a, futureDay()) })).status).toBe(403)
+  })
+})
+
+describe('bookings the floor can run', () => {
+  it('refuses a station that does not hold the plan\'s quench medium, naming both, and writes nothing', async () => {
+    const line = await createLine(admin, 'Kind', 'polymer')
+    const oil = (await metallurgist.request(`/api/quenchants/${lib.oilId}`)).body as { name: string }
+    const at = futureDay()
+    const refused = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, at) })
+    expect(refused.status).toBe(422)
+    expect(refused.body.statusMessage).toBe('Quench station does not fit the plan')
+    expect(refused.body.data.problems).toEqual([{ field: 'stationId', message: `${line.station.name} is a polymer solution station; the plan quenches in ${oil.name} (oil)` }])
+    const none = await qa.request(`/api/batches?from=${new Date(at - HOUR).toISOString()}&to=${new Date(at + 24 * HOUR).toISOString()}&furnaceId=${line.furnace.id}`)
+    expect(none.body.batches).toEqual([])
+  })
+
+  it('the booking form\'s plan list marks each plan\'s latest revision and names its quench medium', async () => {
+    const plan = await savePlan(metallurgist, pinSpec(lib))
+    const revised = await metallurgist.request(`/api/plans/${plan.planId}/revisions`, { method: 'POST', body: { ...pinSpec(lib), note: 'Longer soak' } })
+    expect(revised.status).toBe(201)
+    const options = (await metallurgist.request('/api/schedule/plan-revisions')).body as { planRevisionId: number; revision: number; latest: boolean; quenchKind: string }[]
+    const mine = options.filter((o) => o.planRevisionId === plan.planRevisionId || o.planRevisionId === revised.body.planRevisionId)
+    expect(mine.map((o) => [o.revision, o.latest, o.quenchKind])).toEqual([[2, true, 'oil'], [1, false, 'oil']])
+  })
+
+  it('moves a booked load to another time and furnace with the same checks; a charged load no longer moves', async () => {
+    const line = await createLine(admin, 'Move')
+    const other = await createLine(admin, 'Move')
+    const charge = futureDay()
+    const a = (await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, 'Move A') })).body
+    const b = (await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge + 6 * HOUR, 'Move B') })).body
+    const place = (target: typeof line, at: number) => ({
+      furnaceId: target.furnace.id,
+      stationId: target.station.id,
+      plannedCharge: new Date(at).toISOString(),
+    })
+
+    // Onto B's time on the same line: refused like a booking, with a whole-second offer after B.
+    const clash = await metallurgist.request(`/api/batches/${a.id}`, { method: 'PATCH', body: place(line, charge + 6 * HOUR + 60_000) })
+    expect(clash.status).toBe(409)
+    expect(clash.body.data.collidesWith.loadNumber).toBe(b.loadNumber)
+    expect(Date.parse(clash.body.data.nextFreeStart)).toBe(Math.ceil(b.furnaceEnd / 1000) * 1000)
+    // A move within its own old slot never collides with itself.
+    const later = await metallurgist.request(`/api/batches/${a.id}`, { method: 'PATCH', body: place(line, charge + 10 * 60_000) })
+    expect(later.status).toBe(200)
+    expect(later.body).toMatchObject({ id: a.id, loadNumber: a.loadNumber, plannedCharge: charge + 10 * 60_000, furnaceStart: charge + 10 * 60_000 })
+    expect(later.body.furnaceEnd - later.body.furnaceStart).toBe(a.furnaceEnd - a.furnaceStart)
+
+    const moved = await metallurgist.request(`/api/batches/${a.id}`, { method: 'PATCH', body: place(other, charge + HOUR) })
+    expect(moved.status).toBe(200)
+    expect(moved.body).toMatchObject({ furnaceId: other.furnace.id, stationId: other.station.id, furnaceStart: charge + HOUR })
+    const audit = await auditFor(admin, 'batch', a.id)
+    expect(audit[0]).toMatchObject({ action: 'batch.move', details: { loadNumber: a.loadNumber, to: { furnace: other.furnace.name, station: other.station.name, plannedCharge: new Date(charge + HOUR).toISOString() } } })
+
+    expect((await operator.request(`/api/batches/${a.id}`, { method: 'PATCH', body: place(line, charge) })).status).toBe(403)
+    const bad = await metallurgist.request(`/api/batches/${a.id}`, { method: 'PATCH', body: { furnaceId: other.furnace.id, stationId: other.station.id, plannedCharge: 'soon' } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems.map((p: { field: string }) => p.field)).toEqual(['plannedCharge'])
+    expect((await move(operator, b.id, 'charged')).status).toBe(201)
+    const charged = await metallurgist.request(`/api/batches/${b.id}`, { method: 'PATCH', body: place(other, charge + 9 * HOUR) })
+    expect(charged.status).toBe(409)
+    expect(charged.body.statusMessage).toBe(`Only a booked load can be moved; ${b.loadNumber} is In furnace`)
+    expect((await metallurgist.request('/api/batches/99999999', { method: 'PATCH', body: place(other, charge) })).status).toBe(404)
   })
 })
 
@@ -129,9 +197,10 @@ describe('state moves on the floor', () => {
     const skipped = await moveBooked(operator, 'quenched')
     expect(skipped.status).toBe(409)
     expect(skipped.body.data).toEqual({ currentState: 'planned', requestedState: 'quenched' })
-    expect(skipped.body.statusMessage).toContain('(planned)')
-    expect(skipped.body.statusMessage).toContain('(quenched)')
-    expect((await moveBooked(metallurgist, 'charged')).status).toBe(403)
+    expect(skipped.body.statusMessage).toBe('The load is Booked; it cannot move to Quenching')
+    const watcher = await moveBooked(metallurgist, 'charged')
+    expect(watcher.status).toBe(403)
+    expect(watcher.body.statusMessage).toBe('The Metallurgist role cannot record In furnace')
     expect((await moveBooked(qa, 'charged')).status).toBe(403)
     expect((await moveBooked(operator, 'cancelled')).status).toBe(403)
 

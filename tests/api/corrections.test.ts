@@ -37,7 +37,7 @@ afterAll(async () => {
 })
 
 async function bookNow() {
-  const line = await createLine(admin, 'Cor')
+  const line = await createLine(admin, 'Cor', 'water')
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-COR') })
   expect(booked.status).toBe(201)
   return booked.body.id as number
@@ -199,6 +199,6 @@ describe('the record of a load with an early tap, a correction and no door tap',
     const charged = events.find((e) => e.toState === 'charged')!
     const refused = await correct(metallurgist, batchId, charged.id, { at: charged.at, reason: 'After sign-off' })
     expect(refused.status).toBe(409)
-    expect(refused.body.statusMessage).toBe('The cooldown record of this load is approved; its batch takes no more events')
+    expect(refused.body.statusMessage).toBe('The cooldown record of this load is approved; the load takes no more events')
   })
 })

@@ -8,6 +8,8 @@ import { anonymous, signInDemo, type Client } from '../support/http'
 import { createLibraryFixture, type LibraryFixture } from '../support/library'
 import { bisect } from '../support/bisect'
 import { auditFor } from '../support/audit'
+import { savePlan, pinSpec } from '../support/plans'
+import { booking, createLine } from '../support/schedule'
 
 let metallurgist: Client
 let lib: LibraryFixture
@@ -176,6 +178,42 @@ describe('plans: compute and save', () => {
     expect(check.status).toBe(200)
     expect(check.body.maxDifference_K).toBeGreaterThan(0)
     expect(check.body.maxDifference_K).toBeLessThan(0.05)
+  })
+})
+
+describe('plans: search, filter and archive', () => {
+  it('finds a plan by part of its name or material and by shape; archiving hides it from the list and the booking form, keeps it readable and its booked load intact', async () => {
+    const admin = await signInDemo('admin')
+    const plan = await savePlan(metallurgist, pinSpec(lib))
+    const detail = (await metallurgist.request(`/api/plans/${plan.planId}`)).body as { name: string }
+    const line = await createLine(admin, 'Archive')
+    const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.UTC(2033, 5, 1) + Math.floor(Math.random() * 1e6) * 60_000, 'Archive check') })
+    expect(booked.status).toBe(201)
+    const ids = async (query: string) => ((await metallurgist.request(`/api/plans${query}`)).body as { id: number }[]).map((p) => p.id)
+
+    const token = detail.name.split(' ').at(-1)!
+    expect(await ids(`?q=${encodeURIComponent(token.toUpperCase())}`)).toEqual([plan.planId])
+    expect(await ids(`?q=${encodeURIComponent(token)}&shape=round-bar`)).toEqual([plan.planId])
+    expect(await ids(`?q=${encodeURIComponent(token)}&shape=plate`)).toEqual([])
+
+    const archived = await metallurgist.request(`/api/plans/${plan.planId}/archive`, { method: 'POST', body: { archived: true } })
+    expect(archived.status).toBe(200)
+    expect(await ids(`?q=${encodeURIComponent(token)}`)).toEqual([])
+    expect(await ids(`?q=${encodeURIComponent(token)}&archived=true`)).toEqual([plan.planId])
+    const options = (await metallurgist.request('/api/schedule/plan-revisions')).body as { planRevisionId: number }[]
+    expect(options.some((o) => o.planRevisionId === plan.planRevisionId)).toBe(false)
+    expect((await metallurgist.request(`/api/plans/${plan.planId}`)).status).toBe(200)
+    expect((await metallurgist.request(`/api/batches/${booked.body.id}`)).body).toMatchObject({ planRevisionId: plan.planRevisionId, state: 'planned' })
+    expect((await auditFor(admin, 'plan', plan.planId))[0]).toMatchObject({ action: 'plan.archive', details: { name: detail.name } })
+
+    expect((await metallurgist.request(`/api/plans/${plan.planId}/archive`, { method: 'POST', body: { archived: false } })).status).toBe(200)
+    expect(await ids(`?q=${encodeURIComponent(token)}`)).toEqual([plan.planId])
+    expect((await (await signInDemo('operator')).request(`/api/plans/${plan.planId}/archive`, { method: 'POST', body: { archived: true } })).status).toBe(403)
+    const bad = await metallurgist.request(`/api/plans/${plan.planId}/archive`, { method: 'POST', body: { archived: 'yes' } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems).toEqual([{ field: 'archived', message: 'Archived must be true or false' }])
+    expect((await metallurgist.request('/api/plans?shape=cube')).status).toBe(400)
+    expect((await metallurgist.request('/api/plans/99999999/archive', { method: 'POST', body: { archived: true } })).status).toBe(404)
   })
 })
 

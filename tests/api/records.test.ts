@@ -250,7 +250,7 @@ describe('sign-off', () => {
     const former = (await signInAs(switcher.email, switcher.password))!
     const refused = await former.request(`/api/records/${lateRecord.id}/approve`, { method: 'POST', body: {} })
     expect(refused.status).toBe(403)
-    expect(refused.body.statusMessage).toBe('You recorded events on this load (In furnace, Holding at heat, Out of the furnace, In the bath, Handed on); another QA lead must sign its record')
+    expect(refused.body.statusMessage).toBe('You recorded events on this load (In furnace, Holding at heat, Out of the furnace, Quenching, Released); another QA lead must sign its record')
     const view = (await former.request(`/api/records/${lateRecord.id}`)).body
     expect(view.canSign).toEqual({ ok: false, reason: refused.body.statusMessage })
     expect((await qa.request(`/api/records/${lateRecord.id}`)).body.canSign).toEqual({ ok: true, reason: null })
@@ -276,7 +276,7 @@ describe('sign-off', () => {
     // The batch of a signed record takes no more events, not even a repeated tap.
     const tap = await move(operator, clean.batchId, 'released')
     expect(tap.status).toBe(409)
-    expect(tap.body.statusMessage).toBe('The cooldown record of this load is approved; its batch takes no more events')
+    expect(tap.body.statusMessage).toBe('The cooldown record of this load is approved; the load takes no more events')
     expect((await metallurgist.request(`/api/batches/${clean.batchId}/events`, { method: 'POST', body: { to: 'cancelled' } })).status).toBe(409)
   })
 

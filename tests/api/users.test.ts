@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { anonymous, signInAs, signInDemo, type Client } from '../support/http'
+import { anonymous, demoUser, signInAs, signInDemo, type Client } from '../support/http'
 import { auditFor } from '../support/audit'
 
 let admin: Client
@@ -28,6 +28,27 @@ describe('role matrix for the admin routes', () => {
   it('the audit trail is open to qa and closed to operators', async () => {
     expect((await (await signInDemo('qa')).request('/api/audit')).status).toBe(200)
     expect((await (await signInDemo('operator')).request('/api/audit')).status).toBe(403)
+    expect((await (await signInDemo('operator')).request('/api/audit/people')).status).toBe(403)
+  })
+})
+
+describe('the audit trail, readable and filtered', () => {
+  it('filters by person, kind and day, and names the person an entry is about', async () => {
+    const qa = await signInDemo('qa')
+    const email = `audit.subject.${Date.now()}@kestrelbay.example`
+    const created = await admin.request('/api/users', { method: 'POST', body: { email, displayName: 'Audit Subject', role: 'operator', password: 'long-enough-pw' } })
+    expect(created.status).toBe(201)
+    const people = (await qa.request('/api/audit/people')).body as { id: number; name: string }[]
+    const adminId = people.find((p) => p.name === demoUser('admin').displayName)!.id
+    const today = new Date().toISOString().slice(0, 10)
+    const mine = (await qa.request(`/api/audit?actorId=${adminId}&entityType=user&from=${today}&to=${today}&limit=500`)).body as { actorId: number; entityType: string; at: string; entityId: string; entityName: string | null; action: string }[]
+    expect(mine.length).toBeGreaterThan(0)
+    expect(mine.every((e) => e.actorId === adminId && e.entityType === 'user' && e.at.startsWith(today))).toBe(true)
+    expect(mine.find((e) => e.entityId === String(created.body.id) && e.action === 'user.create')!.entityName).toBe('Audit Subject')
+    expect((await qa.request('/api/audit?from=2000-01-01&to=2000-01-02')).body).toEqual([])
+    const bad = await qa.request('/api/audit?from=yesterday')
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems).toEqual([{ field: 'from', message: 'From must be a date (YYYY-MM-DD)' }])
   })
 })
 

@@ -50,9 +50,9 @@ const waitForState = (page: Page, loadNumber: string, state: string) =>
   page.waitForFunction(([id, s]) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === s, [loadNumber, state])
 
 /** Saves the plan through the planner, then books it on a line of its own, due in ten minutes. */
-async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib)) {
+async function bookOnNewLine(spec: PlanSpecInput = pinSpec(lib), stationKind = 'oil') {
   const plan = await savePlan(metallurgist, spec)
-  const line = await createLine(admin, 'Floor')
+  const line = await createLine(admin, 'Floor', stationKind)
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 10 * 60_000, 'Floor run') })
   expect(booked.status).toBe(201)
   return { plan, line, batch: booked.body as { id: number; loadNumber: string } }
@@ -119,7 +119,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
   })
 
   it('a thin sheet reaches handling temperature within seconds: the card turns safe to handle and is handed on', async () => {
-    const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib))
+    const { plan, line, batch } = await bookOnNewLine(thinSheetSpec(lib), 'water')
     expect(plan.summary.quenchToHandling_s).toBeCloseTo(runCase(THIN_SHEET_QUENCH_CASE).targetTime_s!, 6)
     expect(plan.summary.slowEndToHandling_s).toBeCloseTo(runCase(THIN_SHEET_SLOW_END_CASE).targetTime_s!, 6)
     expect(plan.summary.slowEndToHandling_s).toBeLessThan(10)
@@ -138,7 +138,7 @@ describe('the floor countdown on a 1280×800 tablet', () => {
     await page.waitForFunction((id) => document.querySelector(`[data-testid="card-${id}"]`)?.getAttribute('data-state') === 'ready', batch.loadNumber, { timeout: 15_000 })
     expect(await card.getByTestId('card-state').textContent()).toContain('Safe to handle')
     await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-ready.png` })
-    await tapAndConfirm(page, card, 'Hand on')
+    await tapAndConfirm(page, card, 'Release')
     await card.waitFor({ state: 'detached' })
     const events = (await admin.request(`/api/batches/${batch.id}`)).body.events.map((e: { toState: string; actorName: string | null }) => [e.toState, e.actorName])
     expect(events).toEqual([

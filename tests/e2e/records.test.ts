@@ -39,7 +39,10 @@ describe('signing a record from the e-mailed link', () => {
     const events = await page.getByTestId('record-events').locator('tbody tr').evaluateAll((rows) => rows.map((row) => row.getAttribute('data-type')))
     expect(events).toEqual(['charged', 'soaking', 'furnace_opened', 'quenched', 'cooling', 'ready_to_handle', 'released'])
 
+    // Approving signs for good: the first tap only asks for confirmation.
     await page.getByRole('button', { name: 'Approve record' }).click()
+    expect(await page.getByTestId('record-state').textContent()).toBe('Waiting for sign-off')
+    await page.getByRole('button', { name: 'Confirm: approve and sign' }).click()
     await page.getByRole('status').filter({ hasText: 'Record approved.' }).waitFor()
     expect((await page.getByTestId('sign-off-state').textContent())!.trim()).toBe(`Approved by ${user.displayName}`)
     expect(await page.getByTestId('record-state').textContent()).toBe('Approved')
@@ -58,14 +61,31 @@ describe('signing a record from the e-mailed link', () => {
     await page.locator(`tr[data-load="${released.loadNumber}"]`).waitFor({ state: 'detached' })
     await page.context().close()
   })
+
+  it('rejecting without a comment shows the field’s own message and no generic banner; nothing is signed', async () => {
+    const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+    const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
+    const released = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, plan, 2500)
+    const listed = (await qa.request('/api/records?state=unsigned&limit=500')).body as { id: number; loadNumber: string }[]
+    const recordId = listed.find((r) => r.loadNumber === released.loadNumber)!.id
+    const path = `/records/${recordId}`
+    const page = await browser.tabletPage()
+    await signInThroughPage(page, 'qa', path)
+    await page.getByRole('button', { name: 'Reject record' }).click()
+    await expect(page.getByTestId('sign-off').locator('.field-error').textContent()).resolves.toBe('A rejection needs a comment saying why')
+    expect(await page.getByTestId('sign-off').getByRole('alert').count()).toBe(0)
+    expect((await qa.request(`/api/records/${recordId}`)).body.state).toBe('unsigned')
+    await page.context().close()
+  })
 })
 
 describe('the record of a load with an early tap, a correction and no door tap', () => {
   it('desktop: a metallurgist corrects core at heat on the record; tablet: QA reads recorded and predicted moments apart, to the second', async () => {
     const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
     const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
-    const line = await createLine(admin, 'Truth')
+    const line = await createLine(admin, 'Truth', 'water')
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-TRUTH') })
+    expect(booked.status).toBe(201)
     const batchId = booked.body.id
     await move(operator, batchId, 'charged')
     // Core at heat tapped at once, confirmed early; the door tap is missed.

@@ -17,13 +17,22 @@ async function launchBrowser(): Promise<Browser> {
   })
 }
 
+/** The viewports the product is used at: the shop-floor tablet (landscape), an office desktop, a phone. */
+export const VIEWPORTS = {
+  tablet: { width: 1280, height: 800 },
+  desktop: { width: 1920, height: 1080 },
+  phone: { width: 375, height: 812 },
+} as const
+export type ViewportName = keyof typeof VIEWPORTS
+
 /**
  * One browser for a test file: launched before its tests, closed after them. Call it at
  * the top level of the file; each `tabletPage()` is a fresh 1280×800 landscape page
  * (the shop-floor tablet size) and each `desktopPage()` a 1920×1080 one, in a context of
- * its own, so sign-ins never leak between tests.
+ * its own, so sign-ins never leak between tests; `pageAt(viewport)` does the same at any
+ * of the VIEWPORTS (the phone too).
  */
-export function useBrowser(): { tabletPage: () => Promise<Page>; desktopPage: () => Promise<Page> } {
+export function useBrowser(): { tabletPage: () => Promise<Page>; desktopPage: () => Promise<Page>; pageAt: (viewport: ViewportName) => Promise<Page> } {
   let browser: Browser | undefined
   beforeAll(async () => {
     browser = await launchBrowser()
@@ -31,12 +40,22 @@ export function useBrowser(): { tabletPage: () => Promise<Page>; desktopPage: ()
   afterAll(async () => {
     await browser?.close()
   })
-  async function pageOf(width: number, height: number) {
+  async function pageAt(viewport: ViewportName) {
     if (!browser) throw new Error('no browser: call useBrowser() at the top level of the test file')
-    const context = await browser.newContext({ viewport: { width, height }, baseURL: BASE_URL })
+    const context = await browser.newContext({ viewport: VIEWPORTS[viewport], baseURL: BASE_URL, isMobile: viewport === 'phone', hasTouch: viewport === 'phone' })
     return context.newPage()
   }
-  return { tabletPage: () => pageOf(1280, 800), desktopPage: () => pageOf(1920, 1080) }
+  return { tabletPage: () => pageAt('tablet'), desktopPage: () => pageAt('desktop'), pageAt }
+}
+
+/** Collects what the page reports as errors (console errors, hydration mismatches, uncaught exceptions) from now on. */
+export function watchConsoleErrors(page: Page): string[] {
+  const errors: string[] = []
+  page.on('console', (message) => {
+    if (message.type() === 'error') errors.push(message.text())
+  })
+  page.on('pageerror', (error) => errors.push(error.message))
+  return errors
 }
 
 export async function signInThroughPage(page: Page, role: Role, next = '/'): Promise<void> {

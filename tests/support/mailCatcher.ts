@@ -71,8 +71,13 @@ export async function clearCaughtMail(): Promise<void> {
   await fetch(`${MAIL_API}/api/email/all`, { method: 'DELETE' })
 }
 
+/**
+ * An attachment's bytes. Under load maildev has answered 500 for an attachment of a message
+ * it had just listed, then served it moments later, so a refusal is asked again for up to 10 s.
+ */
 export async function caughtAttachment(mail: CaughtMail, generatedFileName: string): Promise<Buffer> {
-  const response = await fetch(`${MAIL_API}/api/email/${mail.id}/attachment/${generatedFileName}`)
+  const read = () => fetch(`${MAIL_API}/api/email/${mail.id}/attachment/${generatedFileName}`)
+  const response = await until(read, (answer) => answer.ok, 10, `attachment ${generatedFileName} served`).catch(() => read())
   if (!response.ok) throw new Error(`attachment ${generatedFileName}: ${response.status}`)
   return Buffer.from(await response.arrayBuffer())
 }

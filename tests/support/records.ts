@@ -53,7 +53,7 @@ export async function releaseLoad(
   run: FloorRun = {},
 ): Promise<Released> {
   const { admin, metallurgist, recorder, reader } = clients
-  const line = await createLine(admin, 'Rec')
+  const line = await createLine(admin, 'Rec', 'water')
   const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-REC') })
   expect(booked.status).toBe(201)
   const batchId = booked.body.id

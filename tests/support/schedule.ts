@@ -1,10 +1,13 @@
 import type { Client } from './http'
 
 let counter = 0
-/** A furnace served by a station of its own, both with unique names, created through the admin API. */
-export async function createLine(admin: Client, label = 'Test') {
+/**
+ * A furnace served by a station of its own, both with unique names, created through the
+ * admin API. The station holds `kind`: oil for the pin plan, water for the thin sheet.
+ */
+export async function createLine(admin: Client, label = 'Test', kind = 'oil') {
   const tag = `${label} ${Date.now().toString(36)}${(counter += 1)}`
-  const station = await admin.request('/api/quench-stations', { method: 'POST', body: { name: `${tag} tank`, kind: 'oil', maxTemp_C: 90, capacity_kg: 3000 } })
+  const station = await admin.request('/api/quench-stations', { method: 'POST', body: { name: `${tag} tank`, kind, maxTemp_C: 90, capacity_kg: 3000 } })
   if (station.status !== 201) throw new Error(`station: ${JSON.stringify(station.body)}`)
   const furnace = await admin.request('/api/furnaces', {
     method: 'POST',

@@ -26,7 +26,7 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/users', via: 'components/shift/ShiftAdminPanel.vue', when: 'admin' },
     { call: 'GET /api/furnaces', via: 'components/shift/ShiftAdminPanel.vue', when: 'admin' },
   ],
-  'pages/plans/index.vue': [{ call: 'GET /api/plans' }],
+  'pages/plans/index.vue': [{ call: 'GET /api/plans' }, { call: 'POST /api/plans/[id]/archive', when: 'plans.edit' }],
   'pages/plans/new.vue': [
     { call: 'POST /api/plans' },
     { call: 'GET /api/plans/library', via: 'components/plan/PlanEditor.vue' },
@@ -51,8 +51,17 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/batches' },
     { call: 'GET /api/schedule/plan-revisions', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
     { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'PATCH /api/batches/[id]', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
   ],
-  'pages/schedule/[id].vue': [{ call: 'GET /api/batches/[id]' }, { call: 'POST /api/batches/[id]/events', when: 'schedule.book' }],
+  'pages/schedule/[id].vue': [
+    { call: 'GET /api/batches/[id]' },
+    { call: 'POST /api/batches/[id]/events', when: 'schedule.book' },
+    { call: 'GET /api/furnaces' },
+    { call: 'GET /api/quench-stations' },
+    { call: 'GET /api/schedule/plan-revisions', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'PATCH /api/batches/[id]', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+  ],
   'pages/floor.vue': [
     { call: 'GET /api/furnaces' },
     { call: 'GET /api/floor' },
@@ -93,7 +102,14 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'PATCH /api/users/[id]' },
     { call: 'POST /api/users', via: 'components/admin/AdminUserForm.vue' },
   ],
-  'pages/admin/audit.vue': [{ call: 'GET /api/audit' }],
+  'pages/logs/index.vue': [
+    { call: 'GET /api/logs' },
+    { call: 'POST /api/logs/preview', via: 'components/log/LogUploadForm.vue', when: 'logs.upload' },
+    { call: 'POST /api/logs', via: 'components/log/LogUploadForm.vue', when: 'logs.upload' },
+  ],
+  'pages/logs/[id].vue': [{ call: 'GET /api/logs/[id]' }, { call: 'GET /api/logs/[id]/file' }],
+  'pages/calibration.vue': [{ call: 'GET /api/logs' }, { call: 'POST /api/calibrations/fit', via: 'composables/useCalibrationFit.ts' }],
+  'pages/admin/audit.vue': [{ call: 'GET /api/audit' }, { call: 'GET /api/audit/people' }],
   'pages/admin/outbox.vue': [{ call: 'GET /api/outbox' }, { call: 'POST /api/outbox/[id]/retry' }, { call: 'POST /api/outbox/test-sheet' }],
   'pages/admin/mail-recipients.vue': [{ call: 'GET /api/mail-recipients' }, { call: 'PUT /api/mail-recipients/[kind]' }],
 }

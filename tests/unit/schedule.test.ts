@@ -3,6 +3,7 @@ import { runCase } from '../../server/thermal/runCase'
 import { pointValue } from '../../shared/pointSeries'
 import { floorCountdown } from '../../shared/floorCountdown'
 import {
+  BATCH_STATE_LABELS,
   DEFAULT_SHOP_SETTINGS,
   checkMove,
   deriveSlots,
@@ -114,7 +115,7 @@ describe('state moves', () => {
     if (expected === 'ok') expect(verdict).toEqual({ ok: true })
     else {
       expect(verdict).toMatchObject({ ok: false, status: expected })
-      if (expected === 409 && !['cooling', 'ready', 'planned'].includes(to)) expect(!verdict.ok && verdict.message).toContain(`(${from})`)
+      if (expected === 409 && !['cooling', 'ready', 'planned'].includes(to)) expect(!verdict.ok && verdict.message).toBe(`The load is ${BATCH_STATE_LABELS[from]}; it cannot move to ${BATCH_STATE_LABELS[to]}`)
     }
   })
 
@@ -128,6 +129,8 @@ describe('state moves', () => {
 })
 
 describe('overlap and the next free start', () => {
+  /** Times are epoch ms; the offers are whole seconds. */
+  const S = 1000
   it.each([
     [{ start: 0, end: 10 }, { start: 10, end: 20 }, false],
     [{ start: 0, end: 10 }, { start: 9, end: 20 }, true],
@@ -139,17 +142,23 @@ describe('overlap and the next free start', () => {
   })
 
   it('a free request keeps its start', () => {
-    expect(nextFreeStart(100, 50, 60, 10, [{ start: 0, end: 100 }], [])).toBe(100)
+    expect(nextFreeStart(100 * S, 50 * S, 60 * S, 10 * S, [{ start: 0, end: 100 * S }], [])).toBe(100 * S)
   })
   it('after a furnace booking: starts when it ends', () => {
-    expect(nextFreeStart(100, 50, 60, 10, [{ start: 80, end: 130 }], [])).toBe(130)
+    expect(nextFreeStart(100 * S, 50 * S, 60 * S, 10 * S, [{ start: 80 * S, end: 130 * S }], [])).toBe(130 * S)
   })
   it('skips a gap too short for the furnace time', () => {
-    expect(nextFreeStart(0, 50, 60, 10, [{ start: 10, end: 40 }, { start: 70, end: 200 }], [])).toBe(200)
+    expect(nextFreeStart(0, 50 * S, 60 * S, 10 * S, [{ start: 10 * S, end: 40 * S }, { start: 70 * S, end: 200 * S }], [])).toBe(200 * S)
   })
   it('the station decides when its bath slot is taken: start = station end − offset', () => {
     // furnace free; bath wanted at t+60 for 10, station busy 150–190 → t = 130 puts the bath at 190.
-    expect(nextFreeStart(100, 50, 60, 10, [], [{ start: 150, end: 190 }])).toBe(130)
+    expect(nextFreeStart(100 * S, 50 * S, 60 * S, 10 * S, [], [{ start: 150 * S, end: 190 * S }])).toBe(130 * S)
+  })
+  it('offers whole seconds: a busy end at 15:58:12.421 gives 15:58:13.000, and that start is free', () => {
+    const end = Date.parse('2026-12-03T15:58:12.421Z')
+    const offered = nextFreeStart(end - 60 * S, 30 * S, 40 * S, 10 * S, [{ start: end - 100 * S, end }], [])
+    expect(new Date(offered).toISOString()).toBe('2026-12-03T15:58:13.000Z')
+    expect(overlaps({ start: offered, end: offered + 30 * S }, { start: end - 100 * S, end })).toBe(false)
   })
   it('load numbers are prefix-year-five digits', () => {
     expect(loadNumber('KB', 2026, 42)).toBe('KB-2026-00042')

@@ -1,6 +1,6 @@
 import { getBatch } from '../../schedule/batchReads'
 
-const Params = idParams('Batch')
+const Params = idParams('Load')
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'schedule.read')

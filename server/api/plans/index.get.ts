@@ -1,6 +1,7 @@
+import { planListQuerySchema } from '../../../shared/schemas/plan'
 import { listPlans } from '../../planning/plans'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'plans.read')
-  return await listPlans()
+  return await listPlans(queryValid(event, planListQuerySchema))
 })

@@ -61,7 +61,7 @@ export async function seedDemoSchedule(db: Database, recordConfig: RecordConfig 
   for (const f of [
     { name: 'Bay 1 box furnace', kind: 'box' as const, maxTemp_C: 1100, capacity_kg: 800, zoneWidth_mm: 900, zoneDepth_mm: 1200, zoneHeight_mm: 700 },
     { name: 'Bay 2 pit furnace', kind: 'pit' as const, maxTemp_C: 1000, capacity_kg: 2500, zoneWidth_mm: 1000, zoneDepth_mm: 1000, zoneHeight_mm: 2400 },
-    { name: 'Bay 3 car-bottom', kind: 'car-bottom' as const, maxTemp_C: 1150, capacity_kg: 6000, zoneWidth_mm: 1800, zoneDepth_mm: 3000, zoneHeight_mm: 1200 },
+    { name: 'Bay 3 car bottom furnace', kind: 'car-bottom' as const, maxTemp_C: 1150, capacity_kg: 6000, zoneWidth_mm: 1800, zoneDepth_mm: 3000, zoneHeight_mm: 1200 },
   ]) {
     const [{ id }] = await db.insert(furnaces).values(f).$returningId()
     furnaceIds.push(id)

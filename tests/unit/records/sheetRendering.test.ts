@@ -4,7 +4,7 @@ import { sampleHoldTimeSheet } from '../../../server/records/sampleSheet'
 import { CURVE_CSV_HEADER, renderCurveCsv } from '../../../server/records/sheetCsv'
 import { escapeHtml, renderSheetHtml, renderSheetText } from '../../../server/records/sheetHtml'
 import { renderSheetPdf } from '../../../server/records/sheetPdf'
-import { pdfText } from '../../support/pdfText'
+import { MISSING_GLYPH, pdfEmbeddedFonts, pdfText } from '../../support/pdfText'
 
 const sheet = sampleHoldTimeSheet({ loadNumber: 'KB-24-0117', shopName: 'Kestrel Bay Heat Treat', now: new Date('2026-03-04T10:00:00Z') })
 
@@ -113,6 +113,18 @@ describe('renderSheetPdf', () => {
     expect(text).toContain('•  Quench delay 52 s from the furnace door opening to the quench, 22 s over the allowed 30 s.')
     expect(text.join(' ')).toContain('Parts stay hot long after they look cool')
     expect(text).toContain('handling 120 °C at 16 min 20 s')
+  })
+
+  it('embeds IBM Plex Sans and prints every character it is given, ≤ and ≥ included', async () => {
+    // A material name as a metallurgist might type it: the PDF standard fonts (WinAnsi) have no ≤, ≥ or Ł.
+    const material = 'Mn ≤ 1 %, core ≥ 850 °C ± 5 — grain 12 µm · Łódź'
+    const pdf = await renderSheetPdf({ ...sheet, material }, { compress: false })
+    const text = pdfText(pdf)
+    expect(text).toContain(material)
+    expect(text.join('\n')).not.toContain(MISSING_GLYPH)
+    // Plex for what its subsets hold (regular, and semibold for headings); DejaVu Sans only for ≤ and ≥.
+    expect(pdfEmbeddedFonts(pdf)).toEqual(['DejaVuSans', 'IBMPlexSans-Regular', 'IBMPlexSans-SemiBold'])
+    expect(pdf.toString('latin1')).not.toContain('/BaseFont /Helvetica')
   })
 
   it('draws the curve as vector lines: one segment per point after the first', async () => {

@@ -1,7 +1,7 @@
 import { moveInputSchema } from '../../../../shared/schemas/schedule'
 import { moveBatch } from '../../../schedule/moves'
 
-const Params = idParams('Batch')
+const Params = idParams('Load')
 
 export default defineEventHandler(async (event) => {
   // Which role may record which move depends on the move; moveBatch checks it.
