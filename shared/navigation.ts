@@ -18,6 +18,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/floor', label: 'Floor', hint: 'Live countdowns and one-tap floor events.', capability: 'floor.view' },
   { to: '/records', label: 'Records', hint: 'Cooldown records of released loads, signed off by QA.', capability: 'records.read' },
   { to: '/library/materials', label: 'Materials', hint: 'Thermal properties with their sources.', capability: 'library.read' },
+  { to: '/logs', label: 'Logs', hint: 'Thermocouple logs from probe tests, coupons and loads.', capability: 'logs.read' },
+  { to: '/calibration', label: 'Calibrate', hint: 'Fit a quench medium’s h or h(T) curve to a probe log.', capability: 'media.calibrate' },
   { to: '/library/quenchants', label: 'Quench media', hint: 'Heat-transfer coefficients, their spread and bath temperatures.', capability: 'library.read' },
   { to: '/admin/furnaces', label: 'Furnaces', hint: 'Furnaces, quench stations and shop settings.', capability: 'equipment.manage' },
   { to: '/admin/users', label: 'People', hint: 'Who may sign in, in which role.', capability: 'people.manage' },

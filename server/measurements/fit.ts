@@ -22,6 +22,7 @@ import { forwardTemperatures, type SurfaceTrial } from './forwardModel'
 import { levenbergMarquardt } from './levenbergMarquardt'
 import { parseFit, type FitCase } from './fitSchema'
 import { GEOMETRY_EXPONENT } from '../thermal/types'
+import type { CalibrationKnot, CalibrationProgress, CalibrationRatePoint, CalibrationResult } from '../../shared/types/calibration'
 
 /** Weight of the smoothness rows, K per unit second difference of ln h. */
 export const PENALTY_K = 0.3
@@ -30,36 +31,10 @@ export const MAX_RELATIVE_UNCERTAINTY = 0.5
 /** Half-width, in log points, of the centred differences of the cooling-rate curves. */
 const RATE_HALF_WINDOW = 2
 
-export interface KnotResult {
-  T_C: number
-  h: number
-  /** Standard uncertainty of h, W/m²K; null where the log does not determine the knot. */
-  uncertainty: number | null
-  /** Logged points with the surface near this knot (hat-weighted). */
-  points: number
-  determined: boolean
-}
-
-export interface RatePoint {
-  T_C: number
-  /** −dT/dt, K/s (positive while cooling). */
-  rate_K_s: number
-}
-
-export interface FitResult {
-  model: 'constant' | 'curve'
-  /** The constant model's h and its standard uncertainty. */
-  h?: { value: number; uncertainty: number }
-  hCurve?: KnotResult[]
-  rms_K: number
-  maxAbs_K: number
-  points: number
-  iterations: number
-  converged: boolean
-  series: { t_s: number[]; measured_C: number[]; fitted_C: number[]; surface_C: number[] }
-  coolingRate: { measured: RatePoint[]; fitted: RatePoint[] }
-  warnings: string[]
-}
+export type KnotResult = CalibrationKnot
+export type RatePoint = CalibrationRatePoint
+export type FitResult = CalibrationResult
+export type FitProgress = CalibrationProgress
 
 function trialOf(fc: FitCase, p: number[]): SurfaceTrial {
   if (fc.model.kind === 'constant') return { h_W_m2K: Math.exp(p[0]) }
@@ -120,8 +95,8 @@ function covariance(J: Matrix, variance: number): Matrix {
   return inv.mul(variance)
 }
 
-/** Fits a validated case. */
-export function fitCase(fc: FitCase): FitResult {
+/** Fits a validated case; `onProgress` hears each accepted step. */
+export function fitCase(fc: FitCase, onProgress?: (progress: FitProgress) => void): FitResult {
   const n = fc.t_s.length
   const knots = fc.model.kind === 'curve' ? fc.model.knots_C : null
   const parameters = knots ? knots.length : 1
@@ -133,7 +108,9 @@ export function fitCase(fc: FitCase): FitResult {
     return r
   }
   const start = Math.log(lumpedGuess(fc))
-  const solved = levenbergMarquardt(residuals, Array.from({ length: parameters }, () => start))
+  // The cost also holds the smoothness rows; close enough to the data misfit for a progress line.
+  const onIteration = onProgress && ((iteration: number, cost: number) => onProgress({ iteration, rms_K: Math.sqrt(cost / n) }))
+  const solved = levenbergMarquardt(residuals, Array.from({ length: parameters }, () => start), { onIteration })
   const p = solved.params
   const final = forwardTemperatures(fc.problem, fc.x, fc.ambient_C, trialOf(fc, p), fc.t_s)
   let squares = 0
@@ -177,6 +154,6 @@ export function fitCase(fc: FitCase): FitResult {
 }
 
 /** Validates and fits a raw input (CLI and API); throws FitError naming a bad field. */
-export function fitCoolingLog(input: unknown): FitResult {
-  return fitCase(parseFit(input))
+export function fitCoolingLog(input: unknown, onProgress?: (progress: FitProgress) => void): FitResult {
+  return fitCase(parseFit(input), onProgress)
 }

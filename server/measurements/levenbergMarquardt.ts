@@ -19,6 +19,8 @@ export interface LeastSquaresOptions {
   maxIterations?: number
   /** Stop when a step lowers the cost by less than this fraction. */
   relativeTolerance?: number
+  /** Told after each accepted step, so a caller can show progress. */
+  onIteration?: (iteration: number, cost: number) => void
 }
 
 export interface LeastSquaresResult {
@@ -74,6 +76,7 @@ export function levenbergMarquardt(residuals: (p: number[]) => Float64Array, sta
         cost = costTrial
         lambda = Math.max(lambda / 3, 1e-9)
         accepted = true
+        options.onIteration?.(iterations, cost)
       } else lambda *= 4
     }
     if (!accepted) {

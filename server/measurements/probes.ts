@@ -16,9 +16,10 @@
  * checked; listed in DEVELOPERS.md under the provenance of numbers.
  */
 import type { CaseInput } from '../thermal/caseSchema'
+import { PROBE_PRESET_LABELS, type ProbePresetId } from '../../shared/probes'
 
 export interface ProbePreset {
-  id: string
+  id: ProbePresetId
   name: string
   geometry: 'rod'
   size_m: number
@@ -45,7 +46,7 @@ const INCONEL_600_TABLE: [number, number, number][] = [
 
 export const ISO_9950_PROBE: ProbePreset = {
   id: 'iso-9950',
-  name: 'Standard nickel-alloy probe (ISO 9950), Ø12.5 × 60 mm, centre thermocouple',
+  name: PROBE_PRESET_LABELS['iso-9950'],
   geometry: 'rod',
   size_m: 0.0125 / 2,
   at: 'centre',

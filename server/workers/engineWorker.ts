@@ -1,7 +1,7 @@
 /**
  * Worker-thread entry for engine jobs (run by the pool in server/workers/jobPool.ts).
  * Each named export is one job. The build bundles this file on its own into
- * .output/server/workers/engineWorker.mjs (modules/engineWorker.ts), so it imports
+ * .output/server/workers/engineWorker.mjs (modules/workerEntries.ts), so it imports
  * only framework-free code: the planning computations and the engine.
  *
  * Errors lose their class crossing threads, so an engine refusal (CaseError) comes

@@ -6,10 +6,10 @@ import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browse
 const browser = useBrowser()
 
 const expectedNavigation: Record<Role, string[]> = {
-  admin: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Records', 'Materials', 'Quench media', 'Furnaces', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
-  metallurgist: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Records', 'Materials', 'Quench media'],
-  operator: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Quench media'],
-  qa: ['Shift overview', 'Plans', 'Schedule', 'Records', 'Materials', 'Quench media', 'Audit trail'],
+  admin: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Records', 'Materials', 'Logs', 'Calibrate', 'Quench media', 'Furnaces', 'People', 'Audit trail', 'Outbox', 'Mail recipients'],
+  metallurgist: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Records', 'Materials', 'Logs', 'Calibrate', 'Quench media'],
+  operator: ['Shift overview', 'Plans', 'Schedule', 'Floor', 'Materials', 'Logs', 'Quench media'],
+  qa: ['Shift overview', 'Plans', 'Schedule', 'Records', 'Materials', 'Logs', 'Quench media', 'Audit trail'],
 }
 
 describe('the signed-in shell', () => {

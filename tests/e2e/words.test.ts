@@ -32,6 +32,8 @@ beforeAll(async () => {
     { path: `/records/${records[0]!.id}`, capability: 'records.read' },
     { path: '/library/materials', capability: 'library.read' },
     { path: '/library/quenchants', capability: 'library.read' },
+    { path: '/logs', capability: 'logs.read' },
+    { path: '/calibration', capability: 'media.calibrate' },
     { path: '/admin/furnaces', capability: 'equipment.manage' },
     { path: '/admin/users', capability: 'people.manage' },
     { path: '/admin/audit', capability: 'audit.read' },

@@ -102,6 +102,13 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'PATCH /api/users/[id]' },
     { call: 'POST /api/users', via: 'components/admin/AdminUserForm.vue' },
   ],
+  'pages/logs/index.vue': [
+    { call: 'GET /api/logs' },
+    { call: 'POST /api/logs/preview', via: 'components/log/LogUploadForm.vue', when: 'logs.upload' },
+    { call: 'POST /api/logs', via: 'components/log/LogUploadForm.vue', when: 'logs.upload' },
+  ],
+  'pages/logs/[id].vue': [{ call: 'GET /api/logs/[id]' }, { call: 'GET /api/logs/[id]/file' }],
+  'pages/calibration.vue': [{ call: 'GET /api/logs' }, { call: 'POST /api/calibrations/fit', via: 'composables/useCalibrationFit.ts' }],
   'pages/admin/audit.vue': [{ call: 'GET /api/audit' }, { call: 'GET /api/audit/people' }],
   'pages/admin/outbox.vue': [{ call: 'GET /api/outbox' }, { call: 'POST /api/outbox/[id]/retry' }, { call: 'POST /api/outbox/test-sheet' }],
   'pages/admin/mail-recipients.vue': [{ call: 'GET /api/mail-recipients' }, { call: 'PUT /api/mail-recipients/[kind]' }],

@@ -6,7 +6,8 @@
  * return h = Bi·k/L.
  */
 import { describe, expect, it } from 'vitest'
-import { fitCoolingLog } from '../../../server/measurements/fit'
+import { fitCase, fitCoolingLog, type FitProgress } from '../../../server/measurements/fit'
+import { parseFit } from '../../../server/measurements/fitSchema'
 import { biotRoots } from '../../support/referenceValues'
 import { gaussianNoise } from './noise'
 import type { Geometry } from '../../../server/thermal/types'
@@ -80,5 +81,18 @@ describe('a knot the log cannot reach', () => {
     expect(top).toMatchObject({ determined: false, uncertainty: null, points: 0 })
     expect(fit.warnings.some((w) => w.startsWith('knot at 1000 °C is not determined by the log'))).toBe(true)
     expect(fit.hCurve?.filter((knot) => knot.T_C < 700).every((knot) => knot.determined)).toBe(true)
+  })
+})
+
+describe('progress of a fit', () => {
+  it('is told once per accepted step, its misfit never rising, ending at the result', () => {
+    const log = seriesLog('slab', 1, 0.01)
+    const steps: FitProgress[] = []
+    const material = { k, rho: 7650, cp: 620 }
+    const fit = fitCase(parseFit({ geometry: 'slab', size_m: 0.01, material, initial_C: INITIAL_C, ambient_C: BATH_C, at: 'centre', log, model: { kind: 'constant' } }), (p) => steps.push(p))
+    expect(steps.map((s) => s.iteration)).toEqual(Array.from({ length: fit.iterations }, (_, i) => i + 1))
+    steps.slice(1).forEach((s, i) => expect(s.rms_K).toBeLessThanOrEqual(steps[i]!.rms_K))
+    // A constant model has no smoothness rows, so the last step's misfit is the result's.
+    expect(steps.at(-1)!.rms_K).toBeCloseTo(fit.rms_K, 12)
   })
 })

@@ -1,0 +1,47 @@
+/**
+ * A metallurgist uploads a probe log through the logs page (preview, column mapping,
+ * store), sees it charted, fits a constant h on the calibration page with progress
+ * shown, and reads the fitted h: the log was made at 1800 W/m²K (tests/support/probeLog.ts).
+ */
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { describe, expect, it } from 'vitest'
+import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
+import { syntheticProbeCsv } from '../support/probeLog'
+
+const browser = useBrowser()
+
+describe('calibrating a medium from a probe log', () => {
+  it('upload, map, store, chart; then fit and read h within 2 % of the h that made the log', async () => {
+    const file = join(mkdtempSync(join(tmpdir(), 'probe-')), `kestrel-bay-oil-tank-2-${Date.now()}.csv`)
+    writeFileSync(file, syntheticProbeCsv(1800))
+    const page = await browser.desktopPage()
+    await signInThroughPage(page, 'metallurgist', '/logs')
+    await page.getByTestId('log-file').setInputFiles(file)
+    const preview = page.getByTestId('log-preview')
+    await preview.waitFor()
+    await expect(preview.textContent()).resolves.toContain('400 rows, separated by commas; time as seconds.')
+    await expect(page.getByLabel('Time column').inputValue()).resolves.toBe('Elapsed (s)')
+    // The bath column is mapped too; both headers say °C.
+    await page.getByTestId('log-store').click()
+    await page.getByTestId('log-stored').waitFor()
+    await expect(page.getByTestId('log-stored').textContent()).resolves.toContain('400 rows over 79.8 s')
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/logs-stored.png`, fullPage: true })
+
+    await page.getByTestId('log-stored').getByRole('link', { name: 'View it' }).click()
+    await page.getByTestId('log-chart').waitFor()
+    await page.getByRole('link', { name: 'Calibrate a medium' }).click()
+    await page.getByTestId('fit-run').waitFor()
+    await expect(page.getByLabel('Channel').inputValue()).resolves.toBe('Probe centre (°C)')
+    await page.getByTestId('fit-run').click()
+    const h = page.getByTestId('fitted-h')
+    await h.waitFor({ timeout: 30_000 })
+    const value = Number((await h.textContent())!.match(/h = ([\d,]+) W/)![1]!.replace(/,/g, ''))
+    expect(Math.abs(value / 1800 - 1)).toBeLessThan(0.02)
+    await expect(page.getByTestId('fit-residuals').textContent()).resolves.toMatch(/rms 0\.[0-4]\d K/)
+    await page.getByTestId('calibration-rate-chart').waitFor()
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/calibration-fitted.png`, fullPage: true })
+    await page.context().close()
+  })
+})
