@@ -98,7 +98,10 @@ export interface ScheduleResponse {
  * GET /api/floor/curves; the conflict pair is present only when there is one.
  */
 export interface FloorBatch
-  extends Pick<BatchView, 'id' | 'loadNumber' | 'planRevisionId' | 'partCount' | 'mass_kg' | 'reference' | 'state' | 'furnaceStart' | 'furnaceEnd' | 'quenchEnd' | 'handlingAt' | 'chargedAt' | 'quenchedAt'> {
+  extends Pick<
+    BatchView,
+    'id' | 'loadNumber' | 'planRevisionId' | 'partCount' | 'mass_kg' | 'reference' | 'state' | 'furnaceStart' | 'furnaceEnd' | 'quenchEnd' | 'handlingAt' | 'quenchedAt'
+  > {
   planName: string
   furnaceName: string
   stationName: string
@@ -121,6 +124,28 @@ export interface FloorResponse {
   serverNow: number
   settings: ShopSettings
   batches: FloorBatch[]
+}
+
+/** What a plan revision says once for all of its loads on the floor. */
+export interface FloorPlanFacts {
+  planName: string
+  handling_C: number
+  quenchToHandling_s: number
+  slowEndToHandling_s?: number
+}
+
+/** A card as the poll sends it: the plan revision's facts travel once, in FloorPoll.plans. */
+export interface FloorCardWire extends Omit<FloorBatch, 'planName' | 'handling_C' | 'handlingBasis' | 'headlineToHandling_s'> {
+  /** The booked quench-to-handling time (s, to 0.1 s), from which the card words its basis. */
+  bookedToHandling_s: number
+}
+
+/** GET /api/floor as sent; shared/floorPoll.ts expands it into a FloorResponse. */
+export interface FloorPoll {
+  serverNow: number
+  settings: ShopSettings
+  plans: Record<number, FloorPlanFacts>
+  batches: FloorCardWire[]
 }
 
 /** GET /api/floor/curves: each plan revision's handling-point series (a revision never changes). */

@@ -46,7 +46,8 @@ describe('the floor poll', () => {
     const ours = floor.batches.filter((b: { id: number }) => booked.includes(b.id))
     expect(ours).toHaveLength(CARDS)
     expect(text).not.toContain('handlingPointSeries')
-    expect(ours[0].handling_C).toBe(pin.summary.handling_C)
+    expect(floor.plans[pin.planRevisionId].handling_C).toBe(pin.summary.handling_C)
+    expect(ours[0]).not.toHaveProperty('planName')
     expect(ours[0]).not.toHaveProperty('flags')
     // Other tests' loads may share the floor: the figure is per card, scaled to 40.
     const perCard = Buffer.byteLength(text) / floor.batches.length
