@@ -8,6 +8,7 @@ source scripts/lib.sh
 mkdir -p .data test-results
 
 ensure_node_modules
+ensure_sheet_fonts
 
 if ! command -v chromium >/dev/null 2>&1; then
   if [ "$(id -u)" = 0 ] && command -v apt-get >/dev/null 2>&1; then
