@@ -1,5 +1,5 @@
 import type { PointStage } from '~~/shared/pointSeries'
-import type { FloorCurve, HandlingTimes } from '~~/shared/types/schedule'
+import type { FloorCurve } from '~~/shared/types/schedule'
 
 /**
  * The floor cards' curves, fetched once per plan revision and kept for the page's
@@ -7,7 +7,6 @@ import type { FloorCurve, HandlingTimes } from '~~/shared/types/schedule'
  */
 export function useFloorCurves() {
   const curves = ref(new Map<number, PointStage[]>())
-  const times = ref(new Map<number, HandlingTimes>())
   const asked = new Set<number>()
 
   async function ensure(planRevisionIds: number[]): Promise<void> {
@@ -17,18 +16,13 @@ export function useFloorCurves() {
     try {
       const answer = await $fetch<FloorCurve[]>('/api/floor/curves', { query: { ids: missing.join(',') } })
       const next = new Map(curves.value)
-      const nextTimes = new Map(times.value)
-      for (const curve of answer) {
-        next.set(curve.planRevisionId, curve.handlingPointSeries)
-        nextTimes.set(curve.planRevisionId, curve.times)
-      }
+      for (const curve of answer) next.set(curve.planRevisionId, curve.handlingPointSeries)
       curves.value = next
-      times.value = nextTimes
     } catch {
       // Asked again on the next poll; until then the cards show no core estimate.
       missing.forEach((id) => asked.delete(id))
     }
   }
 
-  return { curves, times, ensure }
+  return { curves, ensure }
 }

@@ -1,6 +1,18 @@
 # Shared helpers for scripts/start.sh and scripts/test.sh (sourced, not run).
 
 # npm dependencies: install from the lock file when missing or older than it.
+# The hold-time sheet's PDF falls back to DejaVu Sans for the characters IBM Plex's
+# subsets lack (≤, ≥); Debian ships it as fonts-dejavu-core.
+ensure_sheet_fonts() {
+  [ -f /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf ] && return 0
+  if [ "$(id -u)" = 0 ] && command -v apt-get >/dev/null 2>&1; then
+    echo "[setup] installing DejaVu Sans from Debian's packages for the PDF sheets (first run only)…"
+    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq fonts-dejavu-core >/dev/null
+  else
+    echo "DejaVu Sans is missing: install Debian's 'fonts-dejavu-core' package (PDF sheets print ≤ and ≥ with it)." >&2
+  fi
+}
+
 ensure_node_modules() {
   if [ ! -x node_modules/.bin/nuxt ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
     echo "[setup] installing npm dependencies (npm ci)…"

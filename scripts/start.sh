@@ -25,6 +25,7 @@ stop_all() {
 trap stop_all INT TERM EXIT
 
 ensure_node_modules
+ensure_sheet_fonts
 
 if [ -z "${DATABASE_URL:-}" ]; then
   scripts/db.sh status dev >/dev/null 2>&1 || started_db=1

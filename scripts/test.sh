@@ -8,6 +8,7 @@ source scripts/lib.sh
 mkdir -p .data test-results
 
 ensure_node_modules
+ensure_sheet_fonts
 
 if ! command -v chromium >/dev/null 2>&1; then
   if [ "$(id -u)" = 0 ] && command -v apt-get >/dev/null 2>&1; then
@@ -21,10 +22,13 @@ fi
 
 build_if_stale
 status=0
-# A full run also type-checks the app, server and tests (vue-tsc); a run of chosen files skips it.
+# A full run also type-checks the app, server and tests (vue-tsc) and lints them (ESLint is
+# the formatter too, so style drift fails here); a run of chosen files skips both.
 if [ $# -eq 0 ]; then
   echo "[check] type-checking (nuxt typecheck)…"
   npx nuxt typecheck > .data/typecheck.log 2>&1 && echo "[check] types: no errors" || { cat .data/typecheck.log; echo "[check] types: errors above" >&2; status=1; }
+  echo "[check] linting (eslint)…"
+  npx eslint . > .data/lint.log 2>&1 && echo "[check] lint: no problems" || { cat .data/lint.log; echo "[check] lint: problems above" >&2; status=1; }
 fi
 rm -f test-results/vitest.json
 npx vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json "$@" || status=1

@@ -40,7 +40,13 @@ export function floorCountdown(
   formatTemperature: (value_C: number) => string = (value_C) => `${value_C} °C`,
 ): CountdownView {
   const state = stateByClock(b.state, b, now)
-  const slots = { furnaceStart: b.furnaceStart, furnaceEnd: b.furnaceEnd, quenchStart: b.quenchedAt ?? b.furnaceEnd, quenchEnd: b.quenchEnd, handlingAt: b.handlingAt }
+  const slots = {
+    furnaceStart: b.furnaceStart,
+    furnaceEnd: b.furnaceEnd,
+    quenchStart: b.quenchedAt ?? b.furnaceEnd,
+    quenchEnd: b.quenchEnd,
+    handlingAt: b.handlingAt,
+  }
   const flags = batchFlags(state, slots, now, b.quenchDelayAllowance_s, temperWithin_s)
   const until = (t: number) => (t - now) / 1000
   let seconds: number | null = null

@@ -171,7 +171,14 @@ export async function createPlan(spec: PlanSpec, actorId: number, note: string |
   return await createFromResolved(resolved, actorId, note, 'plan.create', {}, db)
 }
 
-async function createFromResolved(resolved: ResolvedPlan, actorId: number, note: string | null, action: string, details: Record<string, unknown> = {}, db: Database = useDb()): Promise<PlanDetail> {
+async function createFromResolved(
+  resolved: ResolvedPlan,
+  actorId: number,
+  note: string | null,
+  action: string,
+  details: Record<string, unknown> = {},
+  db: Database = useDb(),
+): Promise<PlanDetail> {
   const result = await computeResolved(resolved)
   const id = await db.transaction(async (tx) => {
     const [{ id }] = await tx.insert(plans).values({ name: resolved.name, latestRevision: 1, createdBy: actorId }).$returningId()
@@ -232,7 +239,15 @@ async function readPlan(id: number, revision?: number, db: Database = useDb()): 
   const [plan] = await db.select().from(plans).where(eq(plans.id, id))
   if (!plan) throw createError({ statusCode: 404, statusMessage: 'Plan not found' })
   const revisions = await db
-    .select({ id: planRevisions.id, revision: planRevisions.revision, note: planRevisions.note, createdAt: planRevisions.createdAt, summary: planRevisions.summary, spec: planRevisions.spec, createdBy: users.displayName })
+    .select({
+      id: planRevisions.id,
+      revision: planRevisions.revision,
+      note: planRevisions.note,
+      createdAt: planRevisions.createdAt,
+      summary: planRevisions.summary,
+      spec: planRevisions.spec,
+      createdBy: users.displayName,
+    })
     .from(planRevisions)
     .leftJoin(users, eq(users.id, planRevisions.createdBy))
     .where(eq(planRevisions.planId, id))
@@ -263,8 +278,29 @@ async function readPlan(id: number, revision?: number, db: Database = useDb()): 
 export async function planLibraryOptions() {
   const db = useDb()
   const [materialRows, quenchantRows] = await Promise.all([
-    db.select({ id: materials.id, name: materials.name, k_W_mK: materials.k_W_mK, density_kg_m3: materials.density_kg_m3, specificHeat_J_kgK: materials.specificHeat_J_kgK, gradedProfile: materials.gradedProfile }).from(materials).orderBy(materials.name),
-    db.select({ id: quenchants.id, name: quenchants.name, kind: quenchants.kind, hLow_W_m2K: quenchants.hLow_W_m2K, hTypical_W_m2K: quenchants.hTypical_W_m2K, hHigh_W_m2K: quenchants.hHigh_W_m2K, bath_C: quenchants.bath_C }).from(quenchants).orderBy(quenchants.name),
+    db
+      .select({
+        id: materials.id,
+        name: materials.name,
+        k_W_mK: materials.k_W_mK,
+        density_kg_m3: materials.density_kg_m3,
+        specificHeat_J_kgK: materials.specificHeat_J_kgK,
+        gradedProfile: materials.gradedProfile,
+      })
+      .from(materials)
+      .orderBy(materials.name),
+    db
+      .select({
+        id: quenchants.id,
+        name: quenchants.name,
+        kind: quenchants.kind,
+        hLow_W_m2K: quenchants.hLow_W_m2K,
+        hTypical_W_m2K: quenchants.hTypical_W_m2K,
+        hHigh_W_m2K: quenchants.hHigh_W_m2K,
+        bath_C: quenchants.bath_C,
+      })
+      .from(quenchants)
+      .orderBy(quenchants.name),
   ])
   return {
     materials: materialRows.map(({ gradedProfile, ...m }) => ({ ...m, graded: !!gradedProfile })),

@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, gte, lt, sql, type SQL } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
-import { batchEventCorrections, batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, quenchStations, users, type CooldownRecordRow } from '../db/schema'
+import { batchEventCorrections, batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, users, type CooldownRecordRow } from '../db/schema'
 import { recordSeal } from './canonical'
 import { recordUrl, sealKeyOf, type RecordConfig } from './config'
 import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from './cooldownRecord'
@@ -48,7 +48,13 @@ export async function writeCooldownRecord(
   const hash = recordSeal(snapshot, sealKeyOf(config))
   const [{ id }] = await tx
     .insert(cooldownRecords)
-    .values({ batchId, snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
+    .values({
+      batchId,
+      snapshot: snapshot as unknown as Record<string, unknown>,
+      hash,
+      deviationCount: snapshot.deviations.length,
+      releasedAt: new Date(snapshot.releasedAt),
+    })
     .$returningId()
 
   const to = await recipientsFor(tx, 'released_sheet')
@@ -94,7 +100,11 @@ async function snapshotOf(tx: Transaction, batchId: number, releasedBy: { id: nu
  * recipients, all in the correction's transaction. Signed records never get here
  * (refuseIfRecordSigned). Returns the record, or null before release.
  */
-export async function reissueCooldownRecord(tx: Transaction, batchId: number, config: RecordConfig): Promise<{ id: number; hash: string; previousHash: string } | null> {
+export async function reissueCooldownRecord(
+  tx: Transaction,
+  batchId: number,
+  config: RecordConfig,
+): Promise<{ id: number; hash: string; previousHash: string } | null> {
   const [record] = await tx.select().from(cooldownRecords).where(eq(cooldownRecords.batchId, batchId)).for('update')
   if (!record) return null
   const releasedBy = (record.snapshot as unknown as RecordSnapshot).releasedBy
@@ -102,7 +112,12 @@ export async function reissueCooldownRecord(tx: Transaction, batchId: number, co
   const hash = recordSeal(snapshot, sealKeyOf(config))
   await tx
     .update(cooldownRecords)
-    .set({ snapshot: snapshot as unknown as Record<string, unknown>, hash, deviationCount: snapshot.deviations.length, releasedAt: new Date(snapshot.releasedAt) })
+    .set({
+      snapshot: snapshot as unknown as Record<string, unknown>,
+      hash,
+      deviationCount: snapshot.deviations.length,
+      releasedAt: new Date(snapshot.releasedAt),
+    })
     .where(and(eq(cooldownRecords.id, record.id), eq(cooldownRecords.state, 'unsigned')))
   const to = await recipientsFor(tx, 'released_sheet')
   if (to.length) await enqueueMail(tx, await holdTimeSheetMail(sheetFromSnapshot(snapshot, config.shopName, recordUrl(config, record.id)), to, `sheet:record-${record.id}:${hash}`))
@@ -194,7 +209,11 @@ async function signRefusal(db: Database | Transaction, row: CooldownRecordRow, u
     const moves = own.map((event) => (event.toState === 'planned' ? 'the booking' : BATCH_STATE_LABELS[event.toState])).join(', ')
     return { status: 403, message: `You recorded events on this load (${moves}); another QA lead must sign its record` }
   }
-  const [corrected] = await db.select({ id: batchEventCorrections.id }).from(batchEventCorrections).where(and(eq(batchEventCorrections.batchId, row.batchId), eq(batchEventCorrections.actorId, user.id))).limit(1)
+  const [corrected] = await db
+    .select({ id: batchEventCorrections.id })
+    .from(batchEventCorrections)
+    .where(and(eq(batchEventCorrections.batchId, row.batchId), eq(batchEventCorrections.actorId, user.id)))
+    .limit(1)
   if (corrected) return { status: 403, message: 'You corrected an event time on this load; another QA lead must sign its record' }
   return null
 }
@@ -246,7 +265,14 @@ export async function signRecord(id: number, decision: Decision, comment: string
       action,
       entityType: 'cooldown_record',
       entityId: id,
-      details: { loadNumber: snapshot.batch.loadNumber, recordHash: row.hash, signatureHash: signature, signedAt: signedAt.toISOString(), comment, ...(outboxId ? { outboxId } : {}) },
+      details: {
+        loadNumber: snapshot.batch.loadNumber,
+        recordHash: row.hash,
+        signatureHash: signature,
+        signedAt: signedAt.toISOString(),
+        comment,
+        ...(outboxId ? { outboxId } : {}),
+      },
     })
     return null
   })
@@ -283,12 +309,35 @@ export async function queueDailyDigest(db: Database, now: Date, config: Pick<Rec
       .where(and(eq(cooldownRecords.state, 'unsigned'), lt(cooldownRecords.createdAt, new Date(now.getTime() - DAY_MS))))
       .orderBy(asc(cooldownRecords.createdAt), asc(cooldownRecords.id))
       .limit(500)
-    const records = rows.map((row) => ({ id: row.record.id, loadNumber: row.loadNumber, releasedAt: row.record.releasedAt.toISOString(), plan: row.planName, furnace: row.furnaceName, deviations: row.record.deviationCount }))
+    const records = rows.map((row) => ({
+      id: row.record.id,
+      loadNumber: row.loadNumber,
+      releasedAt: row.record.releasedAt.toISOString(),
+      plan: row.planName,
+      furnace: row.furnaceName,
+      deviations: row.record.deviationCount,
+    }))
     const to = records.length ? await recipientsFor(tx, 'daily_digest') : []
-    if (records.length === 0 || to.length === 0) return { dedupeKey, queued: false, created: false, outboxId: null, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
+    if (records.length === 0 || to.length === 0) {
+      return {
+        dedupeKey,
+        queued: false,
+        created: false,
+        outboxId: null,
+        to,
+        records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })),
+      }
+    }
     const day = dedupeKey.slice('digest:'.length)
     const queued = await enqueueMail(tx, digestMail(dedupeKey, to, records, (recordId) => recordUrl(config, recordId)))
     if (queued.created) await recordAudit(tx, { actorId, action: 'record.digest', entityType: 'outbox_message', entityId: queued.id, details: { day, records: records.map((r) => r.loadNumber), to } })
-    return { dedupeKey, queued: true, created: queued.created, outboxId: queued.id, to, records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })) }
+    return {
+      dedupeKey,
+      queued: true,
+      created: queued.created,
+      outboxId: queued.id,
+      to,
+      records: records.map(({ id, loadNumber, releasedAt }) => ({ id, loadNumber, releasedAt })),
+    }
   })
 }

@@ -3,7 +3,7 @@ import { createError } from 'h3'
 import type { Database } from '../db/client'
 import { batches, planRevisions, plans } from '../db/schema'
 import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
-import type { BatchDetail, FloorBatch, FloorCurve, PlanOption } from '../../shared/types/schedule'
+import type { BatchDetail, FloorCardWire, FloorCurve, FloorPoll, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
 import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
 import { quenchMediumOf } from './quenchMedium'
@@ -58,8 +58,16 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
     .orderBy(asc(batches.furnaceStart))
     .limit(200)
   const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
-  const list: FloorBatch[] = rows.map((r) => {
+  const planFacts: FloorPoll['plans'] = {}
+  const cards: FloorCardWire[] = rows.map((r) => {
     const view = toBatchView(r.batch, settings, now)
+    const summary = readSummary(r.revision.summary)!
+    planFacts[view.planRevisionId] = {
+      planName: r.plan.name,
+      handling_C: summary.handling_C,
+      quenchToHandling_s: summary.quenchToHandling_s,
+      ...(summary.slowEndToHandling_s === undefined ? {} : { slowEndToHandling_s: summary.slowEndToHandling_s }),
+    }
     return {
       id: view.id,
       loadNumber: view.loadNumber,
@@ -72,12 +80,10 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       furnaceEnd: view.furnaceEnd,
       quenchEnd: view.quenchEnd,
       handlingAt: view.handlingAt,
-      chargedAt: view.chargedAt,
       quenchedAt: view.quenchedAt,
-      planName: r.plan.name,
       furnaceName: r.furnace.name,
       stationName: r.station.name,
-      handling_C: readSummary(r.revision.summary)!.handling_C,
+      bookedToHandling_s: Math.round(r.batch.quenchToHandling_s * 10) / 10,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),
       taps: events
@@ -86,7 +92,7 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
         .map(({ id, toState, at, originalAt }) => ({ id, toState, at, originalAt })),
     }
   })
-  return { serverNow: now, settings, batches: list }
+  return { serverNow: now, settings, plans: planFacts, batches: cards } satisfies FloorPoll
 }
 
 /** The handling-point series of the given plan revisions, for the floor's countdown cards. */
@@ -98,9 +104,7 @@ export async function floorCurves(planRevisionIds: number[]): Promise<FloorCurve
     .where(inArray(planRevisions.id, planRevisionIds))
   return rows.flatMap((row) => {
     const summary = readSummary(row.summary)
-    if (!summary) return []
-    const times = { headline_s: summary.quenchToHandling_s, slowEnd_s: summary.slowEndToHandling_s ?? null }
-    return [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries, times }]
+    return summary ? [{ planRevisionId: row.id, handlingPointSeries: summary.handlingPointSeries }] : []
   })
 }
 

@@ -58,7 +58,13 @@ export async function moveBatch(
       if (!verdict.ok) {
         throw createError({ statusCode: verdict.status, statusMessage: verdict.message, data: { currentState: state, requestedState: to } })
       }
-      const shortfall = tapShortfall(state, to, { chargedAt: ms(row!.chargedAt), furnaceEnd: row!.furnaceEnd.getTime(), handlingAt: row!.handlingAt.getTime(), heatUp_s: bookedHeatUp_s(row!), minimumSoak_s: row!.minimumSoak_s }, now)
+      const shortfall = tapShortfall(state, to, {
+        chargedAt: ms(row!.chargedAt),
+        furnaceEnd: row!.furnaceEnd.getTime(),
+        handlingAt: row!.handlingAt.getTime(),
+        heatUp_s: bookedHeatUp_s(row!),
+        minimumSoak_s: row!.minimumSoak_s,
+      }, now)
       if (shortfall && !options.acknowledgeShortfall) {
         throw createError({ statusCode: 409, statusMessage: `${shortfall.message} Confirm again to record it anyway.`, data: { shortfall, currentState: state, requestedState: to } })
       }
@@ -71,14 +77,29 @@ export async function moveBatch(
       if (to === 'quenched') recorded.quenchedAt = at
       const values = { ...recorded, ...replannedSlots({ ...row!, ...recorded }) }
       await tx.update(batches).set(values).where(eq(batches.id, id))
-      await tx.insert(batchEvents).values({ batchId: id, fromState: state, toState: to, at, actorId: actor.id, shortfall_s: shortfall?.short_s ?? null, shortfallNote: shortfall?.message ?? null })
+      await tx.insert(batchEvents).values({
+        batchId: id,
+        fromState: state,
+        toState: to,
+        at,
+        actorId: actor.id,
+        shortfall_s: shortfall?.short_s ?? null,
+        shortfallNote: shortfall?.message ?? null,
+      })
       const flagged = await reflagConflicts(tx, { ...row!, ...values }, to === 'cancelled')
       await recordAudit(tx, {
         actorId: actor.id,
         action: `batch.${to}`,
         entityType: 'batch',
         entityId: id,
-        details: { loadNumber: row!.loadNumber, from: state, to, at: at.toISOString(), ...(shortfall ? { shortfall: shortfall.message } : {}), ...(flagged.length ? { conflicts: flagged } : {}) },
+        details: {
+          loadNumber: row!.loadNumber,
+          from: state,
+          to,
+          at: at.toISOString(),
+          ...(shortfall ? { shortfall: shortfall.message } : {}),
+          ...(flagged.length ? { conflicts: flagged } : {}),
+        },
       })
       if (to === 'released') await releaseRecord(tx, id, actor, records)
       const [after] = await tx.select().from(batches).where(eq(batches.id, id))

@@ -88,7 +88,12 @@ const planSpecShape = {
   quenchDelayAllowance_s: z.number({ message: 'Quench delay allowance must be a number (s)' }).finite().min(0, 'Quench delay allowance cannot be negative').max(3600, 'Quench delay allowance above an hour is not a quench').nullable().default(null),
 }
 
-type SpecLike = { start_C: number; stages: { duration_s?: number }[]; handling: { below_C: number }; soak: { furnace_C: number; charge_C: number; tolerance_K: number } | null }
+type SpecLike = {
+  start_C: number
+  stages: { duration_s?: number }[]
+  handling: { below_C: number }
+  soak: { furnace_C: number; charge_C: number; tolerance_K: number } | null
+}
 
 function crossFieldIssues(spec: SpecLike, ctx: z.RefinementCtx): void {
   spec.stages.forEach((stage, i) => {

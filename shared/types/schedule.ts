@@ -98,12 +98,18 @@ export interface ScheduleResponse {
  * GET /api/floor/curves; the conflict pair is present only when there is one.
  */
 export interface FloorBatch
-  extends Pick<BatchView, 'id' | 'loadNumber' | 'planRevisionId' | 'partCount' | 'mass_kg' | 'reference' | 'state' | 'furnaceStart' | 'furnaceEnd' | 'quenchEnd' | 'handlingAt' | 'chargedAt' | 'quenchedAt'> {
+  extends Pick<
+    BatchView,
+    'id' | 'loadNumber' | 'planRevisionId' | 'partCount' | 'mass_kg' | 'reference' | 'state' | 'furnaceStart' | 'furnaceEnd' | 'quenchEnd' | 'handlingAt' | 'quenchedAt'
+  > {
   planName: string
   furnaceName: string
   stationName: string
   /** The plan's handling temperature (°C), for the countdown's caption. */
   handling_C: number
+  /** Which moment the booked handling time stands on (shared/safeHandling.ts), and the headline estimate beside it. */
+  handlingBasis: string
+  headlineToHandling_s: number
   quenchDelayAllowance_s: number
   conflictWith?: string
   conflictNote?: string | null
@@ -120,17 +126,32 @@ export interface FloorResponse {
   batches: FloorBatch[]
 }
 
+/** What a plan revision says once for all of its loads on the floor. */
+export interface FloorPlanFacts {
+  planName: string
+  handling_C: number
+  quenchToHandling_s: number
+  slowEndToHandling_s?: number
+}
+
+/** A card as the poll sends it: the plan revision's facts travel once, in FloorPoll.plans. */
+export interface FloorCardWire extends Omit<FloorBatch, 'planName' | 'handling_C' | 'handlingBasis' | 'headlineToHandling_s'> {
+  /** The booked quench-to-handling time (s, to 0.1 s), from which the card words its basis. */
+  bookedToHandling_s: number
+}
+
+/** GET /api/floor as sent; shared/floorPoll.ts expands it into a FloorResponse. */
+export interface FloorPoll {
+  serverNow: number
+  settings: ShopSettings
+  plans: Record<number, FloorPlanFacts>
+  batches: FloorCardWire[]
+}
+
 /** GET /api/floor/curves: each plan revision's handling-point series (a revision never changes). */
 export interface FloorCurve {
   planRevisionId: number
   handlingPointSeries: PointStage[]
-  /** The revision's headline and slow-end times to handling, from which a card says what its booked time stands on. */
-  times: HandlingTimes
-}
-
-export interface HandlingTimes {
-  headline_s: number
-  slowEnd_s: number | null
 }
 
 export interface PlanOption {

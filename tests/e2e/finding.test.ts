@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser, type ViewportName } from '../support/browser'
 import { FLOOR_STATES } from '../../shared/schedule'
-import type { FloorResponse } from '../../shared/types/schedule'
+import type { FloorPoll } from '../../shared/types/schedule'
 
 const browser = useBrowser()
 let admin: Client
@@ -12,7 +12,7 @@ beforeAll(async () => {
 
 describe('finding loads on the floor', () => {
   it.each(['tablet', 'desktop', 'phone'] as ViewportName[])('at the %s size: search by load number or work order; nothing scrolls sideways; the legend and the alert switch are there', async (viewport) => {
-    const floor = (await admin.request('/api/floor')).body as FloorResponse
+    const floor = (await admin.request('/api/floor')).body as FloorPoll
     const target = floor.batches[0]!
     const page = await browser.pageAt(viewport)
     await signInThroughPage(page, 'operator', '/floor')

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import type { FloorResponse } from '../../shared/types/schedule'
+import type { FloorPoll } from '../../shared/types/schedule'
 import { signInDemo, type Client } from '../support/http'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { createLibraryFixture } from '../support/library'
@@ -38,7 +38,7 @@ describe('the shift overview per role', () => {
   it('an operator sees the floor counts the floor API gives and a big link to the floor', async () => {
     const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator')
-    const floor = (await admin.request('/api/floor')).body as FloorResponse
+    const floor = (await admin.request('/api/floor')).body as FloorPoll
     const count = (states: string[]) => String(floor.batches.filter((b) => states.includes(b.state)).length)
     expect(await page.getByTestId('shift-active').textContent()).toBe(count(['charged', 'soaking', 'quenched', 'cooling', 'ready']))
     expect(await page.getByTestId('shift-ready').textContent()).toBe(count(['ready']))

@@ -18,5 +18,13 @@ export async function createLine(admin: Client, label = 'Test', kind = 'oil') {
 }
 
 export function booking(planRevisionId: number, line: { furnace: { id: number }; station: { id: number } }, plannedCharge: number, reference = 'WO-TEST') {
-  return { planRevisionId, furnaceId: line.furnace.id, stationId: line.station.id, plannedCharge: new Date(plannedCharge).toISOString(), partCount: 24, mass_kg: 320, reference }
+  return {
+    planRevisionId,
+    furnaceId: line.furnace.id,
+    stationId: line.station.id,
+    plannedCharge: new Date(plannedCharge).toISOString(),
+    partCount: 24,
+    mass_kg: 320,
+    reference,
+  }
 }

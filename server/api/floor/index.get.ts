@@ -10,6 +10,6 @@ export default defineEventHandler(async (event) => {
   const { furnaceId } = queryValid(event, Query)
   const floor = await floorBatches(furnaceId)
   setResponseHeader(event, 'x-server-now', String(floor.serverNow))
-  if (answeredUnchanged(event, { settings: floor.settings, batches: floor.batches })) return null
+  if (answeredUnchanged(event, { settings: floor.settings, plans: floor.plans, batches: floor.batches })) return null
   return floor
 })
