@@ -24,11 +24,13 @@ build_if_stale
 status=0
 # A full run also type-checks the app, server and tests (vue-tsc) and lints them (ESLint is
 # the formatter too, so style drift fails here); a run of chosen files skips both.
+# Both are single-threaded, so they run side by side: the run grows by the longer of the two.
 if [ $# -eq 0 ]; then
-  echo "[check] type-checking (nuxt typecheck)…"
+  echo "[check] type-checking (nuxt typecheck) and linting (eslint) side by side…"
+  npx eslint . > .data/lint.log 2>&1 &
+  lint_pid=$!
   npx nuxt typecheck > .data/typecheck.log 2>&1 && echo "[check] types: no errors" || { cat .data/typecheck.log; echo "[check] types: errors above" >&2; status=1; }
-  echo "[check] linting (eslint)…"
-  npx eslint . > .data/lint.log 2>&1 && echo "[check] lint: no problems" || { cat .data/lint.log; echo "[check] lint: problems above" >&2; status=1; }
+  wait "$lint_pid" && echo "[check] lint: no problems" || { cat .data/lint.log; echo "[check] lint: problems above" >&2; status=1; }
 fi
 rm -f test-results/vitest.json
 npx vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json "$@" || status=1
