@@ -170,7 +170,7 @@ describe('who may upload', () => {
   const ok = UTF8('time_s,T (°C)\n0,850\n1,800\n2,760\n')
 
   async function bookedLoad() {
-    const line = await createLine(admin, 'Log')
+    const line = await createLine(admin, 'Log', 'water')
     const booked = await metallurgist.request('/api/batches', { method: 'POST', body: booking(plan.planRevisionId, line, Date.now() + 1000, 'PO-LOG') })
     expect(booked.status).toBe(201)
     return booked.body as { id: number; loadNumber: string }
