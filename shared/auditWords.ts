@@ -3,7 +3,12 @@
  * its details as "field: value" lines, so people never read stored codes or raw JSON.
  * Pure, shared by the audit page and its tests.
  */
+import { FURNACE_KIND_LABELS } from './labels'
+import { QUENCHANT_KIND_LABELS } from './library'
 import { BATCH_STATE_LABELS, type BatchState } from './schedule'
+
+/** Stored kind codes ("still-air", "car-bottom") in the words the pages use. */
+const KIND_WORDS: Record<string, string> = { ...FURNACE_KIND_LABELS, ...QUENCHANT_KIND_LABELS }
 
 export const AUDIT_KIND_LABELS: Record<string, string> = {
   batch: 'Load',
@@ -65,16 +70,17 @@ export function fieldName(key: string): string {
   return unit ? `${words} (${unit.replace(/_/g, '/')})` : words
 }
 
-function valueInWords(value: unknown): string {
+function valueInWords(value: unknown, key = ''): string {
   if (value === null || value === undefined || value === '') return '—'
+  if (key === 'kind' && typeof value === 'string') return KIND_WORDS[value] ?? value
   if (typeof value === 'boolean') return value ? 'yes' : 'no'
   if (Array.isArray(value)) return value.map(valueInWords).join(', ') || '—'
-  if (typeof value === 'object') return Object.entries(value).map(([k, v]) => `${fieldName(k)} ${valueInWords(v)}`).join(', ')
+  if (typeof value === 'object') return Object.entries(value).map(([k, v]) => `${fieldName(k)} ${valueInWords(v, k)}`).join(', ')
   return String(value)
 }
 
 /** One "field: value" line per detail; nested values read "from furnace id 3, …". */
 export function describeDetails(details: Record<string, unknown> | null): string[] {
   if (!details) return []
-  return Object.entries(details).map(([key, value]) => `${fieldName(key)}: ${valueInWords(value)}`)
+  return Object.entries(details).map(([key, value]) => `${fieldName(key)}: ${valueInWords(value, key)}`)
 }

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { describeAction, describeDetails, fieldName } from '../../shared/auditWords'
+import { FURNACE_KIND_LABELS } from '../../shared/labels'
 import { retiredWordsIn } from '../support/glossary'
 
 describe('the audit trail in words', () => {
@@ -36,5 +37,7 @@ describe('the audit trail in words', () => {
     ])
     expect(retiredWordsIn(lines.join('\n'))).toEqual([])
     expect(describeDetails(null)).toEqual([])
+    // Stored kind codes read as the pages name them, nested or not.
+    expect(describeDetails({ kind: 'still-air', to: { kind: 'car-bottom' } })).toEqual(['kind: Still air', `to: kind ${FURNACE_KIND_LABELS['car-bottom']}`])
   })
 })
