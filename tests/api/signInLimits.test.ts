@@ -71,7 +71,8 @@ describe('sign-in limits per account and per address', () => {
     expect(await countOf(`address:${address}`)).toBe(1)
     expect((await attemptSignIn(email, account.password, { address })).client).not.toBeNull()
     await until(() => countOf(`account:${email}`), (count) => count === null, 5, 'account count cleared')
-    // The good attempt is taken back off the address; the failure stays.
+    // The good attempt is taken back off the address (after the account's is cleared); the failure stays.
+    await until(() => countOf(`address:${address}`), (count) => count === 1, 5, 'good attempt taken off the address')
     expect(await countOf(`address:${address}`)).toBe(1)
   })
 
