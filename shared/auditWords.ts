@@ -74,7 +74,7 @@ function valueInWords(value: unknown, key = ''): string {
   if (value === null || value === undefined || value === '') return '—'
   if (key === 'kind' && typeof value === 'string') return KIND_WORDS[value] ?? value
   if (typeof value === 'boolean') return value ? 'yes' : 'no'
-  if (Array.isArray(value)) return value.map(valueInWords).join(', ') || '—'
+  if (Array.isArray(value)) return value.map((item) => valueInWords(item)).join(', ') || '—'
   if (typeof value === 'object') return Object.entries(value).map(([k, v]) => `${fieldName(k)} ${valueInWords(v, k)}`).join(', ')
   return String(value)
 }
