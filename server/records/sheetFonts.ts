@@ -2,7 +2,7 @@
  * The typefaces of the PDF hold-time sheet. The PDF standard fonts know only WinAnsi
  * (no ≤, ≥, −, Greek or Cyrillic), so the sheet embeds IBM Plex Sans, the pages' own face.
  * @fontsource ships Plex as one WOFF per script (pdfkit reads WOFF), each covering the
- * unicode-range its unicode.json gives. The subsets leave out the mathematical operators
+ * unicode-range its unicode.json gives. The subsets leave out the comparison signs
  * (≤, ≥ among them), so a character no subset holds is written in DejaVu Sans, the sans
  * face Debian installs beside Chromium, when the system has it.
  */
