@@ -26,14 +26,18 @@
  * open-ended stage ends in an open-ended sub-step once the body is within
  * OPEN_END_K of its steady state, where the coefficients no longer change.
  *
- * Cost (issue 12, the benchmark's oil-quenched steel bar, 17 basis functions on 128
- * quadrature nodes): ~650 sub-steps of two frozen solves each, a solve being the
- * assembly of mass and stiffness from the node coefficients (weighted sums of the
- * basis's precomputed node products, ~40 % of the time), Cholesky and the
- * symmetrised matrix (~10 %) and a Jacobi eigen solve warm-started from the last
- * solve's eigenvectors (~30 %); evaluating the readings is negligible. The sub-step
- * count is what bounds it: the steps are second order, and the error collects
- * where a step straddles a kink of the h curve or the cp peak.
+ * Cost (issue 12, the benchmark's oil-quenched steel bar, 17 basis functions on 72
+ * quadrature nodes): ~390 sub-steps (was ~650 with midpoint freezing) of two frozen
+ * solves each, a solve being the assembly of mass and stiffness from the node
+ * coefficients (weighted sums of the basis's precomputed node products) with the
+ * Cholesky products and amplitudes (~30 % of the time), a Jacobi eigen solve
+ * warm-started from the last solve's eigenvectors (~25 %), and the paths and their
+ * means (~15 %). The sub-step count still bounds it: within a step the series
+ * follows coefficients frozen at their mean, so its error between the step's ends
+ * stays second order in the step (a water-quenched rod whose centre crosses the
+ * cp peak is what holds STEP_TOLERANCE_K at 0.02), and a smaller basis once the
+ * fast modes have died lost 0.2 K on the ISO probe log when a boiling phase came
+ * after the drop, so every sub-step of a stage keeps the stage's basis.
  *
  * solveCooldown sends only problems whose tables are not flat here; flat tables take
  * today's constant-property path unchanged. Checked against a refined finite-volume
