@@ -269,14 +269,19 @@ function freezer(
   const q = basis.nodes.length
   const k = new Float64Array(q)
   const rhoCp = new Float64Array(q)
-  const clamp = (T: number) => Math.min(bounds.max, Math.max(bounds.min, T))
   // Maximum principle: the body stays between its coldest and hottest data, so a truncated
   // series' overshoot (early on, next to a sudden surface change) must not pick coefficients.
-  const clamped = (f: Field): Field => ({ nodes: f.nodes.map(clamp), inner: clamp(f.inner), outer: clamp(f.outer) })
+  const clamp = (T: number) => Math.min(bounds.max, Math.max(bounds.min, T))
+  // The clamped path, refilled by every solve.
+  const path = Array.from({ length: 4 }, (): Field => ({ nodes: new Float64Array(q), inner: 0, outer: 0 })) as Path
   const hOver = (law: SurfaceLaw | null, face: 'inner' | 'outer', [a, g1, g2, b]: Path) => (law ? law.pathEffectiveH(a[face], g1[face], g2[face], b[face]) : 0)
   let warmStart: Float64Array | undefined
   return (raw, c0) => {
-    const path = raw.map(clamped) as Path
+    raw.forEach((field, p) => {
+      for (let i = 0; i < q; i++) path[p].nodes[i] = clamp(field.nodes[i])
+      path[p].inner = clamp(field.inner)
+      path[p].outer = clamp(field.outer)
+    })
     material(path, k, rhoCp)
     const series = frozenSeries(
       basis,
