@@ -13,3 +13,4 @@ export const listQuenchants = store.list
 export const getQuenchant = store.get
 export const createQuenchant = store.create
 export const updateQuenchant = store.update
+export const updateQuenchantWithin = store.updateWithin
