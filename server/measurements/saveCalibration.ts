@@ -13,7 +13,7 @@ import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 import { fieldProblems } from '../utils/validation'
 import { fitOnce } from '../workers/fitRunner'
-import { updateQuenchantWithin } from '../library/quenchants'
+import { QUENCHANT_FIELDS, updateQuenchantWithin } from '../library/quenchants'
 import { quenchantInputSchema, RADIATING_KINDS, type QuenchantValues } from '../../shared/schemas/quenchant'
 import type { CalibrationSave } from '../../shared/schemas/calibration'
 import type { CalibrationResult, QuenchantCalibration } from '../../shared/types/calibration'
@@ -99,7 +99,8 @@ export async function saveCalibration(request: CalibrationSave, user: SessionUse
       curveSource: curveSourceText({ id: calibrationId, fileName: log!.fileName, request, fitted, fit, by: user.displayName, radiationDropped }),
     }
     // A fitted knot outside the library's ranges would fail the medium's own rules: refuse naming it, write nothing.
-    const checked = quenchantInputSchema.safeParse({ ...current, ...patch })
+    const values = Object.fromEntries(QUENCHANT_FIELDS.map((key) => [key, current![key]]))
+    const checked = quenchantInputSchema.safeParse({ ...values, ...patch })
     if (!checked.success) refused(fieldProblems(checked.error))
     await updateQuenchantWithin(tx, request.quenchantId, patch, user.id)
     await recordAudit(tx, {
