@@ -20,6 +20,8 @@ const TRUE_H = 1800
 const mapping = { time: 'Elapsed (s)', channels: [{ column: 'Probe centre (°C)', unit: 'C' }, { column: 'Bath (°C)', unit: 'C' }] }
 let metallurgist: Client
 let logId: number
+/** The pin plan's own log and probe, once the plan-probe test has made them. */
+let pinProbe: { logId: number; probe: { planId: number; thermocouple: { depth_m: number } } } | undefined
 
 async function storeLog(name: string, csv: string): Promise<number> {
   const stored = await postLog(metallurgist, '/api/logs', { name, bytes: csv }, mappingField(mapping))
@@ -107,6 +109,7 @@ describe('the fit’s own options', () => {
     const csv = syntheticLogCsv(800, { geometry: 'rod', size_m: 0.02, material: lib.values.steel, x: 0.75, step_s: 1, rows: 300 })
     const pinLog = await storeLog('pin-oil.csv', csv)
     const probe = { planId: pin.planId, thermocouple: { depth_m: 0.005 } }
+    pinProbe = { logId: pinLog, probe }
     const { status, lines } = await fitLines(metallurgist, request({ logId: pinLog, probe }))
     expect(status).toBe(200)
     expect(Math.abs(lines.at(-1).result.h.value / 800 - 1)).toBeLessThan(0.02)
@@ -151,6 +154,9 @@ describe('saving a fit as the medium’s curve', () => {
     expect(misfit.body.data.problems[0]).toMatchObject({ field: 'model', message: expect.stringContaining('more than the 5 K a saved curve may miss by') })
     for (const other of others) expect((await save(other)).status).toBe(403)
     expect((await save(anonymous())).status).toBe(401)
+    // Everyone reads where the library's curves came from; signed-out callers do not.
+    expect((await others[1]!.request('/api/calibrations')).status).toBe(200)
+    expect((await anonymous().request('/api/calibrations')).status).toBe(401)
     expect(await calibrationCount()).toBe(before.count)
     expect(await latestAuditId(admin)).toBe(before.audit)
     expect((await metallurgist.request(`/api/quenchants/${lib.oilId}`)).body).toEqual(before.oil)
@@ -210,5 +216,14 @@ describe('saving a fit as the medium’s curve', () => {
     const at1000 = (curve: { T_C: number; h: number }[]) => curve.find((p) => p.T_C === 1000)!.h
     expect(at1000(water.coolingCurves.low) / at1000(water.coolingCurves.typical)).toBeCloseTo(2500 / 3000, 9)
     expect(at1000(water.coolingCurves.high) / at1000(water.coolingCurves.typical)).toBeCloseTo(3500 / 3000, 9)
+  })
+
+  it('keeps a plan probe in the provenance: the plan, its revision and the thermocouple’s depth in words', async () => {
+    expect(pinProbe).toBeDefined()
+    const saved = await save(metallurgist, { ...pinProbe, quenchantId: lib.oil25Id })
+    expect(saved.status).toBe(201)
+    expect(saved.body.probe).toMatchObject({ preset: null, plan: { id: pinProbe!.probe.planId, revision: 1 }, geometry: 'rod', size_m: 0.02, x: 0.75 })
+    expect(saved.body.probe.label).toMatch(/^Plan "Pin Ø40 oil then air .*" revision 1: Round bar Ø40 mm, Test steel .*, thermocouple 5 mm below the surface$/)
+    expect(Math.abs(saved.body.fitted.h.value / 800 - 1)).toBeLessThan(0.02)
   })
 })
