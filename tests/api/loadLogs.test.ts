@@ -141,3 +141,32 @@ describe('attaching a log to a released load', () => {
     expect(still).toMatchObject({ hash: record.hash, integrity: 'intact', state: 'approved' })
   })
 })
+
+describe('a log attached while the load cools', () => {
+  it('is in the record written at release, lined up by the start time the uploader gave', async () => {
+    let logId = 0
+    const cooling = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, plan, 2500, {
+      beforeRelease: async (batchId) => {
+        const detail = await qa.request(`/api/batches/${batchId}`)
+        const quenched = Date.parse(detail.body.events.find((e: { toState: string }) => e.toState === 'quenched').at)
+        // The logger was started 20 s before the quench tap.
+        const startedAt = new Date(quenched - 20_000).toISOString()
+        const attached = await postLog(operator, '/api/logs', { name: 'cooling.csv', bytes: SLOW_LOG }, { ...mappingField(MAPPING), batchId: String(batchId), startedAt })
+        expect(attached.status).toBe(201)
+        expect(attached.body.startedAt).toBe(startedAt)
+        logId = attached.body.id
+      },
+    })
+    const record = await recordOf(cooling.batchId)
+    expect(record.integrity).toBe('intact')
+    const [trace] = record.snapshot.measuredTraces
+    expect(trace).toMatchObject({ logId, quenchAtLog_s: 20 })
+    expect(trace.alignment).toMatch(/^the log started at \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC, so the quench tap is 20 s into the log$/)
+    const releaseLog_s = 20 + (cooling.at.released! - cooling.at.quenched!) / 1000
+    expect(trace.comparison.atRelease_C).toBeCloseTo(850 - 4 * releaseLog_s, 6)
+    expect(trace.comparison.logEnd_s).toBe(100)
+    expect(record.snapshot.deviations.map((d: { rule: string }) => d.rule)).toEqual(['above_band_at_release', 'slow_cooling'])
+    const [audit] = await auditFor(admin, 'measurement_log', logId)
+    expect(audit.details.record).toBeUndefined()
+  })
+})
