@@ -6,6 +6,7 @@ import type { HoldTimeSheet } from '../../shared/types/records'
 import { palette, white } from '../../shared/palette'
 import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
 import { comparisonLine } from './measuredTraces'
+import { renderTraceSvg } from './sheetSvg'
 
 const { ink, temper, bath, alarm } = palette
 
@@ -78,7 +79,7 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
   const measured = (sheet.measuredTraces ?? [])
     .map((trace) => `<p data-trace="${escapeHtml(trace.label)}" style="font-size:14px;margin:0 0 6px;">${escapeHtml(comparisonLine(trace, planned.handling_C))}<br><span style="font-size:12px;color:${ink[600]};">Aligned: ${escapeHtml(trace.alignment)}.</span></p>`)
     .join('')
-  const measuredNote = `<p style="font-size:12px;color:${ink[600]};margin:0;">${sheet.predictedBand ? 'The traces are drawn over the predicted curve and its band in the attached PDF' : 'The traces are drawn over the predicted curve in the attached PDF (the band could not be computed again for this plan revision)'}; the CSV has them beside the predicted curve.</p>`
+  const measuredNote = `<p style="font-size:12px;color:${ink[600]};margin:0;">${sheet.predictedBand ? 'The traces are drawn over the predicted curve (orange) and its band (dotted) above and in the attached PDF' : 'The traces are drawn over the predicted curve (orange) above and in the attached PDF (the band could not be computed again for this plan revision)'}; the CSV has them beside the predicted curve.</p>`
 
   const signOff = sheet.signOffUrl
     ? `<p style="margin:24px 0 0;"><a href="${escapeHtml(sheet.signOffUrl)}" data-role="sign-off" style="display:inline-block;background:${bath[800]};color:${white};text-decoration:none;font-weight:600;padding:10px 18px;border-radius:6px;">Review and sign the record</a></p>`
@@ -95,7 +96,7 @@ ${section('Load', identity)}
 ${section('Times', times + (sheet.handlingNote ? `<p data-handling-note style="font-size:14px;margin:8px 0 0;">${escapeHtml(sheet.handlingNote)}</p>` : ''))}
 ${section('Deviations', deviations)}
 ${section('Predicted cooldown', curveNote)}
-${measured ? section('Measured cooling', measured + measuredNote) : ''}
+${measured ? section('Measured cooling', `<div style="margin:0 0 8px;">${renderTraceSvg(sheet)}</div>` + measured + measuredNote) : ''}
 ${section('Events', events)}
 <div style="margin-top:24px;">${cautions}</div>
 ${signOff}

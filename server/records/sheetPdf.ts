@@ -6,6 +6,7 @@
 import PDFDocument from 'pdfkit'
 import type { CurvePoint, HoldTimeSheet } from '../../shared/types/records'
 import { comparisonLine } from './measuredTraces'
+import { TRACE_COLOURS } from './sheetSvg'
 import { palette } from '../../shared/palette'
 import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
 import { sheetFaces, textRuns, type SheetWeight } from './sheetFonts'
@@ -97,9 +98,6 @@ function niceStep(span: number, count: number): number {
   const fraction = raw / power
   return (fraction <= 1 ? 1 : fraction <= 2 ? 2 : fraction <= 5 ? 5 : 10) * power
 }
-
-/** Measured traces in turn take these colours, none of them the predicted curve's or the band's. */
-const TRACE_COLOURS = [alarm[600], ink[900], bath[800], temper[800]]
 
 function polyline(doc: Doc, points: readonly CurvePoint[], x: (t: number) => number, y: (T: number) => number) {
   if (points.length < 2) return

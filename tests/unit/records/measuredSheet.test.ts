@@ -78,6 +78,13 @@ describe('a sheet with a measured trace', () => {
     expect(html).toContain(line)
     expect(html).toContain('Aligned: the log started at 2026-03-04 09:34:00 UTC, so the quench tap is 1 min 00 s into the log.')
     expect(renderSheetText(sheet)).toContain(`  ${line}`)
+    // The inline chart: the handling line, the band's two ends, the predicted curve and the trace, as vector polylines.
+    const svg = /<svg[^>]*data-chart="measured"[^>]*>.*?<\/svg>/s.exec(html)![0]
+    expect(svg.match(/<polyline /g)).toHaveLength(4)
+    expect(svg).toContain('stroke="#b42828"')
+    // The trace's polyline has one point per kept row from the tap on: 151.
+    const tracePoints = /<polyline fill="none" stroke="#b42828" stroke-width="1.5" points="([^"]+)"/.exec(svg)![1]!.split(' ')
+    expect(tracePoints).toHaveLength(151)
     expect(renderSheetHtml(base)).not.toContain('Measured cooling')
   })
 
