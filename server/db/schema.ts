@@ -374,6 +374,10 @@ export const measurementLogs = mysqlTable(
     mapping: json('mapping').$type<LogMapping>().notNull(),
     time_s: longblob('time_s').notNull(),
     batchId: int('batch_id').references(() => batches.id),
+    /** Alignment on the load's quench tap (server/records/measuredTraces.ts): the instant of the first row, as the uploader gave it… */
+    startedAt: datetime('started_at', { mode: 'date', fsp: 3 }),
+    /** …or the log time (s from the first row) at which the quench was tapped; neither: the first row is the quench tap. */
+    quenchAtLog_s: double('quench_at_log_s'),
     uploadedBy: int('uploaded_by').notNull().references(() => users.id),
     uploadedAt: datetime('uploaded_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
   },

@@ -43,7 +43,16 @@ export interface LogUpload {
   bytes: Uint8Array
   mapping: LogMapping
   batchId?: number
+  /** How the log lines up with the load's quench tap (server/records/measuredTraces.ts); at most one. */
+  startedAt?: Date
+  quenchAtLog_s?: number
 }
+
+/**
+ * Work of another domain that must commit with the stored log (the load's unsigned
+ * record re-issued with the new trace); what it returns joins the upload's audit row.
+ */
+export type AfterLogStored = (tx: Transaction, batchId: number) => Promise<Record<string, unknown> | null>
 
 function conflict(field: string, message: string): never {
   throw createError({ statusCode: 409, statusMessage: message, data: { problems: [{ field, message }] } })
@@ -72,7 +81,14 @@ function rangeOf(values: number[]): { min_C: number; max_C: number } {
   return { min_C, max_C }
 }
 
-async function insertLog(tx: Transaction, upload: LogUpload, preview: LogPreview, series: LogSeries, user: SessionUser): Promise<number> {
+async function insertLog(
+  tx: Transaction,
+  upload: LogUpload,
+  parsed: { preview: LogPreview; series: LogSeries },
+  user: SessionUser,
+  afterStored?: AfterLogStored,
+): Promise<number> {
+  const { preview, series } = parsed
   const { firstRows: _firstRows, ...detected } = preview
   const sha256 = createHash('sha256').update(upload.bytes).digest('hex')
   const [{ id }] = await tx
@@ -87,6 +103,8 @@ async function insertLog(tx: Transaction, upload: LogUpload, preview: LogPreview
       mapping: upload.mapping,
       time_s: toFloat64Blob(series.t_s),
       batchId: upload.batchId ?? null,
+      startedAt: upload.startedAt ?? null,
+      quenchAtLog_s: upload.quenchAtLog_s ?? null,
       uploadedBy: user.id,
     })
     .$returningId()
@@ -98,6 +116,7 @@ async function insertLog(tx: Transaction, upload: LogUpload, preview: LogPreview
     const bytes = Buffer.from(upload.bytes.subarray(part * PART_BYTES, (part + 1) * PART_BYTES))
     await tx.insert(measurementLogParts).values({ logId: id, part, bytes })
   }
+  const followUp = upload.batchId !== undefined && afterStored ? await afterStored(tx, upload.batchId) : null
   await recordAudit(tx, {
     actorId: user.id,
     action: 'log.upload',
@@ -110,13 +129,16 @@ async function insertLog(tx: Transaction, upload: LogUpload, preview: LogPreview
       rows: series.t_s.length,
       mapping: upload.mapping,
       batchId: upload.batchId ?? null,
+      startedAt: upload.startedAt?.toISOString() ?? null,
+      quenchAtLog_s: upload.quenchAtLog_s ?? null,
+      ...(followUp ? { record: followUp } : {}),
     },
   })
   return id
 }
 
 /** Parses the file under its mapping and stores it; refusals store nothing. */
-export async function storeLog(upload: LogUpload, user: SessionUser): Promise<LogSummary> {
+export async function storeLog(upload: LogUpload, user: SessionUser, afterStored?: AfterLogStored): Promise<LogSummary> {
   let parsed: Awaited<ReturnType<typeof readLog>>
   try {
     parsed = await readLog(upload.bytes, upload.mapping)
@@ -125,7 +147,7 @@ export async function storeLog(upload: LogUpload, user: SessionUser): Promise<Lo
   }
   const id = await useDb().transaction(async (tx) => {
     await checkLoad(tx, upload.batchId, user)
-    return await insertLog(tx, upload, parsed.preview, parsed.series, user)
+    return await insertLog(tx, upload, parsed, user, afterStored)
   })
   return await readLogSummary(id)
 }
@@ -138,12 +160,15 @@ const summaryColumns = {
   rows: measurementLogs.rows,
   duration_s: measurementLogs.duration_s,
   batchId: measurementLogs.batchId,
+  startedAt: measurementLogs.startedAt,
+  quenchAtLog_s: measurementLogs.quenchAtLog_s,
   loadNumber: batches.loadNumber,
   uploadedBy: users.displayName,
   uploadedAt: measurementLogs.uploadedAt,
 }
 
-type SummaryRow = Pick<MeasurementLogRow, 'id' | 'fileName' | 'size_bytes' | 'sha256' | 'rows' | 'duration_s' | 'batchId' | 'uploadedAt'> & {
+type SummaryColumn = 'id' | 'fileName' | 'size_bytes' | 'sha256' | 'rows' | 'duration_s' | 'batchId' | 'startedAt' | 'quenchAtLog_s' | 'uploadedAt'
+type SummaryRow = Pick<MeasurementLogRow, SummaryColumn> & {
   loadNumber: string | null
   uploadedBy: string
 }
@@ -163,7 +188,12 @@ async function withChannelNames(rows: SummaryRow[]): Promise<LogSummary[]> {
     .from(measurementLogChannels)
     .where(inArray(measurementLogChannels.logId, rows.map((r) => r.id)))
     .orderBy(measurementLogChannels.logId, measurementLogChannels.position)
-  return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString(), channels: names.filter((n) => n.logId === r.id).map((n) => n.name) }))
+  return rows.map((r) => ({
+    ...r,
+    startedAt: r.startedAt?.toISOString() ?? null,
+    uploadedAt: r.uploadedAt.toISOString(),
+    channels: names.filter((n) => n.logId === r.id).map((n) => n.name),
+  }))
 }
 
 /** Logs newest first; `batchId` narrows to one load's. */

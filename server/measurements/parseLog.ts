@@ -135,7 +135,11 @@ async function parseText(bytes: Uint8Array): Promise<Parsed> {
     role: i === timeIndex && timeFormat ? 'time' : NUMBER.test(first[i] ?? '') ? 'temperature' : 'other',
     unit: i === timeIndex ? null : unitOf(name),
   }))
-  return { preview: { delimiter, decimalComma, timeFormat, columns, rows: body.length, firstRows: [header, ...body.slice(0, PREVIEW_ROWS)] }, header, body }
+  // Date-times carry no zone in loggers' files: secondsOf reads them as UTC, so the ISO text is the wall clock as written.
+  const firstSeconds = timeFormat === 'date-time' ? secondsOf(first[timeIndex]!, 'date-time') : null
+  const firstDateTime = firstSeconds === null ? null : new Date(firstSeconds * 1000).toISOString().slice(0, 23)
+  const firstRows = [header, ...body.slice(0, PREVIEW_ROWS)]
+  return { preview: { delimiter, decimalComma, timeFormat, columns, rows: body.length, firstRows, firstDateTime }, header, body }
 }
 
 /** What the file holds, for the person to confirm before anything is stored. */

@@ -95,7 +95,7 @@ export function heatUpCase(plan: ResolvedPlan) {
   }
 }
 
-function productInput(plan: ResolvedPlan, choice?: CoefficientChoice): ProductInput {
+export function productInput(plan: ResolvedPlan, choice?: CoefficientChoice): ProductInput {
   const body = engineBody(plan.part)
   if (body.kind !== 'product') throw new Error('productInput is for short cylinders and blocks')
   const m = plan.library.material

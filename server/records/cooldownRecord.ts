@@ -20,8 +20,10 @@ import type { RecordIntegrity, RecordSnapshot, SnapshotEvent } from '../../share
 import type { CurvePoint, EventCorrection, HoldTimeSheet, RecordEventType } from '../../shared/types/records'
 import { canonicalJson, hmacSha256Hex, verifyRecordSeal } from './canonical'
 import { STANDARD_CAUTIONS } from './cautions'
-import { deviationPlanFromSummary, findDeviations, measureTimes } from './deviations'
+import { deviationPlanFromSummary, findDeviations, findTraceDeviations, measureTimes, type TracePlan } from './deviations'
 import { formatSpan } from './format'
+import { alignedTraces, measuredTrace, type LoadLog } from './measuredTraces'
+import { bandCurves, slowEndAt, type BandSeries } from './predictedBand'
 
 /** Who a predicted moment is attributed to on the sheet. */
 export const CLOCK_NAME = 'Slakewise (plan clock)'
@@ -54,6 +56,35 @@ export interface SnapshotInput {
   /** Corrections of the events, oldest first. */
   corrections: { eventId: number; correctedAt: Date; reason: string; actorName: string; createdAt: Date }[]
   releasedBy: { id: number; name: string }
+  /** The logs attached to the load, oldest first; their traces go on the record. */
+  logs?: LoadLog[]
+  /** The quench band's ends (predictedBand.ts), computed when the load has logs; null when it could not be. */
+  band?: BandSeries | null
+}
+
+/**
+ * The measured part of a record: traces, the band over the span they are shown on, and
+ * the trace rules' deviations. The span reaches past the release so the release tap's
+ * reading and the band at that moment are on the chart.
+ */
+function measuredSection(input: SnapshotInput, quenched_ms: number, released_ms: number) {
+  const logs = input.logs ?? []
+  if (logs.length === 0) return null
+  const band = input.band ?? null
+  const quenchToRelease_s = (released_ms - quenched_ms) / 1000
+  const plan: TracePlan = {
+    handling_C: input.revision.summary.handling_C,
+    quenchToHandling_s: input.batch.quenchToHandling_s,
+    quenchToRelease_s,
+    slowEnd_C: band ? (t) => slowEndAt(band, t) : null,
+  }
+  const span_s = Math.max(input.batch.quenchToHandling_s * 1.25, quenchToRelease_s * 1.1)
+  const traces = alignedTraces(logs, quenched_ms)
+  return {
+    traces: traces.map((trace) => measuredTrace(trace, plan, span_s)),
+    band: band ? bandCurves(band, span_s) : null,
+    deviations: findTraceDeviations(plan, traces),
+  }
 }
 
 /** About 120 points over 1.25 × the predicted time to handling, at least one per second of span. */
@@ -122,6 +153,7 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
   plan.minimumSoak_s = batch.minimumSoak_s
   plan.quenchToHandling_s = batch.quenchToHandling_s
   const spec = revision.spec as { start_C?: number }
+  const measured = measuredSection(input, quenched, released)
   return {
     format: 2,
     batch: {
@@ -150,11 +182,13 @@ export function buildSnapshot(input: SnapshotInput): RecordSnapshot {
       soakEnd: iso(soakEnd),
       handlingAt: iso(afterQuench.handlingAt),
       curve: predictedCurve(revision.summary, batch.quenchToHandling_s),
+      ...(measured?.band ? { band: measured.band } : {}),
     },
     events,
     notRecorded: EXPECTED_TAPS.filter((type) => tapAt(type) === null),
     measured: measureTimes(taps),
-    deviations: findDeviations(plan, taps),
+    ...(measured ? { measuredTraces: measured.traces } : {}),
+    deviations: [...findDeviations(plan, taps), ...(measured?.deviations ?? [])],
     releasedAt: iso(released),
     releasedBy: input.releasedBy,
   }
@@ -204,6 +238,8 @@ export function sheetFromSnapshot(snapshot: RecordSnapshot, shopName: string, si
     handlingNote: p.handlingBasis && p.headlineToHandling_s !== undefined ? `Predicted handling time: ${p.handlingBasis}; headline estimate ${formatSpan(p.headlineToHandling_s)}.` : null,
     measured: snapshot.measured,
     predictedCurve: p.curve,
+    ...(p.band ? { predictedBand: p.band } : {}),
+    ...(snapshot.measuredTraces ? { measuredTraces: snapshot.measuredTraces } : {}),
     events: snapshot.events.map(({ actorId: _actorId, ...event }) => event),
     notRecorded: snapshot.notRecorded,
     deviations: snapshot.deviations,

@@ -1,7 +1,22 @@
-import { and, asc, desc, eq, gte, lt, sql, type SQL } from 'drizzle-orm'
+import { and, asc, desc, eq, gte, inArray, lt, sql, type SQL } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database, Transaction } from '../db/client'
-import { batchEventCorrections, batchEvents, batches, cooldownRecords, furnaces, planRevisions, plans, users, type CooldownRecordRow } from '../db/schema'
+import {
+  batchEventCorrections,
+  batchEvents,
+  batches,
+  cooldownRecords,
+  furnaces,
+  measurementLogChannels,
+  measurementLogs,
+  planRevisions,
+  plans,
+  users,
+  type CooldownRecordRow,
+} from '../db/schema'
+import { fromFloat64Blob } from '../measurements/float64Blob'
+import type { LoadLog } from './measuredTraces'
+import { bandSeriesOf } from './predictedBand'
 import { recordSeal } from './canonical'
 import { recordUrl, sealKeyOf, type RecordConfig } from './config'
 import { buildSnapshot, checkIntegrity, sheetFromSnapshot, signatureSeal, type Decision } from './cooldownRecord'
@@ -73,15 +88,38 @@ export async function writeCooldownRecord(
   return { id, hash, outboxId: queued.id }
 }
 
-/** The snapshot of a batch as its events and corrections stand in `tx`. */
+/** The logs attached to a batch, oldest first, with their full series. */
+async function loadLogsOf(tx: Transaction, batchId: number): Promise<LoadLog[]> {
+  const logs = await tx.select().from(measurementLogs).where(eq(measurementLogs.batchId, batchId)).orderBy(asc(measurementLogs.id))
+  if (logs.length === 0) return []
+  const channels = await tx
+    .select()
+    .from(measurementLogChannels)
+    .where(inArray(measurementLogChannels.logId, logs.map((log) => log.id)))
+    .orderBy(asc(measurementLogChannels.logId), asc(measurementLogChannels.position))
+  return logs.map((log) => ({
+    id: log.id,
+    fileName: log.fileName,
+    sha256: log.sha256,
+    startedAt: log.startedAt,
+    quenchAtLog_s: log.quenchAtLog_s,
+    t_s: fromFloat64Blob(log.time_s),
+    channels: channels.filter((c) => c.logId === log.id).map((c) => ({ name: c.name, T_C: fromFloat64Blob(c.T_C) })),
+  }))
+}
+
+/** The snapshot of a batch as its events, corrections and logs stand in `tx`. */
 async function snapshotOf(tx: Transaction, batchId: number, releasedBy: { id: number; name: string }): Promise<RecordSnapshot> {
   const [found] = await selectBatchesInContext(tx).where(eq(batches.id, batchId))
   if (!found) throw new Error(`Batch ${batchId} not found`)
   const summary = readSummary(found.revision.summary)
   if (!summary) throw new Error(`Plan revision ${found.revision.id} has no usable summary`)
   const [{ spec }] = await tx.select({ spec: planRevisions.spec }).from(planRevisions).where(eq(planRevisions.id, found.revision.id))
-  const [events, corrections] = await Promise.all([batchEventsOf(tx, batchId), correctionsOf(tx, batchId)])
+  const [events, corrections, logs] = await Promise.all([batchEventsOf(tx, batchId), correctionsOf(tx, batchId), loadLogsOf(tx, batchId)])
   return buildSnapshot({
+    logs,
+    // The band is run again only for a load with a log: the planner's summary keeps its times, not its curves.
+    band: logs.length ? bandSeriesOf(spec) : null,
     batch: found.batch,
     furnace: found.furnace,
     station: found.station,

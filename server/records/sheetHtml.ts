@@ -5,6 +5,8 @@
 import type { HoldTimeSheet } from '../../shared/types/records'
 import { palette, white } from '../../shared/palette'
 import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
+import { comparisonLine } from './measuredTraces'
+import { renderTraceSvg } from './sheetSvg'
 
 const { ink, temper, bath, alarm } = palette
 
@@ -74,6 +76,11 @@ export function renderSheetHtml(sheet: HoldTimeSheet): string {
     ? `<p style="font-size:14px;color:${ink[600]};margin:0;">${sheet.predictedCurve.length} predicted points from ${formatTemperature(sheet.predictedCurve[0]!.T_C)} at the quench to ${formatTemperature(last.T_C)} after ${formatSpan(last.t_s)}; the full curve is in the attached PDF and CSV.</p>`
     : ''
 
+  const measured = (sheet.measuredTraces ?? [])
+    .map((trace) => `<p data-trace="${escapeHtml(trace.label)}" style="font-size:14px;margin:0 0 6px;">${escapeHtml(comparisonLine(trace, planned.handling_C))}<br><span style="font-size:12px;color:${ink[600]};">Aligned: ${escapeHtml(trace.alignment)}.</span></p>`)
+    .join('')
+  const measuredNote = `<p style="font-size:12px;color:${ink[600]};margin:0;">${sheet.predictedBand ? 'The traces are drawn over the predicted curve (orange) and its band (dotted) above and in the attached PDF' : 'The traces are drawn over the predicted curve (orange) above and in the attached PDF (the band could not be computed again for this plan revision)'}; the CSV has them beside the predicted curve.</p>`
+
   const signOff = sheet.signOffUrl
     ? `<p style="margin:24px 0 0;"><a href="${escapeHtml(sheet.signOffUrl)}" data-role="sign-off" style="display:inline-block;background:${bath[800]};color:${white};text-decoration:none;font-weight:600;padding:10px 18px;border-radius:6px;">Review and sign the record</a></p>`
     : ''
@@ -89,6 +96,7 @@ ${section('Load', identity)}
 ${section('Times', times + (sheet.handlingNote ? `<p data-handling-note style="font-size:14px;margin:8px 0 0;">${escapeHtml(sheet.handlingNote)}</p>` : ''))}
 ${section('Deviations', deviations)}
 ${section('Predicted cooldown', curveNote)}
+${measured ? section('Measured cooling', `<div style="margin:0 0 8px;">${renderTraceSvg(sheet)}</div>` + measured + measuredNote) : ''}
 ${section('Events', events)}
 <div style="margin-top:24px;">${cautions}</div>
 ${signOff}
@@ -115,6 +123,9 @@ export function renderSheetText(sheet: HoldTimeSheet): string {
     '',
     'Deviations:',
     ...(sheet.deviations.length ? sheet.deviations.map((deviation) => `  - ${deviation.message}`) : ['  none']),
+    ...(sheet.measuredTraces?.length
+      ? ['', 'Measured cooling:', ...sheet.measuredTraces.flatMap((trace) => [`  ${comparisonLine(trace, planned.handling_C)}`, `    Aligned: ${trace.alignment}.`])]
+      : []),
     '',
     'Events:',
     ...sheet.notRecorded.map((type) => `  ${notRecordedLine(type)}`),

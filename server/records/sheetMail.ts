@@ -27,7 +27,7 @@ export async function holdTimeSheetMail(sheet: HoldTimeSheet, to: string[], dedu
     text: renderSheetText(sheet),
     attachments: [
       { filename: names.pdf, contentType: 'application/pdf', content: await renderSheetPdf(sheet) },
-      { filename: names.csv, contentType: 'text/csv; charset=utf-8', content: renderCurveCsv(sheet.predictedCurve) },
+      { filename: names.csv, contentType: 'text/csv; charset=utf-8', content: renderCurveCsv(sheet.predictedCurve, { band: sheet.predictedBand, traces: sheet.measuredTraces }) },
     ],
   }
 }

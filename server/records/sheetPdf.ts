@@ -5,6 +5,8 @@
  */
 import PDFDocument from 'pdfkit'
 import type { CurvePoint, HoldTimeSheet } from '../../shared/types/records'
+import { comparisonLine } from './measuredTraces'
+import { TRACE_COLOURS } from './sheetSvg'
 import { palette } from '../../shared/palette'
 import { eventWhat, eventWhen, formatInstant, formatSpan, formatTemperature, notRecordedLine, spanRows } from './format'
 import { sheetFaces, textRuns, type SheetWeight } from './sheetFonts'
@@ -97,14 +99,28 @@ function niceStep(span: number, count: number): number {
   return (fraction <= 1 ? 1 : fraction <= 2 ? 2 : fraction <= 5 ? 5 : 10) * power
 }
 
-function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, quenchToHandling_s: number) {
+function polyline(doc: Doc, points: readonly CurvePoint[], x: (t: number) => number, y: (T: number) => number) {
+  if (points.length < 2) return
+  doc.moveTo(x(points[0]!.t_s), y(points[0]!.T_C))
+  for (const point of points.slice(1)) doc.lineTo(x(point.t_s), y(point.T_C))
+  doc.stroke()
+}
+
+function drawCurve(doc: Doc, sheet: HoldTimeSheet) {
+  const curve = sheet.predictedCurve
+  const { handling_C, quenchToHandling_s } = sheet.planned
+  const band = sheet.predictedBand
+  const traces = sheet.measuredTraces ?? []
   const height = 200
-  ensureRoom(doc, height + 40)
+  ensureRoom(doc, height + 40 + 12 * traces.length)
   const left = MARGIN + 40
   const top = doc.y + 6
   const width = doc.page.width - MARGIN - left
-  const tMax = Math.max(quenchToHandling_s, ...curve.map((p) => p.t_s))
-  const temps = [handling_C, ...curve.map((p) => p.T_C)]
+  // Rows logged before the quench are left off the chart, whose clock starts at the tap.
+  const shown = traces.map((trace) => trace.points.filter((p) => p.t_s >= 0))
+  const all = [...curve, ...(band ? [...band.slow, ...band.fast] : []), ...shown.flat()]
+  const tMax = Math.max(quenchToHandling_s, ...all.map((p) => p.t_s))
+  const temps = [handling_C, ...all.map((p) => p.T_C)]
   const stepT = niceStep(Math.max(...temps) - Math.min(...temps) || 1, 5)
   const TMin = Math.floor(Math.min(...temps) / stepT) * stepT
   const TMax = Math.ceil(Math.max(...temps) / stepT) * stepT
@@ -133,14 +149,30 @@ function drawCurve(doc: Doc, curve: readonly CurvePoint[], handling_C: number, q
   doc.fillColor(bath[600])
   write(doc, 'regular', `handling ${formatTemperature(handling_C)} at ${formatSpan(quenchToHandling_s)}`, { x: x(quenchToHandling_s) + 4, y: y(handling_C) - 12 })
 
-  if (curve.length > 1) {
-    doc.lineWidth(1.6).strokeColor(temper[400]).lineJoin('round')
-    doc.moveTo(x(curve[0]!.t_s), y(curve[0]!.T_C))
-    for (const point of curve.slice(1)) doc.lineTo(x(point.t_s), y(point.T_C))
-    doc.stroke()
+  if (band) {
+    // The band's ends as thin dotted lines: the slow end is what the release is judged against.
+    doc.lineWidth(0.8).strokeColor(temper[600]).dash(1.5, { space: 2 })
+    polyline(doc, band.slow, x, y)
+    polyline(doc, band.fast, x, y)
+    doc.undash()
   }
+  doc.lineWidth(1.6).strokeColor(temper[400]).lineJoin('round')
+  polyline(doc, curve, x, y)
+  shown.forEach((points, i) => {
+    doc.lineWidth(1.2).strokeColor(TRACE_COLOURS[i % TRACE_COLOURS.length]!)
+    polyline(doc, points, x, y)
+  })
   doc.x = MARGIN
   doc.y = top + height + 32
+  if (traces.length) {
+    doc.fontSize(8)
+    doc.fillColor(temper[600])
+    write(doc, 'regular', `Orange: predicted handling point${band ? '; dotted: the quench band\'s slow and fast ends' : ''}.`, { x: MARGIN })
+    traces.forEach((trace, i) => {
+      doc.fillColor(TRACE_COLOURS[i % TRACE_COLOURS.length]!)
+      write(doc, 'regular', `Measured: ${trace.label}`, { x: MARGIN })
+    })
+  }
 }
 
 export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): Promise<Buffer> {
@@ -194,8 +226,18 @@ export function renderSheetPdf(sheet: HoldTimeSheet, options: PdfOptions = {}): 
     for (const deviation of sheet.deviations) write(doc, 'regular', `•  ${deviation.message}`, { width: contentWidth })
   }
 
-  heading(doc, 'Predicted handling-point temperature')
-  drawCurve(doc, sheet.predictedCurve, planned.handling_C, planned.quenchToHandling_s)
+  heading(doc, sheet.measuredTraces?.length ? 'Predicted and measured handling-point temperature' : 'Predicted handling-point temperature')
+  drawCurve(doc, sheet)
+  if (sheet.measuredTraces?.length) {
+    heading(doc, 'Measured cooling')
+    for (const trace of sheet.measuredTraces) {
+      doc.fontSize(10).fillColor(ink[900])
+      write(doc, 'regular', comparisonLine(trace, planned.handling_C), { x: MARGIN, width: contentWidth })
+      doc.fontSize(8).fillColor(ink[600])
+      write(doc, 'regular', `Aligned: ${trace.alignment}.`, { x: MARGIN, width: contentWidth })
+      doc.moveDown(0.3)
+    }
+  }
 
   heading(doc, 'Events')
   doc.fontSize(10).fillColor(alarm[600])

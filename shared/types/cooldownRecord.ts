@@ -3,7 +3,7 @@
  * the floor recorded, what deviated) that QA signs. Written once by the server when
  * the load is released; see server/records/cooldownRecord.ts.
  */
-import type { CurvePoint, Deviation, MeasuredTimes, RecordEvent, RecordEventType } from './records'
+import type { CurvePoint, Deviation, MeasuredTimes, MeasuredTrace, PredictedBand, RecordEvent, RecordEventType } from './records'
 
 export const RECORD_STATES = ['unsigned', 'approved', 'rejected'] as const
 export type RecordState = (typeof RECORD_STATES)[number]
@@ -62,10 +62,17 @@ export interface RecordSnapshot {
     handlingAt: string
     /** Handling-point temperature after the quench starts. */
     curve: CurvePoint[]
+    /** The quench band's ends at the handling point, on records with measured traces when it could be computed. */
+    band?: PredictedBand
   }
   events: SnapshotEvent[]
   notRecorded: RecordEventType[]
   measured: MeasuredTimes
+  /**
+   * The load's logs, channel by channel, on the quench's clock (server/records/measuredTraces.ts);
+   * absent when no log was attached. Logs close with the sign-off, so the seal covers them.
+   */
+  measuredTraces?: MeasuredTrace[]
   deviations: Deviation[]
   releasedAt: string
   releasedBy: { id: number; name: string }

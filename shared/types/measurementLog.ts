@@ -20,6 +20,11 @@ export interface LogPreview {
   columns: LogColumn[]
   rows: number
   firstRows: string[][]
+  /**
+   * The first row's date-time as the file wrote it, without a zone ("2026-03-04T06:15:00.000"),
+   * for the upload form to read in the uploader's time zone; null unless the time column holds date-times.
+   */
+  firstDateTime: string | null
 }
 
 /** The person's confirmed reading of a file: which column is time, which are channels and in what unit. */
@@ -38,6 +43,9 @@ export interface LogSummary {
   duration_s: number
   channels: string[]
   batchId: number | null
+  /** Alignment on the load's quench tap, as the uploader gave it: the first row's instant, or the quench's log time. */
+  startedAt: string | null
+  quenchAtLog_s: number | null
   loadNumber: string | null
   uploadedBy: string
   uploadedAt: string

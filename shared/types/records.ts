@@ -68,18 +68,58 @@ export interface DeviationPlan {
   quenchToHandling_s: number
 }
 
-export const DEVIATION_RULES = ['short_heat_up', 'short_soak', 'quench_delay', 'early_release'] as const
+export const DEVIATION_RULES = ['short_heat_up', 'short_soak', 'quench_delay', 'early_release', 'above_band_at_release', 'slow_cooling'] as const
 export type DeviationRule = (typeof DEVIATION_RULES)[number]
 
 export interface Deviation {
   rule: DeviationRule
-  /** The plan's limit: the predicted heat-up, the planned soak, the allowance, or the safe-to-handle time. */
+  /**
+   * The plan's limit: the predicted heat-up, the planned soak, the allowance, or the safe-to-handle time.
+   * For `above_band_at_release`, the moment judged: quench to release.
+   */
   planned_s: number
-  /** What the recorded events give for the same span. */
+  /** What the recorded events (or, for `slow_cooling`, the measured trace) give for the same span. */
   actual_s: number
-  /** How far past the limit, always positive. */
+  /** How far past the limit, always positive; 0 for `above_band_at_release`, whose excess is in kelvin. */
   excess_s: number
+  /** The measured trace a trace rule judged ("file · channel"). */
+  trace?: string
+  /** `above_band_at_release`: the band's slow end and the measured reading at the release tap. */
+  limit_C?: number
+  measured_C?: number
   message: string
+}
+
+/**
+ * One channel of a load's log on its record: seconds from the recorded quench tap
+ * (negative before it), °C. `alignment` says in words how log time met the tap.
+ */
+export interface MeasuredTrace {
+  logId: number
+  fileName: string
+  sha256: string
+  channel: string
+  label: string
+  /** Log time (s from the log's first row) at which the quench tap was recorded. */
+  quenchAtLog_s: number
+  alignment: string
+  /** Thinned for display; the rules judged every logged row. */
+  points: CurvePoint[]
+  comparison: TraceComparison
+}
+
+/** The measured trace against the plan, the numbers the sheet's comparison line gives. */
+export interface TraceComparison {
+  /** Measured at the release tap; null when the log does not cover it. */
+  atRelease_C: number | null
+  /** The band's slow end at the release tap; null without a band. */
+  slowEndAtRelease_C: number | null
+  /** First time at or below the handling temperature after the quench; null when the log never gets there. */
+  reachedHandling_s: number | null
+  /** Predicted quench to handling (the booked time the record shows). */
+  predictedHandling_s: number
+  /** The log's last row, seconds after the quench. */
+  logEnd_s: number
 }
 
 /** Spans measured from the recorded events; null where the events needed are missing. */
@@ -94,6 +134,12 @@ export interface CurvePoint {
   /** Seconds from the start of the quench. */
   t_s: number
   T_C: number
+}
+
+/** The handling point with every quenchant at the band's ends: `slow` is the hotter of the two at each time. */
+export interface PredictedBand {
+  slow: CurvePoint[]
+  fast: CurvePoint[]
 }
 
 export interface HoldTimeSheet {
@@ -111,6 +157,10 @@ export interface HoldTimeSheet {
   measured: MeasuredTimes
   /** Predicted handling-point temperature after the quench starts. */
   predictedCurve: CurvePoint[]
+  /** The quench band's slow and fast ends at the handling point, when the record has measured traces. */
+  predictedBand?: PredictedBand
+  /** Measured traces of the load's logs, each with its comparison line. */
+  measuredTraces?: MeasuredTrace[]
   events: RecordEvent[]
   /** Floor moments the record expected but nobody tapped (e.g. the door opening): said, never derived. */
   notRecorded: RecordEventType[]

@@ -17,6 +17,7 @@ import {
   thinSheetSpec,
 } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
+import { move } from '../support/records'
 
 const browser = useBrowser()
 let admin: Client
@@ -225,6 +226,26 @@ describe('the floor on a 1920×1080 desktop', () => {
     expect(event.originalAt).toBe(tapped.at)
     expect(event.at).toBe(new Date(Math.floor(corrected.getTime() / 1000) * 1000).toISOString())
     expect(event.corrections).toEqual([expect.objectContaining({ reason: 'Door log shows the charge 7 s earlier', by: 'Tomas Vidal' })])
+    await page.context().close()
+  })
+
+  it('an operator attaches a thermocouple log from a charged load\'s card; it is stored on the load', async () => {
+    const { line, batch } = await bookOnNewLine()
+    const operator = await signInDemo('operator')
+    expect((await move(operator, batch.id, 'charged')).status).toBe(201)
+    const page = await browser.tabletPage()
+    await signInThroughPage(page, 'operator', '/floor')
+    await page.getByRole('button', { name: line.furnace.name }).click()
+    const card = page.getByTestId(`card-${batch.loadNumber}`)
+    await card.getByTestId('card-attach-log').click()
+    await card.getByTestId('log-file').setInputFiles({ name: `${batch.loadNumber}.csv`, mimeType: 'text/csv', buffer: Buffer.from('t_s,TC1 (°C)\n0,850\n1,840\n2,831\n') })
+    await card.getByTestId('log-preview').waitFor()
+    expect(await card.locator('input[name="align"][value="first-row"]').isChecked()).toBe(true)
+    await card.getByTestId('log-store').click()
+    await card.getByTestId('card-message').filter({ hasText: `Log ${batch.loadNumber}.csv attached to ${batch.loadNumber}.` }).waitFor()
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/floor-log-attached.png` })
+    const logs = (await operator.request(`/api/logs?batchId=${batch.id}`)).body
+    expect(logs).toEqual([expect.objectContaining({ fileName: `${batch.loadNumber}.csv`, rows: 3, channels: ['TC1 (°C)'], startedAt: null, quenchAtLog_s: null })])
     await page.context().close()
   })
 })

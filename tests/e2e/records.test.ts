@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { createHmac } from 'node:crypto'
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { canonicalJson } from '../../server/records/canonical'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
 import { demoUser, signInDemo } from '../support/http'
@@ -139,5 +142,43 @@ describe('the record of a load with an early tap, a correction and no door tap',
     expect(await tablet.getByTestId('record-chart-key').textContent()).toContain('predicted')
     await tablet.screenshot({ path: `${SCREENSHOT_DIR}/record-truth-tablet.png`, fullPage: true })
     await tablet.context().close()
+  })
+})
+
+describe('a load log on the record', () => {
+  it('an operator attaches a log from the load\'s page; QA reads the measured trace over the band and its deviations', async () => {
+    const [admin, metallurgist, operator, qa] = await Promise.all([signInDemo('admin'), signInDemo('metallurgist'), signInDemo('operator'), signInDemo('qa')])
+    const plan = await quickPlan(metallurgist, await createLibraryFixture(metallurgist), 60)
+    const released = await releaseLoad({ admin, metallurgist, recorder: operator, reader: qa }, plan, 2500)
+    // 1 s rows for 2 min, 850 °C falling 4 K a second, the quench tapped 10 s in: far slower than the 2 mm sheet's plan.
+    const rows = Array.from({ length: 121 }, (_, t) => `${t},${850 - 4 * t}`)
+    const file = join(mkdtempSync(join(tmpdir(), 'load-log-')), `${released.loadNumber}-core.csv`)
+    writeFileSync(file, ['time_s,Core (°C)', ...rows].join('\n') + '\n')
+
+    const tablet = await browser.tabletPage()
+    await signInThroughPage(tablet, 'operator', `/schedule/${released.batchId}`)
+    await tablet.getByTestId('attach-log').click()
+    await tablet.getByTestId('log-file').setInputFiles(file)
+    await tablet.getByTestId('log-preview').waitFor()
+    await tablet.locator('input[name="align"][value="offset"]').check()
+    await tablet.locator('input[name="quenchAtLog_s"]').fill('10')
+    await tablet.getByTestId('log-store').click()
+    await tablet.getByRole('status').filter({ hasText: `${released.loadNumber}-core.csv attached to ${released.loadNumber}.` }).waitFor()
+    await tablet.locator(`[data-testid="batch-logs"] tr[data-log="${released.loadNumber}-core.csv"]`).waitFor()
+    await tablet.context().close()
+
+    const listed = (await qa.request('/api/records?state=unsigned&limit=500')).body as { id: number; loadNumber: string }[]
+    const recordId = listed.find((r) => r.loadNumber === released.loadNumber)!.id
+    const page = await browser.desktopPage()
+    await signInThroughPage(page, 'qa', `/records/${recordId}`)
+    expect(await page.getByTestId('record-integrity').getAttribute('data-integrity')).toBe('intact')
+    await page.getByTestId('record-curve-chart').locator('canvas').waitFor()
+    expect(await page.getByTestId('record-curve-chart').getAttribute('data-traces')).toBe('1')
+    const trace = page.getByTestId('record-measured').locator(`tr[data-trace="${released.loadNumber}-core.csv · Core (°C)"]`)
+    await expect(trace.textContent()).resolves.toContain('the quench tap is 10 s into the log, as the uploader gave it')
+    const rules = await page.getByTestId('record-deviations').locator('li').evaluateAll((items) => items.map((item) => item.getAttribute('data-rule')))
+    expect(rules).toEqual(['above_band_at_release', 'slow_cooling'])
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/record-measured-trace.png`, fullPage: true })
+    await page.context().close()
   })
 })

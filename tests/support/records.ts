@@ -38,6 +38,8 @@ export interface FloorRun {
   transferWait_ms?: number
   /** False: the door opening is not tapped, the quench is recorded straight from soak. */
   door?: boolean
+  /** Runs after the quench tap, before the release (a log attached while the load cools). */
+  beforeRelease?: (batchId: number) => Promise<void>
 }
 
 /**
@@ -68,6 +70,7 @@ export async function releaseLoad(
   } else {
     expect((await tapConfirmingShortfall(recorder, batchId, 'quenched')).status).toBe(201)
   }
+  await run.beforeRelease?.(batchId)
   // Straight after the quench the core is still hot: the release is refused.
   let release = await move(recorder, batchId, 'released')
   expect(release.status).toBe(409)

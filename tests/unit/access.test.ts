@@ -61,6 +61,9 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/schedule/plan-revisions', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
     { call: 'PATCH /api/batches/[id]', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
     { call: 'POST /api/batches', via: 'components/schedule/ScheduleBookingForm.vue', when: 'schedule.book' },
+    { call: 'GET /api/logs' },
+    { call: 'POST /api/logs/preview', via: 'components/log/LogUploadForm.vue', when: 'logs.attach' },
+    { call: 'POST /api/logs', via: 'components/log/LogUploadForm.vue', when: 'logs.attach' },
   ],
   'pages/floor.vue': [
     { call: 'GET /api/furnaces' },
@@ -68,6 +71,8 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'GET /api/floor/curves', via: 'composables/useFloorCurves.ts' },
     { call: 'POST /api/batches/[id]/events', when: 'floor.record' },
     { call: 'POST /api/batches/[id]/events/[eventId]/corrections', via: 'components/batch/BatchTapCorrection.vue' },
+    { call: 'POST /api/logs/preview', via: 'components/log/LogUploadForm.vue', when: 'logs.attach' },
+    { call: 'POST /api/logs', via: 'components/log/LogUploadForm.vue', when: 'logs.attach' },
   ],
   'pages/records/index.vue': [{ call: 'GET /api/records' }, { call: 'GET /api/furnaces' }],
   'pages/records/[id].vue': [

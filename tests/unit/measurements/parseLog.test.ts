@@ -41,6 +41,12 @@ describe('reading a logger export', () => {
     expect(series.t_s).toEqual([0, 5])
   })
 
+  it('gives the first row\'s date-time as written, without a zone, for the form to read in local time', async () => {
+    expect((await previewLog(utf8('Timestamp,TC (C)\n2026-12-01 23:59:58.5,900\n2026-12-02 00:00:03,880\n'))).firstDateTime).toBe('2026-12-01T23:59:58.500')
+    expect((await previewLog(utf8('Date;Core °C\n01.12.2026 08:00:00;850\n01.12.2026 08:00:10;700\n'))).firstDateTime).toBe('2026-12-01T08:00:00.000')
+    expect((await previewLog(utf8('t (s),TC (C)\n0,900\n5,880\n'))).firstDateTime).toBeNull()
+  })
+
   it('day-first date-times and UTF-16 with a byte-order mark', async () => {
     const text = 'Date;Core °C\n01.12.2026 08:00:00;850\n01.12.2026 08:00:10;700\n'
     const body = new Uint8Array(2 + text.length * 2)
