@@ -41,6 +41,8 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
         density_kg_m3: material.density_kg_m3,
         specificHeat_J_kgK: material.specificHeat_J_kgK,
         gradedProfile: material.gradedProfile ?? null,
+        propertyTable: material.propertyTable ?? null,
+        propertyTableSource: material.propertyTableSource ?? null,
         source: material.source,
       },
       quenchants: rows.map((q) => ({
@@ -51,6 +53,9 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
         hTypical_W_m2K: q.hTypical_W_m2K,
         hHigh_W_m2K: q.hHigh_W_m2K,
         bath_C: q.bath_C,
+        coolingCurves: q.coolingCurves ?? null,
+        emissivity: q.emissivity ?? null,
+        curveSource: q.curveSource ?? null,
         source: q.source,
       })),
     },
