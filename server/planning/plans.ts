@@ -291,6 +291,7 @@ export async function planLibraryOptions() {
         density_kg_m3: materials.density_kg_m3,
         specificHeat_J_kgK: materials.specificHeat_J_kgK,
         gradedProfile: materials.gradedProfile,
+        propertyTable: materials.propertyTable,
       })
       .from(materials)
       .orderBy(materials.name),
@@ -303,12 +304,13 @@ export async function planLibraryOptions() {
         hTypical_W_m2K: quenchants.hTypical_W_m2K,
         hHigh_W_m2K: quenchants.hHigh_W_m2K,
         bath_C: quenchants.bath_C,
+        coolingCurves: quenchants.coolingCurves,
       })
       .from(quenchants)
       .orderBy(quenchants.name),
   ])
   return {
-    materials: materialRows.map(({ gradedProfile, ...m }) => ({ ...m, graded: !!gradedProfile })),
-    quenchants: quenchantRows,
+    materials: materialRows.map(({ gradedProfile, propertyTable, ...m }) => ({ ...m, graded: !!gradedProfile, hasTable: !!propertyTable })),
+    quenchants: quenchantRows.map(({ coolingCurves, ...q }) => ({ ...q, hasCurves: !!coolingCurves })),
   }
 }
