@@ -82,7 +82,7 @@ export function isTemperatureDependent(plan: ResolvedPlan): boolean {
 }
 
 function needsSubSteps(kase: object): boolean {
-  return !constantLimit(caseToProblem(parseCase(kase)))
+  return !constantLimit(caseToProblem(inPlanTerms('quench', () => parseCase(kase))))
 }
 
 /**
