@@ -36,7 +36,7 @@ export const ACCESS = {
   'logs.upload': ['metallurgist', 'qa', 'admin'],
   /** Upload a log attached to a load; operators only to a load they are working on (charged and not yet signed). */
   'logs.attach': ['operator', 'metallurgist', 'qa', 'admin'],
-  /** Fit a quench medium's coefficient or curve to a log. */
+  /** Fit a quench medium's coefficient or curve to a log, and save a fit as the medium's curves (a library change with its provenance). */
   'media.calibrate': ['metallurgist', 'admin'],
   'outbox.manage': ['admin'],
   'mail.manage': ['admin'],

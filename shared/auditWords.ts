@@ -50,6 +50,7 @@ const ACTIONS: Record<string, string> = {
   'user.create': 'Added a person',
   'user.update': 'Changed a person',
   'demo.seed': 'Seeded the demo shop',
+  'quenchant.calibrate': 'Saved a calibration as a quench medium’s curves',
 }
 
 const VERBS: Record<string, string> = { create: 'Added', update: 'Changed' }

@@ -2,6 +2,7 @@
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
 import { once } from 'node:events'
 import { fileURLToPath } from 'node:url'
+import { waitFor } from '../../tests/support/server'
 
 export const root = fileURLToPath(new URL('../..', import.meta.url))
 
@@ -11,22 +12,9 @@ export function sh(command: string, args: string[], env: NodeJS.ProcessEnv = pro
 
 export const cluster = (...args: string[]) => sh('bash', ['scripts/cluster.sh', ...args])
 
-export async function waitForUrl(url: string, what: string, seconds = 90): Promise<void> {
-  const deadline = Date.now() + seconds * 1000
-  while (Date.now() < deadline) {
-    try {
-      if ((await fetch(url)).ok) return
-    } catch {
-      // not up yet
-    }
-    await new Promise((resolve) => setTimeout(resolve, 250))
-  }
-  throw new Error(`${what} did not answer at ${url} within ${seconds} s`)
-}
-
 export async function startMailCatcher(smtpPort: number, webPort: number): Promise<ChildProcess> {
   const child = spawn(`${root}node_modules/.bin/maildev`, ['--smtp', String(smtpPort), '--ip', '127.0.0.1', '--web', String(webPort), '--web-ip', '127.0.0.1', '--silent'], { cwd: root, stdio: 'ignore' })
-  await waitForUrl(`http://127.0.0.1:${webPort}/api/healthz`, 'The mail catcher')
+  await waitFor(`http://127.0.0.1:${webPort}/api/healthz`, 'The mail catcher', 90)
   return child
 }
 
@@ -34,7 +22,7 @@ export async function startMailCatcher(smtpPort: number, webPort: number): Promi
 export async function startInstance(port: number, env: Record<string, string>, log: string[]): Promise<ChildProcess> {
   const child = spawn('node', ['.output/server/index.mjs'], { cwd: root, stdio: ['ignore', 'ignore', 'pipe'], env: { ...process.env, ...env, PORT: String(port), NITRO_HOST: '127.0.0.1', NODE_ENV: 'production' } })
   child.stderr!.setEncoding('utf8').on('data', (text: string) => log.push(...text.trim().split('\n').map((line) => `[:${port}] ${line}`)))
-  await waitForUrl(`http://127.0.0.1:${port}/api/health`, `The app instance on port ${port}`)
+  await waitFor(`http://127.0.0.1:${port}/api/health`, `The app instance on port ${port}`, 90)
   return child
 }
 

@@ -8,6 +8,7 @@ import { FURNACE_KINDS } from '../../shared/schemas/schedule'
 import { BATCH_STATES } from '../../shared/schedule'
 import { RECORD_STATES } from '../../shared/types/cooldownRecord'
 import type { LogMapping, LogPreview } from '../../shared/types/measurementLog'
+import type { CalibrationFitted, CalibrationProbe, QuenchantCalibration } from '../../shared/types/calibration'
 
 const timestamps = {
   createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
@@ -409,3 +410,34 @@ export const measurementLogParts = mysqlTable(
 )
 
 export type MeasurementLogRow = typeof measurementLogs.$inferSelect
+
+/**
+ * A calibration saved as a quench medium's curves: which log, channel, probe and bath
+ * it came from, what the server's own fit found and how well it matched, and the
+ * curves it wrote, by whom and when (server/measurements/saveCalibration.ts). Written
+ * once, in the same transaction as the medium's change and its audit row.
+ */
+export const quenchantCalibrations = mysqlTable(
+  'quenchant_calibrations',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    quenchantId: int('quenchant_id').notNull().references(() => quenchants.id),
+    logId: int('log_id').notNull().references(() => measurementLogs.id),
+    channel: varchar('channel', { length: 255 }).notNull(),
+    probe: json('probe').$type<CalibrationProbe>().notNull(),
+    bath_C: double('bath_c').notNull(),
+    initial_C: double('initial_c').notNull(),
+    from_s: double('from_s').notNull(),
+    to_s: double('to_s').notNull(),
+    model: mysqlEnum('model', ['constant', 'curve']).notNull(),
+    fitted: json('fitted').$type<CalibrationFitted>().notNull(),
+    rms_K: double('rms_k').notNull(),
+    maxAbs_K: double('max_abs_k').notNull(),
+    points: int('points').notNull(),
+    iterations: int('iterations').notNull(),
+    curves: json('curves').$type<QuenchantCalibration['curves']>().notNull(),
+    createdBy: int('created_by').notNull().references(() => users.id),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (table) => [index('calibration_quenchant_idx').on(table.quenchantId, table.createdAt)],
+)

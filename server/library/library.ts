@@ -76,6 +76,21 @@ export function libraryStore<V extends Record<string, unknown>>({ table, entity,
   }
   const readRow = async (db: Database | Transaction, id: number) => (await db.select().from(table).where(eq(table.id, id)))[0]
 
+  async function updateWithin(tx: Transaction, id: number, patch: Partial<V>, actorId: number): Promise<LibraryEntry<V>> {
+    const [before] = await tx.select().from(table).where(eq(table.id, id)).for('update')
+    if (!before) throw notFound()
+    const current = valuesOf(before as V)
+    const merged = schema.safeParse({ ...current, ...patch })
+    // Valid field by field but not once merged with the stored record (e.g. low above typical).
+    if (!merged.success) invalidRequest(merged.error, 'request body')
+    const changes = changedFields(current, merged.data, fields)
+    if (Object.keys(changes).length === 0) return toEntry(before)
+    const set = Object.fromEntries(Object.keys(changes).map((key) => [key, merged.data[key as keyof V]]))
+    await tx.update(table).set(set).where(eq(table.id, id))
+    await recordAudit(tx, { actorId, action: `${entity}.update`, entityType: entity, entityId: id, details: changes })
+    return toEntry(await readRow(tx, id))
+  }
+
   return {
     async list(): Promise<LibraryEntry<V>[]> {
       const rows = await useDb().select().from(table).orderBy(asc(table.name))
@@ -102,22 +117,10 @@ export function libraryStore<V extends Record<string, unknown>>({ table, entity,
 
     /** Applies the fields sent; writes and audits only what really changed. */
     async update(id: number, patch: Partial<V>, actorId: number): Promise<LibraryEntry<V>> {
-      return await withUniqueName(entity, () =>
-        useDb().transaction(async (tx) => {
-          const [before] = await tx.select().from(table).where(eq(table.id, id)).for('update')
-          if (!before) throw notFound()
-          const current = valuesOf(before as V)
-          const merged = schema.safeParse({ ...current, ...patch })
-          // Valid field by field but not once merged with the stored record (e.g. low above typical).
-          if (!merged.success) invalidRequest(merged.error, 'request body')
-          const changes = changedFields(current, merged.data, fields)
-          if (Object.keys(changes).length === 0) return toEntry(before)
-          const set = Object.fromEntries(Object.keys(changes).map((key) => [key, merged.data[key as keyof V]]))
-          await tx.update(table).set(set).where(eq(table.id, id))
-          await recordAudit(tx, { actorId, action: `${entity}.update`, entityType: entity, entityId: id, details: changes })
-          return toEntry(await readRow(tx, id))
-        }),
-      )
+      return await withUniqueName(entity, () => useDb().transaction((tx) => updateWithin(tx, id, patch, actorId)))
     },
+
+    /** The same inside a caller's transaction, for a change that writes more beside it (a calibration's provenance). */
+    updateWithin,
   }
 }

@@ -1,9 +1,9 @@
 import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database } from '../db/client'
-import { batches, planRevisions, plans } from '../db/schema'
+import { batches, furnaces, planRevisions, plans, quenchStations } from '../db/schema'
 import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
-import type { BatchDetail, FloorCardWire, FloorCurve, FloorPoll, PlanOption } from '../../shared/types/schedule'
+import type { BatchDetail, FloorCardWire, FloorCurve, FloorPlanFacts, FloorPoll, PlanOption } from '../../shared/types/schedule'
 import { useDb } from '../utils/db'
 import { eventViewsOf, readSummary, selectBatchesInContext, toBatchView } from './batchQueries'
 import { quenchMediumOf } from './quenchMedium'
@@ -44,30 +44,58 @@ export async function getBatch(id: number): Promise<BatchDetail> {
   }
 }
 
+/** Plan revisions never change once written, so their floor facts are read once per process (bounded). */
+const revisionFacts = new Map<number, Omit<FloorPlanFacts, 'planName'>>()
+const REVISION_FACTS_KEPT = 1000
+
+/**
+ * The handling facts of plan revisions, from the cache or, for those not yet read, from
+ * their stored summaries: the floor poll no longer parses a whole summary per card.
+ */
+async function revisionFactsOf(revisionIds: number[]): Promise<Map<number, Omit<FloorPlanFacts, 'planName'>>> {
+  const missing = [...new Set(revisionIds)].filter((id) => !revisionFacts.has(id))
+  if (missing.length > 0) {
+    const rows = await useDb().select({ id: planRevisions.id, summary: planRevisions.summary }).from(planRevisions).where(inArray(planRevisions.id, missing))
+    if (revisionFacts.size + rows.length > REVISION_FACTS_KEPT) revisionFacts.clear()
+    for (const row of rows) {
+      const summary = readSummary(row.summary)!
+      revisionFacts.set(row.id, {
+        handling_C: summary.handling_C,
+        quenchToHandling_s: summary.quenchToHandling_s,
+        ...(summary.slowEndToHandling_s === undefined ? {} : { slowEndToHandling_s: summary.slowEndToHandling_s }),
+      })
+    }
+  }
+  return revisionFacts
+}
+
 /**
  * What the floor works on: every batch in the furnaces, the bath or cooling, not
  * yet handed on, and booked loads due within the next `aheadHours`.
  */
 export async function floorBatches(furnaceId: number | undefined, aheadHours = 12) {
-  const settings = await readShopSettings()
+  const db = useDb()
   const now = Date.now()
   const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, new Date(now + aheadHours * 3600_000))]
   if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
-  const rows = await selectBatchesInContext(useDb())
-    .where(and(...conditions))
-    .orderBy(asc(batches.furnaceStart))
-    .limit(200)
-  const events = await eventViewsOf(useDb(), rows.map((r) => r.batch.id))
+  const [settings, rows] = await Promise.all([
+    readShopSettings(),
+    db
+      .select({ batch: batches, planName: plans.name, furnaceName: furnaces.name, stationName: quenchStations.name })
+      .from(batches)
+      .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
+      .innerJoin(plans, eq(plans.id, planRevisions.planId))
+      .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
+      .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
+      .where(and(...conditions))
+      .orderBy(asc(batches.furnaceStart))
+      .limit(200),
+  ])
+  const [events, facts] = await Promise.all([eventViewsOf(db, rows.map((r) => r.batch.id)), revisionFactsOf(rows.map((r) => r.batch.planRevisionId))])
   const planFacts: FloorPoll['plans'] = {}
   const cards: FloorCardWire[] = rows.map((r) => {
     const view = toBatchView(r.batch, settings, now)
-    const summary = readSummary(r.revision.summary)!
-    planFacts[view.planRevisionId] = {
-      planName: r.plan.name,
-      handling_C: summary.handling_C,
-      quenchToHandling_s: summary.quenchToHandling_s,
-      ...(summary.slowEndToHandling_s === undefined ? {} : { slowEndToHandling_s: summary.slowEndToHandling_s }),
-    }
+    planFacts[view.planRevisionId] = { planName: r.planName, ...facts.get(view.planRevisionId)! }
     return {
       id: view.id,
       loadNumber: view.loadNumber,
@@ -81,8 +109,8 @@ export async function floorBatches(furnaceId: number | undefined, aheadHours = 1
       quenchEnd: view.quenchEnd,
       handlingAt: view.handlingAt,
       quenchedAt: view.quenchedAt,
-      furnaceName: r.furnace.name,
-      stationName: r.station.name,
+      furnaceName: r.furnaceName,
+      stationName: r.stationName,
       bookedToHandling_s: Math.round(r.batch.quenchToHandling_s * 10) / 10,
       quenchDelayAllowance_s: r.batch.quenchDelayAllowance_s,
       ...(view.conflictWith ? { conflictWith: view.conflictWith, conflictNote: view.conflictNote } : {}),

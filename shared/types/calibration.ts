@@ -45,3 +45,47 @@ export type CalibrationMessage =
   | { result: CalibrationResult }
   | { refused: { field: string; message: string } }
   | { failed: { message: string } }
+
+/** The body a calibration treated as its probe, as stored with the calibration and shown beside it. */
+export interface CalibrationProbe {
+  /** A preset's id, or the plan whose part was the probe. */
+  preset: string | null
+  plan: { id: number; revision: number; name: string } | null
+  /** In words: "Standard nickel-alloy probe (ISO 9950) …" or "Plan "Drive pin" rev 2: Round bar Ø40 mm, 1 Cr–½ Mo, thermocouple 5 mm deep". */
+  label: string
+  geometry: 'slab' | 'rod' | 'sphere'
+  size_m: number
+  /** Thermocouple position as a fraction 0–1 of size_m from the centre. */
+  x: number
+}
+
+/** What a saved calibration fitted: one h or the knots, as the fit gave them. */
+export interface CalibrationFitted {
+  h?: { value: number; uncertainty: number }
+  hCurve?: CalibrationKnot[]
+}
+
+/** A calibration saved as a quench medium's curves (GET /api/calibrations): its provenance. */
+export interface QuenchantCalibration {
+  id: number
+  quenchantId: number
+  quenchantName: string
+  logId: number
+  logFileName: string
+  channel: string
+  probe: CalibrationProbe
+  bath_C: number
+  initial_C: number
+  /** The part of the log the fit used, seconds from its first row. */
+  window: { from_s: number; to_s: number }
+  model: 'constant' | 'curve'
+  fitted: CalibrationFitted
+  rms_K: number
+  maxAbs_K: number
+  points: number
+  iterations: number
+  /** The medium's curves as the save wrote them. */
+  curves: { low: { T_C: number; h: number }[]; typical: { T_C: number; h: number }[]; high: { T_C: number; h: number }[] }
+  createdBy: string | null
+  createdAt: string
+}

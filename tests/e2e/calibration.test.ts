@@ -2,12 +2,16 @@
  * A metallurgist uploads a probe log through the logs page (preview, column mapping,
  * store), sees it charted, fits a constant h on the calibration page with progress
  * shown, and reads the fitted h: the log was made at 1800 W/m²K (tests/support/probeLog.ts).
+ * Then saves the fit as a medium's curve (a medium of its own, so the demo library
+ * stays as other tests expect it) and finds the provenance on the quench media page.
  */
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { SCREENSHOT_DIR, signInThroughPage, useBrowser } from '../support/browser'
+import { signInDemo } from '../support/http'
+import { createLibraryFixture } from '../support/library'
 import { syntheticProbeCsv } from '../support/probeLog'
 
 const browser = useBrowser()
@@ -16,6 +20,8 @@ describe('calibrating a medium from a probe log', () => {
   it('upload, map, store, chart; then fit and read h within 2 % of the h that made the log', async () => {
     const file = join(mkdtempSync(join(tmpdir(), 'probe-')), `kestrel-bay-oil-tank-2-${Date.now()}.csv`)
     writeFileSync(file, syntheticProbeCsv(1800))
+    const api = await signInDemo('metallurgist')
+    const medium = (await api.request(`/api/quenchants/${(await createLibraryFixture(api)).oilId}`)).body
     const page = await browser.desktopPage()
     await signInThroughPage(page, 'metallurgist', '/logs')
     await page.getByTestId('log-file').setInputFiles(file)
@@ -42,6 +48,24 @@ describe('calibrating a medium from a probe log', () => {
     await expect(page.getByTestId('fit-residuals').textContent()).resolves.toMatch(/rms 0\.[0-4]\d K/)
     await page.getByTestId('calibration-rate-chart').waitFor()
     await page.screenshot({ path: `${SCREENSHOT_DIR}/calibration-fitted.png`, fullPage: true })
+
+    await page.getByLabel('Quench medium').selectOption({ label: medium.name })
+    await page.getByTestId('calibration-save').click()
+    const saved = page.getByTestId('calibration-saved')
+    await saved.waitFor({ timeout: 30_000 })
+    await expect(saved.textContent()).resolves.toContain(`Saved as the curves of ${medium.name}`)
+    await saved.getByRole('link', { name: 'See it in the library' }).click()
+    const row = page.locator(`tr[data-name="${medium.name}"]`)
+    const provenance = row.getByTestId('calibration-provenance')
+    await provenance.waitFor()
+    const text = (await provenance.textContent())!.replace(/\s+/g, ' ')
+    expect(text).toContain(`Calibrated from log “${file.split('/').at(-1)}” (Probe centre (°C); Standard nickel-alloy probe (ISO 9950)`)
+    expect(text).toMatch(/by Mira Okonkwo: one constant h, rms 0\.[0-4]\d K over 400 points\./)
+    // The typical coefficient is now the fitted h, within 2 % of the 1800 W/m²K the log was made with.
+    const typical = Number((await row.locator('[data-column="typical"]').textContent())!.replace(/,/g, ''))
+    expect(Math.abs(typical / 1800 - 1)).toBeLessThan(0.02)
+    await provenance.scrollIntoViewIfNeeded()
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/calibration-saved-in-library.png`, fullPage: true })
     await page.context().close()
   })
 })

@@ -84,6 +84,7 @@ const PAGE_CALLS: Record<string, Call[]> = {
   ],
   'pages/library/quenchants.vue': [
     { call: 'GET /api/quenchants' },
+    { call: 'GET /api/calibrations' },
     { call: 'POST /api/quenchants', via: 'composables/useLibraryEditing.ts', when: 'library.edit' },
     { call: 'PATCH /api/quenchants/[id]', via: 'composables/useLibraryEditing.ts', when: 'library.edit' },
   ],
@@ -108,7 +109,13 @@ const PAGE_CALLS: Record<string, Call[]> = {
     { call: 'POST /api/logs', via: 'components/log/LogUploadForm.vue', when: 'logs.upload' },
   ],
   'pages/logs/[id].vue': [{ call: 'GET /api/logs/[id]' }, { call: 'GET /api/logs/[id]/file' }],
-  'pages/calibration.vue': [{ call: 'GET /api/logs' }, { call: 'POST /api/calibrations/fit', via: 'composables/useCalibrationFit.ts' }],
+  'pages/calibration.vue': [
+    { call: 'GET /api/logs' },
+    { call: 'GET /api/plans' },
+    { call: 'POST /api/calibrations/fit', via: 'composables/useCalibrationFit.ts' },
+    { call: 'GET /api/quenchants', via: 'components/calibration/CalibrationSavePanel.vue' },
+    { call: 'POST /api/calibrations', via: 'components/calibration/CalibrationSavePanel.vue' },
+  ],
   'pages/admin/audit.vue': [{ call: 'GET /api/audit' }, { call: 'GET /api/audit/people' }],
   'pages/admin/outbox.vue': [{ call: 'GET /api/outbox' }, { call: 'POST /api/outbox/[id]/retry' }, { call: 'POST /api/outbox/test-sheet' }],
   'pages/admin/mail-recipients.vue': [{ call: 'GET /api/mail-recipients' }, { call: 'PUT /api/mail-recipients/[kind]' }],
@@ -184,6 +191,9 @@ describe('can', () => {
     ['operator', 'records.correct', false],
     ['operator', 'plans.read', true],
     ['operator', 'plans.edit', false],
+    ['metallurgist', 'media.calibrate', true],
+    ['qa', 'media.calibrate', false],
+    ['operator', 'library.read', true],
     [undefined, 'signedIn', false],
     [undefined, 'people.manage', false],
   ] as const)('%s may %s → %s', (role, capability, expected) => {
