@@ -192,6 +192,7 @@ console.log('graded plan, 12 modes (shooting + coefficients + time to target)'.p
     return quenchTimes.map((t) => s.evaluate(t, 0))
   }
   const seriesError = maxError(series(), exact)
+  const subSteps = solveCooldown(bar, { earliest_s: 5 }).summaries.map((s) => s.subSteps).join('+')
   const tunings = [0.01, 0.02, 0.04, 0.08].flatMap((rampRate) => {
     let cells = 6
     while (cells < 800 && maxError(cn(cells, rampRate), exact) > seriesError) cells = Math.round(cells * 1.15)
@@ -202,8 +203,9 @@ console.log('graded plan, 12 modes (shooting + coefficients + time to target)'.p
   const cnError = maxError(cn(cells, rampRate), exact)
   const [seriesMs, cnMs] = interleavedMedians([series, () => cn(cells, rampRate)])
   console.log('\ntemperature-dependent bar (oil h(T) + steel table, then air with radiation), centre at 40 times')
-  console.log('series K'.padStart(9), 'series ms'.padStart(10), 'CN cells'.padStart(9), 'ramp'.padStart(5), 'CN K'.padStart(7), 'CN ms'.padStart(8), 'CN/series'.padStart(10), 'budget ms'.padStart(10))
+  console.log('sub-steps'.padStart(10), 'series K'.padStart(9), 'series ms'.padStart(10), 'CN cells'.padStart(9), 'ramp'.padStart(5), 'CN K'.padStart(7), 'CN ms'.padStart(8), 'CN/series'.padStart(10), 'budget ms'.padStart(10))
   console.log(
+    subSteps.padStart(10),
     seriesError.toFixed(3).padStart(9),
     seriesMs.toFixed(2).padStart(10),
     String(cells).padStart(9),

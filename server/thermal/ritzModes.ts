@@ -133,8 +133,11 @@ export function modalBasis(spec: BasisSpec): ModalBasis {
   const m = spec.geometry === 'slab' ? 0 : spec.geometry === 'rod' ? 1 : 2
   const functions = basisFunctions(spec)
   const { roots, size } = functions
-  // φ_i φ_j oscillates at most like 2λ_max: over 6 radians of it an 8-point Gauss panel errs by ~1e-6 relative.
-  const rule = compositeRule(spec.breakpoints, Math.min(1 / 8, 3 / roots[spec.count - 1]), (x) => x ** m)
+  // φ_i φ_j oscillates at most like 2λ_max: over 12 radians of it an 8-point Gauss panel errs by ~1e-5
+  // relative (the Gauss remainder, w^17 (8!)^4 f^(16) / (17 (16!)^3)), and only in the fastest pairs.
+  // Narrower panels bought nothing measurable (the benchmark bar, the ISO probe log, the water-quenched
+  // rod unchanged to 0.005 K) and cost up to twice the nodes, which every frozen solve's assembly sums over.
+  const rule = compositeRule(spec.breakpoints, Math.min(1 / 8, 6 / roots[spec.count - 1]), (x) => x ** m)
   const q = rule.x.length
   const phi = new Float64Array(size * q)
   const dphi = new Float64Array(size * q)
@@ -215,6 +218,15 @@ export function projectOnto(basis: ModalBasis, temperatureAt: (x: number) => num
   backSubstitute(factor, n, c)
   return c
 }
+
+/**
+ * Relative off-diagonal size at which a frozen problem's Jacobi solve stops: its
+ * modes are then those of a matrix within 1e-8 of the Ritz matrix, far inside the
+ * quadrature's ~1e-5, and the rates, quadratic in it, exact to ~1e-16. From the
+ * previous sub-step's eigenvectors that takes one or two sweeps where the solver's
+ * default 1e-11 took two or three (a third of the eigen time on the benchmark bar).
+ */
+const EIGEN_TOLERANCE = 1e-8
 
 /** The frozen problem: properties at the nodes and the faces' frozen coefficients. */
 export interface FrozenCoefficients {
@@ -303,7 +315,7 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
     for (let b = 0; b < n; b++) s[a * n + b] = column[b]
   }
   const u = new Float64Array(n * n)
-  jacobiEigen(s, n, u, start)
+  jacobiEigen(s, n, u, start, EIGEN_TOLERANCE)
   // Amplitude of mode j: a_j = v_jᵀ M (c0 − c_ss) = u_jᵀ Rᵀ (c0 − c_ss).
   const excess = new Float64Array(n)
   for (let a = 0; a < n; a++) excess[a] = c0[a] - steady[a]

@@ -13,7 +13,7 @@
  * factorisation of T⁴ − T∞⁴; Incropera et al., Fundamentals of Heat and Mass
  * Transfer, eq. 1.9).
  */
-import { interpolate } from './propertyTable'
+import { interpolate, pathMean } from './propertyTable'
 import type { ConvectiveBoundary } from './types'
 
 /** Stefan–Boltzmann constant, W/m²K⁴ (CODATA 2018, exact in the SI). */
@@ -25,6 +25,13 @@ export interface SurfaceLaw {
   ambient_C: number
   /** Secant coefficient at surface temperature T_s, W/m²K. */
   effectiveH: (surface_C: number) => number
+  /**
+   * h_eff frozen over a step along which the surface goes T0 → Tg1 → Tg2 → T1 (Tg
+   * at the step's Gauss points): the curve's time mean (pathMean: a kink inside the
+   * step is averaged, not sampled on one side) plus the smooth radiative factor's
+   * two-point Gauss mean.
+   */
+  pathEffectiveH: (T0: number, Tg1: number, Tg2: number, T1: number) => number
   /** True when h_eff does not depend on T_s (a plain h, no radiation). */
   constant: boolean
 }
@@ -36,12 +43,14 @@ export function surfaceLaw(b: ConvectiveBoundary): SurfaceLaw {
   const es = (b.emissivity ?? 0) * STEFAN_BOLTZMANN
   const ambientK = b.ambient_C + KELVIN
   const convective = xs && hs ? (T: number) => interpolate(xs, hs, T) : () => b.h_W_m2K
+  const radiative = (T: number) => {
+    const tk = T + KELVIN
+    return es * (tk * tk + ambientK * ambientK) * (tk + ambientK)
+  }
   return {
     ambient_C: b.ambient_C,
-    effectiveH: (T) => {
-      const tk = T + KELVIN
-      return convective(T) + es * (tk * tk + ambientK * ambientK) * (tk + ambientK)
-    },
+    effectiveH: (T) => convective(T) + radiative(T),
+    pathEffectiveH: (T0, Tg1, Tg2, T1) => (xs && hs ? pathMean(xs, hs, T0, Tg1, Tg2, T1) : b.h_W_m2K) + 0.5 * (radiative(Tg1) + radiative(Tg2)),
     constant: !curve && es === 0,
   }
 }

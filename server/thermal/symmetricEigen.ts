@@ -11,10 +11,10 @@
  */
 import { EngineLimitError } from './errors'
 
-/** Stop when Σ off-diagonal² ≤ this × Σ diagonal². */
-const OFF_DIAGONAL_SQUARED = 1e-22
-/** Skip a pair with a_pq² ≤ this × |a_pp a_qq|. */
-const NEGLIGIBLE_PAIR = 1e-26
+/** Default stop: Σ off-diagonal² ≤ tolerance² × Σ diagonal². */
+const OFF_DIAGONAL = 1e-11
+/** Skip a pair with a_pq² ≤ this × tolerance² × |a_pp a_qq|: such pairs sum to under the stopping test (n ≤ 100). */
+const NEGLIGIBLE_PAIR = 1e-4
 
 /**
  * Diagonalises the n×n symmetric matrix a (row-major, overwritten) in place: on
@@ -23,9 +23,12 @@ const NEGLIGIBLE_PAIR = 1e-26
  *
  * With `start`, the orthogonal eigenvectors of a nearby matrix (a previous sub-step's),
  * a is first rotated into them (Vᵀ a V, nearly diagonal) and the sweeps continue from
- * there: two or three instead of five to eight from the identity.
+ * there: two or three instead of five to eight from the identity. `tolerance` is the
+ * stopping test's relative off-diagonal size (default 1e-11, above).
  */
-export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array, start?: Float64Array): void {
+export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array, start?: Float64Array, tolerance = OFF_DIAGONAL): void {
+  const stop = tolerance * tolerance
+  const negligible = NEGLIGIBLE_PAIR * stop
   if (start) {
     rotateInto(a, n, start)
     vectors.set(start)
@@ -40,14 +43,14 @@ export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array, s
       diag += a[i * n + i] * a[i * n + i]
       for (let j = i + 1; j < n; j++) off += a[i * n + j] * a[i * n + j]
     }
-    if (off <= OFF_DIAGONAL_SQUARED * diag) return
+    if (off <= stop * diag) return
     for (let p = 0; p < n - 1; p++) {
       for (let q = p + 1; q < n; q++) {
         const apq = a[p * n + q]
         const app = a[p * n + p]
         const aqq = a[q * n + q]
         // Pairs already this small sum to less than the stopping test (n ≤ 100), so rotating them would change nothing that counts.
-        if (apq * apq <= NEGLIGIBLE_PAIR * Math.abs(app * aqq)) continue
+        if (apq * apq <= negligible * Math.abs(app * aqq)) continue
         // The smaller rotation angle: t = tan θ from cot 2θ = (a_qq − a_pp)/(2 a_pq).
         const theta = (aqq - app) / (2 * apq)
         const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1))
