@@ -34,12 +34,6 @@ import { compactHistory } from './compactSeries'
 
 const PROFILE_TIMES = 25
 /**
- * Modes of each frozen sub-step in a temperature-dependent quench. The engine's own
- * count for a plan's first-pass start (16) left the step control of the demo drive pin's
- * low oil curve shrinking its steps past the sub-step cap; 20 solves it in ~800 steps.
- */
-const TABLE_MODES = 20
-/**
  * A temperature-dependent plan is three sub-step solves (0.3–1 s each on a quiet
  * machine, two to three times that on a loaded one), so it gets most of the pool's
  * default 8 s cap (NUXT_ENGINE_JOB_SECONDS) instead of the engine's 4 s, and the
@@ -81,6 +75,7 @@ export function isTemperatureDependent(plan: ResolvedPlan): boolean {
   return COEFFICIENT_CHOICES.some((choice) => needsSubSteps(quenchCase(plan, choice, 'tables')))
 }
 
+/** Flat tables are constants to the engine, which then takes today's series unchanged. */
 function needsSubSteps(kase: object): boolean {
   return !constantLimit(caseToProblem(inPlanTerms('quench', () => parseCase(kase))))
 }
@@ -93,7 +88,7 @@ export function quenchCase(plan: ResolvedPlan, choice?: CoefficientChoice, physi
   const body = engineBody(plan.part)
   if (body.kind !== 'series') throw new Error('quenchCase is for plates, bars and spheres')
   const quenchants = stageQuenchants(plan)
-  const kase = {
+  return {
     geometry: body.geometry,
     size_m: body.size_m,
     material: engineMaterial(plan.library.material, physics),
@@ -104,8 +99,6 @@ export function quenchCase(plan: ResolvedPlan, choice?: CoefficientChoice, physi
     })),
     target: { at: plan.handling.at, below_C: plan.handling.below_C },
   }
-  // Flat tables are constants to the engine, which then takes today's series unchanged; only a real sub-step solve gets the modes.
-  return physics === 'tables' && needsSubSteps(kase) ? { ...kase, modes: TABLE_MODES } : kase
 }
 
 function furnaceH(plan: ResolvedPlan): number {

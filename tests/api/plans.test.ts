@@ -386,7 +386,6 @@ describe('plans: temperature tables and cooling curves', () => {
     initial_C: 850,
     stages: [{ surface: { ...h, ambient_C: 25, ...('hCurve' in h ? { emissivity: 0.8 } : {}) } }],
     target: { at: 'centre', below_C: 300 },
-    ...(tables ? { modes: 20 } : {}),
   })
 
   it('a plan returns the temperature-dependent time and the constant-property one, with the band from the low and high curves', async () => {

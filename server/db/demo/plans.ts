@@ -52,6 +52,8 @@ export const DEMO_PLANS: DemoPlan[] = [
   },
   {
     name: 'Case-hardened bar Ø30 — still oil, then still air',
+    // The sub-step engine does not yet finish this graded bar with the still oil's low curve within its step cap, so it keeps the single values.
+    physics: 'constant',
     part: { shape: 'round-bar', diameter_m: 0.03 },
     material: 'Case-hardened AISI 1010 bar (demo)',
     start_C: 830,
