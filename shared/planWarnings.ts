@@ -3,7 +3,7 @@
  * (server/planning/warnings.ts); the text names temperatures as {placeholders} so the
  * browser writes them in the user's unit and tests in °C.
  */
-export type PlanWarningKind = 'handling-at-medium' | 'cracking-risk'
+export type PlanWarningKind = 'handling-at-medium' | 'cracking-risk' | 'outside-table' | 'outside-curve' | 'uniform-properties'
 
 export interface PlanWarning {
   kind: PlanWarningKind

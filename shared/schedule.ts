@@ -136,7 +136,7 @@ export interface SlotDurations {
 }
 
 export function slotDurations(summary: PlanSummary, settings: ShopSettings): SlotDurations {
-  const bathEnd = summary.handlingPointSeries[0]?.end_s
+  const bathEnd = summary.firstStageEnd_s === undefined ? summary.handlingPointSeries[0]?.end_s : (summary.firstStageEnd_s ?? undefined)
   const safe_s = safeToHandle_s(summary, settings.safeHandlingTowardSlowEnd_pct)
   return {
     furnace_s: summary.soak?.total_s ?? settings.defaultFurnace_s,

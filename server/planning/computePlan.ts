@@ -4,36 +4,48 @@
  * routes call it through server/planning/plans.ts, tests import it directly.
  *
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
- * stages, graded materials). Short cylinders and blocks go through product
+ * stages, graded materials). When the revision's library values carry a property
+ * table or cooling-power curves (quenchPhysics.ts), the quench runs with them (the
+ * engine's frozen-coefficient sub-step series): the headline with each stage's chosen
+ * curve, the band with the low and high curves, and beside them the constant-property
+ * estimate of the single values, which is cheap. The heat-up stays constant-property
+ * (one furnace coefficient, the room-temperature values), so a plan costs three
+ * temperature-dependent solves. Short cylinders and blocks go through product
  * solutions (../thermal/productSolution.ts): uniform properties, a different bath or
- * air temperature per stage by superposition, handling point centre or mean.
+ * air temperature per stage by superposition, handling point centre or mean; a
+ * warning says when the library had tables or curves they could not use.
  */
-import type { Deadline } from '../thermal/deadline'
-import { CaseError, WHOLE_CASE } from '../thermal/errors'
+import { COMPUTE_BUDGET_MS, type Deadline } from '../thermal/deadline'
+import { CaseError, EngineLimitError, WHOLE_CASE } from '../thermal/errors'
 import { runCase, type CaseResult } from '../thermal/runCase'
+import { caseToProblem, parseCase } from '../thermal/caseSchema'
+import { constantLimit } from '../thermal/constantLimit'
 import { pointValue } from '../../shared/pointSeries'
-import type { CoefficientChoice, QuenchantSnapshot, ResolvedPlan } from '../../shared/schemas/plan'
+import { COEFFICIENT_CHOICES, type CoefficientChoice, type QuenchPhysics, type ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanMode, PlanResult, PlanStageResult } from '../../shared/types/planResult'
+import type { PlanWarning } from '../../shared/planWarnings'
 import { furnaceCoefficient_W_m2K } from './furnace'
 import { MODES_LISTED, checkProduct, runProduct, type ModelRun, type ProductInput } from '../thermal/productSolution'
-import { crackingWarning, handlingAtMediumWarning } from './warnings'
+import { crackingWarning, curveRangeWarning, handlingAtMediumWarning, tableRangeWarning, uniformPropertiesWarning } from './warnings'
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
+import { coefficientOf, engineMaterial, engineSurface, hasTemperatureData, stageQuenchants, surfaceCoefficients } from './quenchPhysics'
+import { compactHistory } from './compactSeries'
 
 const PROFILE_TIMES = 25
+/**
+ * A temperature-dependent plan is three sub-step solves (0.3–1 s each on a quiet
+ * machine, two to three times that on a loaded one), so it gets most of the pool's
+ * default 8 s cap (NUXT_ENGINE_JOB_SECONDS) instead of the engine's 4 s, and the
+ * engine's own refusal still comes before the pool stops the thread.
+ */
+export const TABLE_PLAN_BUDGET_MS = 7000
 
-/** The library values of the stages' quenchants, in stage order. */
-function stageQuenchants(plan: ResolvedPlan): QuenchantSnapshot[] {
-  return plan.stages.map((stage, i) => {
-    const q = plan.library.quenchants.find((candidate) => candidate.id === stage.quenchantId)
-    if (!q) throw new CaseError(`stages.${i}.quenchantId`, `quenchant ${stage.quenchantId} is not among the plan's library values`)
-    return q
-  })
+/** The engine budget of one computation of `plan`. */
+export function computeBudget_ms(plan: ResolvedPlan): number {
+  return isTemperatureDependent(plan) ? TABLE_PLAN_BUDGET_MS : COMPUTE_BUDGET_MS
 }
-
-export function coefficientOf(q: QuenchantSnapshot, choice: CoefficientChoice): number {
-  return choice === 'low' ? q.hLow_W_m2K : choice === 'high' ? q.hHigh_W_m2K : q.hTypical_W_m2K
-}
+const PRODUCT_METHOD = 'product of eigenmode series'
 
 /**
  * Section-averaged k and ρc (trapezoids over the profile's x; a repeated x is a jump
@@ -53,23 +65,36 @@ export function averageProperties(plan: ResolvedPlan): { k_W_mK: number; rhoCp_J
   return { k_W_mK: k, rhoCp_J_m3K: c }
 }
 
-function engineMaterial(plan: ResolvedPlan) {
-  const m = plan.library.material
-  return m.gradedProfile ? { profile: m.gradedProfile } : { k: m.k_W_mK, rho: m.density_kg_m3, cp: m.specificHeat_J_kgK }
+/**
+ * True when this plan's quench runs with the library's tables or curves: plates, bars
+ * and spheres, unless the plan asks for constants, and only when a table or curve is
+ * not flat (flat ones are constants to the engine, and the plan computes as it did before them).
+ */
+export function isTemperatureDependent(plan: ResolvedPlan): boolean {
+  if (plan.physics !== 'tables' || engineBody(plan.part).kind !== 'series' || !hasTemperatureData(plan.library.material, stageQuenchants(plan))) return false
+  return COEFFICIENT_CHOICES.some((choice) => needsSubSteps(quenchCase(plan, choice, 'tables')))
 }
 
-/** The runCase case for the quench of a plate, bar or sphere; `choice` overrides every stage's coefficient (the band). */
-export function quenchCase(plan: ResolvedPlan, choice?: CoefficientChoice) {
+/** Flat tables are constants to the engine, which then takes today's series unchanged. */
+function needsSubSteps(kase: object): boolean {
+  return !constantLimit(caseToProblem(inPlanTerms('quench', () => parseCase(kase))))
+}
+
+/**
+ * The runCase case for the quench of a plate, bar or sphere; `choice` overrides every
+ * stage's coefficient or curve (the band); `physics` 'constant' gives the single-value estimate.
+ */
+export function quenchCase(plan: ResolvedPlan, choice?: CoefficientChoice, physics: QuenchPhysics = plan.physics) {
   const body = engineBody(plan.part)
   if (body.kind !== 'series') throw new Error('quenchCase is for plates, bars and spheres')
   const quenchants = stageQuenchants(plan)
   return {
     geometry: body.geometry,
     size_m: body.size_m,
-    material: engineMaterial(plan),
+    material: engineMaterial(plan.library.material, physics),
     initial_C: plan.start_C,
     stages: plan.stages.map((s, i) => ({
-      surface: { h: coefficientOf(quenchants[i]!, choice ?? s.coefficient), ambient_C: quenchants[i]!.bath_C },
+      surface: engineSurface(quenchants[i]!, choice ?? s.coefficient, physics),
       ...(s.duration_s === undefined ? {} : { duration_s: s.duration_s }),
     })),
     target: { at: plan.handling.at, below_C: plan.handling.below_C },
@@ -88,7 +113,7 @@ export function heatUpCase(plan: ResolvedPlan) {
   return {
     geometry: body.geometry,
     size_m: body.size_m,
-    material: engineMaterial(plan),
+    material: engineMaterial(plan.library.material, 'constant'),
     initial_C: plan.soak.charge_C,
     stages: [{ surface: { h: furnaceH(plan), ambient_C: plan.soak.furnace_C } }],
     target: { at: 'centre' as const, above_C: plan.soak.furnace_C - plan.soak.tolerance_K },
@@ -154,7 +179,12 @@ export function planField(field: string, context: 'quench' | 'heat-up'): string 
   return field
 }
 
-function fromRunCase(result: CaseResult): ModelRun {
+/** A run with each stage's method and error estimate (the sub-step series' own, else the truncation bound). */
+interface QuenchRun extends ModelRun {
+  stageMethods: { method: string; estimatedError_K: number }[]
+}
+
+function fromRunCase(result: CaseResult): QuenchRun {
   return {
     targetTime_s: result.targetTime_s as number,
     curve: result.curve,
@@ -165,44 +195,97 @@ function fromRunCase(result: CaseResult): ModelRun {
       truncationError_K: s.truncationError_K,
       modes: s.decayRates_per_s.slice(0, MODES_LISTED).map((r, i): PlanMode => ({ label: `${i + 1}`, decayRate_per_s: r, timeConstant_s: 1 / r })),
     })),
-    series: result.stages.map((s) => s.pointSeries),
+    // A temperature-dependent stage is a chain of sub-step series; all of them make its history.
+    series: result.stages.flatMap((s) => s.subStepSeries ?? [s.pointSeries]),
+    stageMethods: result.stages.map((s) => ({ method: s.method, estimatedError_K: s.estimatedError_K })),
   }
 }
 
+function fromProduct(run: ModelRun): QuenchRun {
+  return { ...run, stageMethods: run.stages.map((s) => ({ method: PRODUCT_METHOD, estimatedError_K: s.truncationError_K })) }
+}
+
 interface Runs {
-  headline: ModelRun
-  detailed: ModelRun
-  low: ModelRun
-  high: ModelRun
+  headline: QuenchRun
+  detailed: QuenchRun
+  low: QuenchRun
+  high: QuenchRun
   heatUp: ModelRun | null
+  /** The single-value estimate beside a temperature-dependent headline; null when it is the headline. */
+  constant: ModelRun | null
 }
 
 /** Every run of one computation shares the deadline: it bounds the preview, not each run. */
 function runAll(plan: ResolvedPlan, deadline: Deadline | undefined): Runs {
   const body = engineBody(plan.part)
+  const quench = (kase: object) => inPlanTerms('quench', () => fromRunCase(runCase(kase, { deadline })))
+  const heatUp = () => (plan.soak ? inPlanTerms('heat-up', () => fromRunCase(runCase(heatUpCase(plan), { deadline }))) : null)
+  if (body.kind === 'series' && isTemperatureDependent(plan)) {
+    // Three sub-step solves only: the headline carries the profile times, spread over the
+    // constant-property slow end (known cheaply beforehand) rather than its own target.
+    const constant = quench(quenchCase(plan, undefined, 'constant'))
+    const constantSlow = quench(quenchCase(plan, 'low', 'constant'))
+    const tables = (kase: object) => withConstantHint(() => quench(kase))
+    const detailed = tables({ ...quenchCase(plan), times_s: profileTimes(Math.max(constant.targetTime_s, constantSlow.targetTime_s)) })
+    return { headline: detailed, detailed, low: tables(quenchCase(plan, 'low')), high: tables(quenchCase(plan, 'high')), heatUp: heatUp(), constant }
+  }
   if (body.kind === 'series') {
-    const headline = inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan), { deadline })))
+    const headline = quench(quenchCase(plan))
     const times_s = profileTimes(headline.targetTime_s)
     return {
       headline,
-      detailed: inPlanTerms('quench', () => fromRunCase(runCase({ ...quenchCase(plan), times_s }, { deadline }))),
-      low: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'low'), { deadline }))),
-      high: inPlanTerms('quench', () => fromRunCase(runCase(quenchCase(plan, 'high'), { deadline }))),
-      heatUp: plan.soak ? inPlanTerms('heat-up', () => fromRunCase(runCase(heatUpCase(plan), { deadline }))) : null,
+      detailed: quench({ ...quenchCase(plan), times_s }),
+      low: quench(quenchCase(plan, 'low')),
+      high: quench(quenchCase(plan, 'high')),
+      heatUp: heatUp(),
+      constant: null,
     }
   }
-  const headline = inPlanTerms('quench', () => runProduct(productInput(plan), { deadline }))
+  const product = (choice?: CoefficientChoice, times_s?: number[]) =>
+    inPlanTerms('quench', () => fromProduct(runProduct(productInput(plan, choice), { ...(times_s ? { times_s } : {}), deadline })))
+  const headline = product()
   return {
     headline,
-    detailed: inPlanTerms('quench', () => runProduct(productInput(plan), { times_s: profileTimes(headline.targetTime_s), deadline })),
-    low: inPlanTerms('quench', () => runProduct(productInput(plan, 'low'), { deadline })),
-    high: inPlanTerms('quench', () => runProduct(productInput(plan, 'high'), { deadline })),
+    detailed: product(undefined, profileTimes(headline.targetTime_s)),
+    low: product('low'),
+    high: product('high'),
     heatUp: plan.soak ? inPlanTerms('heat-up', () => runProduct(heatUpProductInput(plan), { deadline })) : null,
+    constant: null,
+  }
+}
+
+/** A sub-step solve the engine will not finish leaves the metallurgist a way out: the single values. */
+function withConstantHint<T>(run: () => T): T {
+  try {
+    return run()
+  } catch (error) {
+    if (!(error instanceof EngineLimitError)) throw error
+    throw new EngineLimitError(`${error.reason} (with the temperature tables and cooling curves; the single values compute this plan quickly)`, error.field)
   }
 }
 
 function profileTimes(target_s: number): number[] {
   return Array.from({ length: PROFILE_TIMES }, (_, i) => (1.25 * target_s * i) / (PROFILE_TIMES - 1))
+}
+
+/** The warnings about what the plan's physics could not honour: tables and curves read past their ends, or not used at all. */
+function physicsWarnings(plan: ResolvedPlan, curve: ModelRun['curve'], stageEnds_s: (number | null)[], temperatureDependent: boolean): PlanWarning[] {
+  const quenchants = stageQuenchants(plan)
+  if (!temperatureDependent) {
+    const unused = plan.physics === 'tables' && engineBody(plan.part).kind === 'product' && hasTemperatureData(plan.library.material, quenchants)
+    return unused ? [uniformPropertiesWarning()] : []
+  }
+  const table = plan.library.material.propertyTable
+  const warnings = [table ? tableRangeWarning(table, plan.library.material.name, curve) : null]
+  plan.stages.forEach((s, i) => {
+    const curves = quenchants[i]!.coolingCurves
+    if (!curves) return
+    const start = i === 0 ? -Infinity : (stageEnds_s[i - 1] as number)
+    const end = stageEnds_s[i] ?? Infinity
+    const surface = curve.surface_C.filter((_, j) => curve.t_s[j]! >= start && curve.t_s[j]! <= end)
+    warnings.push(curveRangeWarning(i, { name: quenchants[i]!.name, curve: curves[s.coefficient] }, surface))
+  })
+  return warnings.filter((w) => w !== null)
 }
 
 export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline } = {}): PlanResult {
@@ -218,12 +301,18 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     quenchToHandling_s: run.targetTime_s,
     handling_C: runs.detailed.curve.t_s.map((t) => (t <= 0 ? plan.start_C : pointValue(run.series, t))),
   })
+  const temperatureDependent = runs.constant !== null
+  const physics: QuenchPhysics = temperatureDependent ? 'tables' : 'constant'
+  const stageEnds_s = runs.detailed.stages.map((s) => s.end_s)
+  const surfaceH = surfaceCoefficients(runs.detailed.curve, stageEnds_s, plan.stages.map((s, i) => engineSurface(quenchants[i]!, s.coefficient, physics)))
   const stages: PlanStageResult[] = runs.detailed.stages.map((s, i) => {
     const h = coefficientOf(quenchants[i]!, plan.stages[i]!.coefficient)
+    const seen = surfaceH.filter((_, j) => runs.detailed.curve.t_s[j]! > s.start_s && (s.end_s === null || runs.detailed.curve.t_s[j]! <= s.end_s))
     return {
       index: i,
       quenchantName: quenchants[i]!.name,
       h_W_m2K: h,
+      hSeen_W_m2K: quenchants[i]!.coolingCurves && temperatureDependent && seen.length > 0 ? { min: Math.min(...seen), max: Math.max(...seen) } : null,
       ambient_C: quenchants[i]!.bath_C,
       start_s: s.start_s,
       end_s: s.end_s,
@@ -231,6 +320,8 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
       biotLumped: biot(h, VA, props.k_W_mK),
       modes: s.modes,
       truncationError_K: s.truncationError_K,
+      method: runs.detailed.stageMethods[i]!.method,
+      estimatedError_K: runs.detailed.stageMethods[i]!.estimatedError_K,
     }
   })
   const soak = plan.soak && runs.heatUp
@@ -251,8 +342,9 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     slowEndToHandling_s: Math.max(t_h, runs.low.targetTime_s, runs.high.targetTime_s),
     handling_C: plan.handling.below_C,
     soak: soak ? { furnace_C: soak.furnace_C, heatUp_s: soak.heatUp_s, minimumSoak_s: soak.minimumSoak_s, total_s: soak.total_s } : null,
-    handlingPointSeries: runs.headline.series,
+    handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, stageSpans(stages), [t_h]) : runs.headline.series,
     heatUpSeries: runs.heatUp ? runs.heatUp.series : null,
+    firstStageEnd_s: stages[0]!.end_s,
   }
   const body = engineBody(plan.part)
   return {
@@ -267,6 +359,15 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     material: { name: plan.library.material.name, graded: plan.library.material.gradedProfile !== null, ...props, diffusivity_m2_s: diffusivity },
     curve: runs.detailed.curve,
     stageBoundaries_s: stages.slice(1).map((s) => s.start_s),
+    surfaceCoefficient_W_m2K: surfaceH,
+    physics: {
+      temperatureDependent,
+      method: [...new Set(stages.map((s) => s.method))].join('; '),
+      estimatedError_K: Math.max(...stages.map((s) => s.estimatedError_K)),
+      constantPropertyToHandling_s: runs.constant ? runs.constant.targetTime_s : null,
+      propertyTableSource: temperatureDependent ? (plan.library.material.propertyTable ? (plan.library.material.propertyTableSource ?? null) : null) : null,
+      curveSources: temperatureDependent ? [...new Set(quenchants.filter((q) => q.coolingCurves).map((q) => q.curveSource ?? ''))].filter((x) => x) : [],
+    },
     band: { low: band(runs.low), high: band(runs.high) },
     profiles: {
       ...runs.detailed.profiles,
@@ -278,8 +379,14 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     warnings: [
       handlingAtMediumWarning(plan.handling.below_C, quenchants.at(-1)!),
       crackingWarning(runs.detailed.curve, plan.part, plan.library.material.k_W_mK),
+      ...physicsWarnings(plan, runs.detailed.curve, stageEnds_s, temperatureDependent),
     ].filter((w) => w !== null),
   }
+}
+
+/** The stages as compactHistory needs them: where each starts and ends and what it cools towards. */
+function stageSpans(stages: PlanStageResult[]) {
+  return stages.map((s) => ({ start_s: s.start_s, end_s: s.end_s, ambient_C: s.ambient_C }))
 }
 
 /** Re-solves the quench with Crank–Nicolson and reports the largest difference from the series. */
@@ -288,7 +395,10 @@ export function checkPlan(plan: ResolvedPlan, options: { deadline?: Deadline } =
   const body = engineBody(plan.part)
   if (body.kind === 'series') {
     const result = inPlanTerms('quench', () => runCase(quenchCase(plan), { check: 'finite-difference', deadline }))
-    return { maxDifference_K: result.check!.maxDifference_K, how: 'Crank–Nicolson against the series at 12 curve times, centre, mid-radius and surface' }
+    const how = isTemperatureDependent(plan)
+      ? 'non-linear Crank–Nicolson (k(T), ρc(T), the curve’s h(T_s) and radiation iterated within each step) against the sub-step series at 12 curve times, centre, mid-radius and surface'
+      : 'Crank–Nicolson against the series at 12 curve times, centre, mid-radius and surface'
+    return { maxDifference_K: result.check!.maxDifference_K, how }
   }
   const input = inPlanTerms('quench', () => productInput(plan))
   const run = inPlanTerms('quench', () => runProduct(input, { deadline }))

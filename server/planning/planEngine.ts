@@ -5,7 +5,8 @@
  */
 import { CaseError } from '../thermal/errors'
 import type { JobPool, JobPoolStats } from '../workers/jobPool'
-import { check, compute, type EngineOutcome } from '../workers/engineWorker'
+import type { EngineOutcome } from '../workers/engineWorker'
+import { checkPlan, computePlan } from './computePlan'
 import type { ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
 
@@ -20,9 +21,14 @@ function unwrap<T>(result: EngineOutcome<T>): T {
   return result.value
 }
 
+/**
+ * In-process runs have no time budget: nothing waits behind a script, and a loaded
+ * machine must not make the seed refuse its own demo plans (a temperature-dependent
+ * one takes seconds). The engine's iteration caps still end every computation.
+ */
 const inProcess: PlanEngine = {
-  compute: async (plan) => unwrap(compute(plan)),
-  check: async (plan) => unwrap(check(plan)),
+  compute: async (plan) => computePlan(plan),
+  check: async (plan) => checkPlan(plan),
   stats: () => ({ mode: 'in-process' }),
 }
 

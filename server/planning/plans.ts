@@ -41,6 +41,8 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
         density_kg_m3: material.density_kg_m3,
         specificHeat_J_kgK: material.specificHeat_J_kgK,
         gradedProfile: material.gradedProfile ?? null,
+        propertyTable: material.propertyTable ?? null,
+        propertyTableSource: material.propertyTableSource ?? null,
         source: material.source,
       },
       quenchants: rows.map((q) => ({
@@ -51,6 +53,9 @@ export async function resolvePlan(spec: PlanSpec, db: Database | Transaction = u
         hTypical_W_m2K: q.hTypical_W_m2K,
         hHigh_W_m2K: q.hHigh_W_m2K,
         bath_C: q.bath_C,
+        coolingCurves: q.coolingCurves ?? null,
+        emissivity: q.emissivity ?? null,
+        curveSource: q.curveSource ?? null,
         source: q.source,
       })),
     },
@@ -286,6 +291,7 @@ export async function planLibraryOptions() {
         density_kg_m3: materials.density_kg_m3,
         specificHeat_J_kgK: materials.specificHeat_J_kgK,
         gradedProfile: materials.gradedProfile,
+        propertyTable: materials.propertyTable,
       })
       .from(materials)
       .orderBy(materials.name),
@@ -298,12 +304,13 @@ export async function planLibraryOptions() {
         hTypical_W_m2K: quenchants.hTypical_W_m2K,
         hHigh_W_m2K: quenchants.hHigh_W_m2K,
         bath_C: quenchants.bath_C,
+        coolingCurves: quenchants.coolingCurves,
       })
       .from(quenchants)
       .orderBy(quenchants.name),
   ])
   return {
-    materials: materialRows.map(({ gradedProfile, ...m }) => ({ ...m, graded: !!gradedProfile })),
-    quenchants: quenchantRows,
+    materials: materialRows.map(({ gradedProfile, propertyTable, ...m }) => ({ ...m, graded: !!gradedProfile, hasTable: !!propertyTable })),
+    quenchants: quenchantRows.map(({ coolingCurves, ...q }) => ({ ...q, hasCurves: !!coolingCurves })),
   }
 }

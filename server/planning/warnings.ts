@@ -70,3 +70,49 @@ export function crackingWarning(curve: { centre_C: number[]; surface_C: number[]
     differences_K: { spread, limit },
   }
 }
+
+/** Lowest and highest of a list, for the ranges below. */
+function span(values: number[]): { low: number; high: number } {
+  return { low: Math.min(...values), high: Math.max(...values) }
+}
+
+/**
+ * The material's table read outside its rows: beyond its ends the engine holds the end
+ * row's values, which a metallurgist should know before trusting the time.
+ */
+export function tableRangeWarning(table: { T_C: number }[], materialName: string, curve: { centre_C: number[]; surface_C: number[] }): PlanWarning | null {
+  const covered = span(table.map((r) => r.T_C))
+  const seen = span([...curve.centre_C, ...curve.surface_C])
+  if (seen.low >= covered.low && seen.high <= covered.high) return null
+  return {
+    kind: 'outside-table',
+    field: 'materialId',
+    text: `The property table of ${materialName} covers {tableLow} to {tableHigh}, but the part runs from {hot} down to {cold}: beyond the table the end rows are held constant. Extend the table to trust the time.`,
+    temperatures_C: { tableLow: covered.low, tableHigh: covered.high, hot: seen.high, cold: seen.low },
+  }
+}
+
+/** A stage's cooling-power curve read at surface temperatures it does not cover (its end points are held there). */
+export function curveRangeWarning(stage: number, medium: { name: string; curve: { T_C: number }[] }, surface_C: number[]): PlanWarning | null {
+  const covered = span(medium.curve.map((p) => p.T_C))
+  const seen = span(surface_C)
+  if (seen.low >= covered.low && seen.high <= covered.high) return null
+  return {
+    kind: 'outside-curve',
+    field: `stages.${stage}.quenchantId`,
+    text: `The cooling curve of ${medium.name} covers surface temperatures {curveLow} to {curveHigh}, but in stage ${stage + 1} the surface runs from {hot} down to {cold}: beyond the curve its end values are held. Extend the curve to trust the time.`,
+    temperatures_C: { curveLow: covered.low, curveHigh: covered.high, hot: seen.high, cold: seen.low },
+  }
+}
+
+/** Short cylinders and blocks are product solutions, which need one k, ρc and h: the library's tables and curves go unused. */
+export function uniformPropertiesWarning(): PlanWarning {
+  return {
+    kind: 'uniform-properties',
+    field: 'part',
+    text:
+      'The library has a property table or cooling curves for this plan, but a short cylinder or block is computed with uniform properties and one coefficient per medium (a product of one-dimensional solutions). ' +
+      'For the temperature-dependent time, plan the part as the round bar or plate that sets its core temperature.',
+    temperatures_C: {},
+  }
+}

@@ -7,9 +7,9 @@
  * Errors lose their class crossing threads, so an engine refusal (CaseError) comes
  * back as a value and the request thread rebuilds it.
  */
-import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
+import { Deadline } from '../thermal/deadline'
 import { CaseError } from '../thermal/errors'
-import { checkPlan, computePlan } from '../planning/computePlan'
+import { checkPlan, computeBudget_ms, computePlan } from '../planning/computePlan'
 import type { ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
 
@@ -25,5 +25,5 @@ function outcome<T>(run: () => T): EngineOutcome<T> {
 }
 
 // The engine's own budget refuses a slow case with a message; the pool's cap is the backstop for anything it misses.
-export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
-export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, { deadline: new Deadline(COMPUTE_BUDGET_MS) }))
+export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, { deadline: new Deadline(computeBudget_ms(plan)) }))
+export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, { deadline: new Deadline(computeBudget_ms(plan)) }))

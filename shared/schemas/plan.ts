@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { CASE_LIMITS, PHYSICAL, inRange } from '../physicalBounds'
-import { gradedProfileSchema } from './material'
-import { QUENCHANT_KIND_VALUES } from './quenchant'
+import { gradedProfileSchema, propertyTableSchema } from './material'
+import { QUENCHANT_KIND_VALUES, coolingCurvesSchema } from './quenchant'
 
 /**
  * The cooldown plan as the metallurgist enters it (SI: metres, seconds, °C), shared by
@@ -59,6 +59,14 @@ export const planStageSchema = z.strictObject({
 
 export const HANDLING_POINTS = ['centre', 'surface', 'mean'] as const
 
+/**
+ * 'tables': the library's property table and cooling curves where they exist (the
+ * default); 'constant': one k, ρ, cₚ and one h per medium, for a plan the sub-step
+ * engine cannot finish yet or a comparison with an older estimate.
+ */
+export const QUENCH_PHYSICS = ['tables', 'constant'] as const
+export type QuenchPhysics = (typeof QUENCH_PHYSICS)[number]
+
 /** Still air and furnace radiation defaults live in server/planning/furnace.ts; furnaceH_W_m2K overrides them. */
 export const soakSchema = z.strictObject({
   furnace_C: temperature('Furnace temperature', 100, 1300),
@@ -84,6 +92,7 @@ const planSpecShape = {
     below_C: temperature('Handling temperature', -50, 1000),
     at: z.enum(HANDLING_POINTS, { message: 'Handling point must be centre, surface or mean' }).default('centre'),
   }),
+  physics: z.enum(QUENCH_PHYSICS, { message: 'Physics must be tables or constant' }).default('tables'),
   soak: soakSchema.nullable().default(null),
   quenchDelayAllowance_s: z.number({ message: 'Quench delay allowance must be a number (s)' }).finite().min(0, 'Quench delay allowance cannot be negative').max(3600, 'Quench delay allowance above an hour is not a quench').nullable().default(null),
 }
@@ -118,7 +127,12 @@ export const planRevisionInputSchema = z
   .superRefine(crossFieldIssues)
 export type PlanRevisionInput = z.output<typeof planRevisionInputSchema>
 
-/** Library values copied into a saved revision so it recomputes identically after the library changes. */
+/**
+ * Library values copied into a saved revision so it recomputes identically after the
+ * library changes. The temperature table and the cooling curves are optional: a
+ * revision saved before they were copied has none and keeps computing with the single
+ * values it was saved with.
+ */
 export const materialSnapshotSchema = z.strictObject({
   id: z.number().int(),
   name: z.string(),
@@ -126,6 +140,8 @@ export const materialSnapshotSchema = z.strictObject({
   density_kg_m3: z.number().positive(),
   specificHeat_J_kgK: z.number().positive(),
   gradedProfile: gradedProfileSchema.nullable(),
+  propertyTable: propertyTableSchema.nullable().optional(),
+  propertyTableSource: z.string().nullable().optional(),
   source: z.string(),
 })
 export type MaterialSnapshot = z.output<typeof materialSnapshotSchema>
@@ -138,6 +154,9 @@ export const quenchantSnapshotSchema = z.strictObject({
   hTypical_W_m2K: z.number().positive(),
   hHigh_W_m2K: z.number().positive(),
   bath_C: z.number(),
+  coolingCurves: coolingCurvesSchema.nullable().optional(),
+  emissivity: z.number().min(0).max(1).nullable().optional(),
+  curveSource: z.string().nullable().optional(),
   source: z.string(),
 })
 export type QuenchantSnapshot = z.output<typeof quenchantSnapshotSchema>

@@ -29,4 +29,10 @@ export interface PlanSummary {
   handlingPointSeries: PointStage[]
   /** The same for the furnace heat-up, when soak planning is on (time from charge). */
   heatUpSeries: PointStage[] | null
+  /**
+   * When the first quench stage ends (null: the plan has one stage). A temperature-dependent
+   * history has several segments per stage, so the series alone no longer says it;
+   * absent in summaries saved before, whose series has one segment per stage.
+   */
+  firstStageEnd_s?: number | null
 }

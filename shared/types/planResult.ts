@@ -13,6 +13,8 @@ export interface PlanStageResult {
   index: number
   quenchantName: string
   h_W_m2K: number
+  /** Lowest and highest coefficient the surface saw in this stage when the medium's curve was used, else null. */
+  hSeen_W_m2K: { min: number; max: number } | null
   ambient_C: number
   start_s: number
   end_s: number | null
@@ -22,6 +24,9 @@ export interface PlanStageResult {
   biotLumped: number
   modes: PlanMode[]
   truncationError_K: number
+  /** Which method the engine ran for this stage, and its error estimate (K). */
+  method: string
+  estimatedError_K: number
 }
 
 /** The editor's result panel: everything computed for one plan spec. SI and °C throughout. */
@@ -39,6 +44,20 @@ export interface PlanResult {
   material: { name: string; graded: boolean; k_W_mK: number; rhoCp_J_m3K: number; diffusivity_m2_s: number }
   curve: { t_s: number[]; centre_C: number[]; surface_C: number[]; mean_C: number[] }
   stageBoundaries_s: number[]
+  /** The coefficient the surface saw at each curve time: h(T_s) plus radiation, or the stage's single h. */
+  surfaceCoefficient_W_m2K: number[]
+  /** Which physics gave the headline and, when the library's tables or curves did, the single-value estimate beside it. */
+  physics: {
+    temperatureDependent: boolean
+    /** The engine's method(s), as its stage summaries name them. */
+    method: string
+    /** The largest stage error estimate (sub-step estimate or series truncation), K. */
+    estimatedError_K: number
+    /** The constant-property estimate (single k, ρ, cₚ and h per medium); null when that is the headline. */
+    constantPropertyToHandling_s: number | null
+    propertyTableSource: string | null
+    curveSources: string[]
+  }
   /** The handling point with every quenchant at its low and its high coefficient. */
   band: {
     low: { quenchToHandling_s: number; handling_C: number[] }

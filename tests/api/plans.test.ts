@@ -324,3 +324,103 @@ describe('plans: the seeded demo shop', () => {
     }
   })
 })
+
+describe('plans: temperature tables and cooling curves', () => {
+  // A medium-carbon steel table shaped like the engine tests' (quenchFixtures.ts: common practice,
+  // from memory) and still air as a convection curve plus radiation at emissivity 0.8 (oxidised
+  // steel, common practice); the band curves are the typical one scaled by 0.7 and 1.5. Air keeps
+  // the sub-step solves few, so the test stays well inside the engine budget on a loaded machine.
+  const table = [
+    { T_C: 20, k: 51, cp: 460, rho: 7850 },
+    { T_C: 400, k: 42, cp: 590 },
+    { T_C: 700, k: 31, cp: 900 },
+    { T_C: 740, k: 29.5, cp: 1400 },
+    { T_C: 850, k: 26, cp: 620 },
+    { T_C: 1000, k: 27.5, cp: 640 },
+  ]
+  const curve = [
+    { T_C: 25, h: 6 },
+    { T_C: 300, h: 9 },
+    { T_C: 900, h: 11 },
+  ]
+  const scaled = (f: number) => curve.map((p) => ({ T_C: p.T_C, h: p.h * f }))
+  let spec: Record<string, unknown>
+
+  beforeAll(async () => {
+    const suffix = `${Date.now()}-${Math.floor(Math.random() * 1e6)}`
+    const steel = await metallurgist.request('/api/materials', {
+      method: 'POST',
+      body: { name: `Table steel ${suffix}`, k_W_mK: 51, density_kg_m3: 7850, specificHeat_J_kgK: 460, propertyTable: table, propertyTableSource: 'test table', source: 'test' },
+    })
+    const air = await metallurgist.request('/api/quenchants', {
+      method: 'POST',
+      body: {
+        name: `Curve air ${suffix}`,
+        kind: 'still-air',
+        hLow_W_m2K: 5,
+        hTypical_W_m2K: 15,
+        hHigh_W_m2K: 80,
+        bath_C: 25,
+        coolingCurves: { low: scaled(0.7), typical: curve, high: scaled(1.5) },
+        emissivity: 0.8,
+        curveSource: 'test curve',
+        source: 'test',
+      },
+    })
+    expect([steel.status, air.status]).toEqual([201, 201])
+    spec = {
+      name: 'Table bar in still air',
+      part: { shape: 'round-bar', diameter_m: 0.03 },
+      materialId: steel.body.id,
+      start_C: 850,
+      stages: [{ quenchantId: air.body.id }],
+      handling: { below_C: 300 },
+    }
+  })
+
+  /** The same bar by hand as an engine case; `physics` picks the table and a curve or the single values. */
+  const barCase = (h: { hCurve: { T_C: number; h: number }[] } | { h: number }, tables: boolean) => ({
+    geometry: 'rod',
+    size_m: 0.015,
+    material: tables ? { table: table.map((r) => ({ ...r, rho: 7850 })) } : { k: 51, rho: 7850, cp: 460 },
+    initial_C: 850,
+    stages: [{ surface: { ...h, ambient_C: 25, ...('hCurve' in h ? { emissivity: 0.8 } : {}) } }],
+    target: { at: 'centre', below_C: 300 },
+  })
+
+  it('a plan returns the temperature-dependent time and the constant-property one, with the band from the low and high curves', async () => {
+    const response = await metallurgist.request('/api/plans/preview', { method: 'POST', body: spec })
+    expect(response.status).toBe(200)
+    const result = response.body
+    // Source: the engine run directly on hand-written cases.
+    expect(result.quenchToHandling_s).toBeCloseTo(runCase(barCase({ hCurve: curve }, true)).targetTime_s as number, 6)
+    expect(result.band.low.quenchToHandling_s).toBeCloseTo(runCase(barCase({ hCurve: scaled(0.7) }, true)).targetTime_s as number, 6)
+    expect(result.physics.constantPropertyToHandling_s).toBeCloseTo(runCase(barCase({ h: 15 }, false)).targetTime_s as number, 6)
+    expect(result.physics).toMatchObject({ temperatureDependent: true, method: 'eigenmode series, frozen-coefficient sub-steps' })
+    expect(result.summary.slowEndToHandling_s).toBe(result.band.low.quenchToHandling_s)
+    expect(result.band.high.quenchToHandling_s).toBeLessThan(result.quenchToHandling_s)
+    expect(pointValue(result.summary.handlingPointSeries, result.quenchToHandling_s)).toBeCloseTo(300, 6)
+    // Radiation dominates while the bar is hot: εσ(T_s² + T∞²)(T_s + T∞) is 77 W/m²K at 800 °C (Incropera eq. 1.9) against 11 of convection.
+    expect(result.stages[0].hSeen_W_m2K.max).toBeGreaterThan(77 + 11)
+  }, 60_000)
+
+  it('the finite-difference check uses the non-linear Crank–Nicolson and agrees within 0.2 K', async () => {
+    const check = await metallurgist.request('/api/plans/check', { method: 'POST', body: spec })
+    expect(check.status).toBe(200)
+    expect(check.body.how).toMatch(/^non-linear Crank–Nicolson/)
+    expect(check.body.maxDifference_K).toBeLessThan(0.2)
+  }, 60_000)
+
+  it('saved, the revision keeps the table and curves; asking for the single values gives the constant-property time', async () => {
+    const saved = await metallurgist.request('/api/plans', { method: 'POST', body: spec })
+    expect(saved.status).toBe(201)
+    expect(saved.body.spec.library.material.propertyTable).toEqual(table)
+    expect(saved.body.spec.library.quenchants[0].coolingCurves.typical).toEqual(curve)
+    const constant = await metallurgist.request('/api/plans/preview', { method: 'POST', body: { ...spec, physics: 'constant' } })
+    expect(constant.body.quenchToHandling_s).toBeCloseTo(saved.body.result.physics.constantPropertyToHandling_s, 9)
+    expect(constant.body.physics.temperatureDependent).toBe(false)
+    const bad = await metallurgist.request('/api/plans/preview', { method: 'POST', body: { ...spec, physics: 'quantum' } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.problems[0].field).toBe('physics')
+  }, 60_000)
+})

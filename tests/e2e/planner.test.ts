@@ -75,6 +75,26 @@ describe('cooldown planner in the browser', () => {
     await page.context().close()
   })
 
+  it('the demo drive pin shows its temperature-dependent time beside the constant-property estimate, and the method, in °F too', async () => {
+    const metallurgist = await signInDemo('metallurgist')
+    const list = (await metallurgist.request('/api/plans')).body as { id: number; name: string }[]
+    const pin = list.find((p) => p.name.startsWith('Drive pin'))!
+    const stored = (await metallurgist.request(`/api/plans/${pin.id}`)).body
+    const page = await browser.tabletPage()
+    await signInThroughPage(page, 'metallurgist', `/plans/${pin.id}`)
+    expect(await headlineSeconds(page)).toBeCloseTo(stored.result.quenchToHandling_s, 6)
+    const estimate = page.getByTestId('constant-property-estimate')
+    await estimate.waitFor()
+    expect(Number(await estimate.locator('strong').getAttribute('data-seconds'))).toBeCloseTo(stored.result.physics.constantPropertyToHandling_s, 6)
+    expect(await page.getByTestId('plan-method').textContent()).toMatch(/temperature tables and cooling curves; method: eigenmode series, frozen-coefficient sub-steps, estimated error [0-9.]+ K/)
+    await page.getByTestId('plan-curve-chart').locator('canvas').first().waitFor()
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/planner-drive-pin-two-times.png`, fullPage: true })
+    await page.getByLabel('Temperature unit').selectOption('F')
+    // A kelvin of error is 1.8 °F.
+    await page.getByTestId('plan-method').getByText(/estimated error [0-9.]+ °F/).waitFor()
+    await page.context().close()
+  }, 60_000)
+
   it('an operator sees plans read-only: no save button, form disabled', async () => {
     const page = await browser.tabletPage()
     await signInThroughPage(page, 'operator', '/plans')

@@ -24,6 +24,8 @@ export function resolveDemo({ material, stages, ...rest }: (typeof DEMO_PLANS)[n
         density_kg_m3: m.density_kg_m3,
         specificHeat_J_kgK: m.specificHeat_J_kgK,
         gradedProfile: m.gradedProfile,
+        propertyTable: m.propertyTable,
+        propertyTableSource: m.propertyTableSource,
         source: m.source,
       },
       quenchants: media.map((q, i) => ({
@@ -34,6 +36,9 @@ export function resolveDemo({ material, stages, ...rest }: (typeof DEMO_PLANS)[n
         hTypical_W_m2K: q.hTypical_W_m2K,
         hHigh_W_m2K: q.hHigh_W_m2K,
         bath_C: q.bath_C,
+        coolingCurves: q.coolingCurves,
+        emissivity: q.emissivity,
+        curveSource: q.curveSource,
         source: q.source,
       })),
     },
