@@ -51,10 +51,37 @@ function knotsBetween(history: PointStage[], from: number, until: number): numbe
   return [from, ...ends, until]
 }
 
+/** Halvings of one knot interval at most: 2⁸ pieces of a sub-step is far finer than any bend in it. */
+const MAX_SPLITS = 8
+
+/**
+ * The knots with each interval halved until one segment spans it within tolerance at its
+ * check points: right after a change of medium the history can bend more within one
+ * sub-step than a single one-term segment follows (the centre still falling while the
+ * surface turns), and the greedy pass below never splits an interval itself.
+ */
+function refinedKnots(history: PointStage[], knots: number[], ambient_C: number, tolerance_K: number): number[] {
+  const out = [knots[0]!]
+  const split = (t0: number, t1: number, depth: number) => {
+    const times = [t0, ...CHECKS.map((f) => t0 + f * (t1 - t0)), t1]
+    const values = pointValues(history, times)
+    const s = segment(t0, values[0]!, t1, values[times.length - 1]!, ambient_C)
+    if (depth < MAX_SPLITS && CHECKS.some((_, c) => Math.abs(segmentValue(s, times[c + 1]!) - values[c + 1]!) > tolerance_K)) {
+      split(t0, (t0 + t1) / 2, depth + 1)
+      split((t0 + t1) / 2, t1, depth + 1)
+    } else out.push(t1)
+  }
+  for (let i = 1; i < knots.length; i++) split(knots[i - 1]!, knots[i]!, 0)
+  return out
+}
+
 /** One stage up to `until`, split first at the kept times so each of them ends a segment. */
 function compactSpan(history: PointStage[], from: number, until: number, keep: number[], ambient_C: number, tolerance_K: number): PointStage[] {
   const cuts = [from, ...keep.filter((t) => t > from && t < until).sort((x, y) => x - y), until]
-  return cuts.slice(1).flatMap((end, i) => compactStage(history, knotsBetween(history, cuts[i]!, end), ambient_C, tolerance_K))
+  return cuts.slice(1).flatMap((end, i) => {
+    const knots = refinedKnots(history, knotsBetween(history, cuts[i]!, end), ambient_C, tolerance_K)
+    return compactStage(history, knots, ambient_C, tolerance_K)
+  })
 }
 
 /** Where each knot interval is checked: its quarter, mid and three-quarter points. */
