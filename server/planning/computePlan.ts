@@ -345,6 +345,14 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
     handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, stageSpans(stages), [t_h]) : runs.headline.series,
     heatUpSeries: runs.heatUp ? runs.heatUp.series : null,
     firstStageEnd_s: stages[0]!.end_s,
+    ...(temperatureDependent
+      ? {
+          bandPointSeries: {
+            low: compactHistory(runs.low.series, stageSpans(stages), [runs.low.targetTime_s]),
+            high: compactHistory(runs.high.series, stageSpans(stages), [runs.high.targetTime_s]),
+          },
+        }
+      : {}),
   }
   const body = engineBody(plan.part)
   return {

@@ -3,13 +3,15 @@
  * plan revision's quench run again with every quenchant at its low and at its high
  * coefficient, the same two runs the planner draws as the band (computePlan.ts), kept
  * here as point series so the band can be read at any moment, the release tap
- * included. Framework-free; run only when a load has a log.
+ * included. A temperature-dependent plan stored its band with its summary (those runs
+ * take seconds), which is read instead of run. Framework-free; used only when a load has a log.
  */
 import { COMPUTE_BUDGET_MS, Deadline } from '../thermal/deadline'
 import { runCase } from '../thermal/runCase'
 import { runProduct } from '../thermal/productSolution'
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { resolvedPlanSchema, type CoefficientChoice } from '../../shared/schemas/plan'
+import type { PlanSummary } from '../../shared/types/plan'
 import type { CurvePoint, PredictedBand } from '../../shared/types/records'
 import { productInput, quenchCase } from '../planning/computePlan'
 import { engineBody } from '../planning/shapes'
@@ -26,8 +28,9 @@ function bandRun(spec: unknown, choice: CoefficientChoice, deadline: Deadline): 
   return runProduct(productInput(plan, choice), { deadline }).series
 }
 
-/** Both ends of the band for a stored revision spec, within one engine budget; null when the spec cannot be run. */
-export function bandSeriesOf(spec: unknown): BandSeries | null {
+/** Both ends of the band for a stored revision (its summary's, or run within one engine budget); null when the spec cannot be run. */
+export function bandSeriesOf(spec: unknown, summary?: Pick<PlanSummary, 'bandPointSeries'> | null): BandSeries | null {
+  if (summary?.bandPointSeries) return summary.bandPointSeries
   const deadline = new Deadline(COMPUTE_BUDGET_MS)
   try {
     return { low: bandRun(spec, 'low', deadline), high: bandRun(spec, 'high', deadline) }

@@ -118,8 +118,8 @@ async function snapshotOf(tx: Transaction, batchId: number, releasedBy: { id: nu
   const [events, corrections, logs] = await Promise.all([batchEventsOf(tx, batchId), correctionsOf(tx, batchId), loadLogsOf(tx, batchId)])
   return buildSnapshot({
     logs,
-    // The band is run again only for a load with a log: the planner's summary keeps its times, not its curves.
-    band: logs.length ? bandSeriesOf(spec) : null,
+    // Only a load with a log needs the band: a temperature-dependent plan's summary keeps it; a constant-property one is run again.
+    band: logs.length ? bandSeriesOf(spec, summary) : null,
     batch: found.batch,
     furnace: found.furnace,
     station: found.station,

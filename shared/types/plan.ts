@@ -35,4 +35,11 @@ export interface PlanSummary {
    * absent in summaries saved before, whose series has one segment per stage.
    */
   firstStageEnd_s?: number | null
+  /**
+   * The handling point's history at each end of the quench band, compacted like
+   * handlingPointSeries: kept for temperature-dependent plans, whose band takes seconds to
+   * run again, so a record that compares a measured trace reads it instead. Absent for
+   * constant-property plans (their band reruns in milliseconds) and older summaries.
+   */
+  bandPointSeries?: { low: PointStage[]; high: PointStage[] }
 }

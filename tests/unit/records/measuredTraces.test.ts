@@ -89,6 +89,23 @@ describe('the band on the record', () => {
     30_000,
   )
 
+  it('of a temperature-dependent plan is read from its summary: the same runs, compacted, no engine run on the request thread', () => {
+    const plan = resolveDemo(DEMO_PLANS.find((p) => p.name.startsWith('Drive pin'))!)
+    const result = computePlan(plan)
+    const stored = result.summary.bandPointSeries!
+    // Spec unreadable on purpose: a band that came from the spec would be null.
+    const band = bandSeriesOf({ name: 'not a plan' }, result.summary)!
+    expect(band).toBe(stored)
+    // Within the compaction's 0.1 K of the planner's own band runs, wherever the planner drew them (0.2 K allowed between check points).
+    result.curve.t_s.forEach((t, i) => {
+      if (t <= 0) return
+      expect(Math.abs(pointValue(band.low, t) - result.band.low.handling_C[i]!)).toBeLessThan(0.2)
+      expect(Math.abs(pointValue(band.high, t) - result.band.high.handling_C[i]!)).toBeLessThan(0.2)
+    })
+    // Exact at the band's own handling moments (compaction knots).
+    expect(slowEndAt(band, result.summary.slowEndToHandling_s!)).toBeCloseTo(plan.handling.below_C, 6)
+  }, 60_000)
+
   it('is null for a spec the engine cannot run again', () => {
     expect(bandSeriesOf({ name: 'not a plan' })).toBeNull()
   })
