@@ -10,6 +10,7 @@ import { createError } from 'h3'
 import { planRevisions, plans } from '../db/schema'
 import { useDb } from '../utils/db'
 import { engineBody } from '../planning/shapes'
+import { engineMaterial } from '../planning/quenchPhysics'
 import { PART_SHAPE_LABELS, resolvedPlanSchema, type Part } from '../../shared/schemas/plan'
 import type { PlanProbe } from '../../shared/schemas/calibration'
 import type { CalibrationProbe } from '../../shared/types/calibration'
@@ -69,7 +70,7 @@ export async function planProbeBody(probe: PlanProbe): Promise<ProbeBody> {
       size_m: body.size_m,
       x: thermocoupleX(probe.thermocouple, body.size_m),
     },
-    // The snapshot's material as the plan's engine reads it: a graded profile when it has one.
-    material: m.gradedProfile ? { profile: m.gradedProfile } : { k: m.k_W_mK, rho: m.density_kg_m3, cp: m.specificHeat_J_kgK },
+    // The snapshot's material as the plan's engine reads it: its graded profile or property table when it has one.
+    material: engineMaterial(m, spec.physics),
   }
 }
