@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, desc, eq, inArray, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import { z } from 'zod'
 import type { Database, Transaction } from '../db/client'
@@ -118,29 +118,36 @@ export interface PlanListQuery {
 }
 
 export async function listPlans(query: PlanListQuery = { archived: false }): Promise<PlanListItem[]> {
+  // Only the few fields the list shows, read in the database: a temperature-dependent
+  // revision's spec and summary carry tables, curves and histories of tens of kB each.
+  const text = (json: typeof planRevisions.spec, path: string) => sql<string | null>`JSON_VALUE(${json}, ${path})`
+  const number = (json: typeof planRevisions.summary, path: string) => sql<number | null>`CAST(JSON_VALUE(${json}, ${path}) AS DOUBLE)`
   const rows = await useDb()
-    .select({ plan: plans, spec: planRevisions.spec, summary: planRevisions.summary })
+    .select({
+      plan: plans,
+      shape: text(planRevisions.spec, '$.part.shape'),
+      materialName: text(planRevisions.spec, '$.library.material.name'),
+      quenchToHandling_s: number(planRevisions.summary, '$.quenchToHandling_s'),
+      soakTotal_s: number(planRevisions.summary, '$.soak.total_s'),
+      handling_C: number(planRevisions.summary, '$.handling_C'),
+    })
     .from(plans)
     .innerJoin(planRevisions, and(eq(planRevisions.planId, plans.id), eq(planRevisions.revision, plans.latestRevision)))
     .where(eq(plans.archived, query.archived))
     .orderBy(desc(plans.updatedAt))
   const wanted = query.q?.trim().toLowerCase() ?? ''
-  const items = rows.map(({ plan, spec, summary }): PlanListItem => {
-    const s = spec as Partial<ResolvedPlan>
-    const sum = summary as PlanSummary | null
-    return {
-      id: plan.id,
-      name: plan.name,
-      latestRevision: plan.latestRevision,
-      shape: PART_SHAPES.includes(s.part?.shape as never) ? (s.part!.shape as PlanListItem['shape']) : 'plate',
-      materialName: s.library?.material.name ?? '',
-      quenchToHandling_s: sum?.quenchToHandling_s ?? null,
-      soakTotal_s: sum?.soak?.total_s ?? null,
-      handling_C: sum?.handling_C ?? null,
-      updatedAt: plan.updatedAt.toISOString(),
-      archived: plan.archived,
-    }
-  })
+  const items = rows.map(({ plan, shape, materialName, quenchToHandling_s, soakTotal_s, handling_C }): PlanListItem => ({
+    id: plan.id,
+    name: plan.name,
+    latestRevision: plan.latestRevision,
+    shape: PART_SHAPES.includes(shape as never) ? (shape as PlanListItem['shape']) : 'plate',
+    materialName: materialName ?? '',
+    quenchToHandling_s,
+    soakTotal_s,
+    handling_C,
+    updatedAt: plan.updatedAt.toISOString(),
+    archived: plan.archived,
+  }))
   return items.filter((item) => (!query.shape || item.shape === query.shape) && (!wanted || `${item.name}\n${item.materialName}`.toLowerCase().includes(wanted)))
 }
 
