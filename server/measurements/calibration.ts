@@ -16,17 +16,9 @@ import { FitError, parseFit, type FitInput } from './fitSchema'
 import { readLogSeries } from './logStore'
 import { planProbeBody, type ProbeBody } from './planProbe'
 import { PROBE_PRESETS } from './probes'
+import { evenRows } from '../../shared/evenRows'
 
 export const MAX_CALIBRATION_POINTS = 600
-
-/** Every k-th row (k as small as keeps at most `limit`), always with the last. */
-export function evenRows(count: number, limit: number): number[] {
-  const stride = Math.max(1, Math.ceil((count - 1) / (limit - 1)))
-  const rows: number[] = []
-  for (let i = 0; i < count; i += stride) rows.push(i)
-  if (rows[rows.length - 1] !== count - 1) rows.push(count - 1)
-  return rows
-}
 
 /** Indexes of the rows whose times lie in [from_s, to_s]. */
 export function windowRows(t_s: ArrayLike<number>, window: { from_s: number; to_s: number } | undefined): number[] {

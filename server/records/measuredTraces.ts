@@ -16,6 +16,7 @@
 import type { CurvePoint, MeasuredTrace } from '../../shared/types/records'
 import { compareTrace, type TracePlan, type TraceToJudge } from './deviations'
 import { formatInstant, formatSpan } from './format'
+import { evenRows } from '../../shared/evenRows'
 
 /** A stored log attached to the load, with its full series (seconds from its first row, °C). */
 export interface LoadLog {
@@ -44,13 +45,10 @@ export function alignment(log: Pick<LoadLog, 'startedAt' | 'quenchAtLog_s'>, que
   return { quenchAtLog_s: 0, alignment: 'the log\'s first row is the quench tap (no start time or offset given)' }
 }
 
-/** Every `stride`-th point and the last, at most `max` points. */
+/** At most `max` points, evenly (every k-th and the last). */
 export function thinPoints(points: readonly CurvePoint[], max = TRACE_POINTS): CurvePoint[] {
   if (points.length <= max) return [...points]
-  const stride = Math.ceil((points.length - 1) / (max - 1))
-  const kept = points.filter((_, i) => i % stride === 0)
-  if ((points.length - 1) % stride !== 0) kept.push(points[points.length - 1]!)
-  return kept
+  return evenRows(points.length, max).map((i) => points[i]!)
 }
 
 export interface AlignedTrace extends TraceToJudge {
