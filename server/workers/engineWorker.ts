@@ -7,11 +7,14 @@
  * Errors lose their class crossing threads, so an engine refusal (CaseError) comes
  * back as a value and the request thread rebuilds it.
  */
+import { runThisThreadInBackground } from './backgroundPriority'
 import { Deadline } from '../thermal/deadline'
 import { CaseError } from '../thermal/errors'
 import { checkPlan, computeBudget_ms, computePlan } from '../planning/computePlan'
 import type { ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
+
+runThisThreadInBackground()
 
 export type EngineOutcome<T> = { ok: true; value: T } | { ok: false; field: string; message: string }
 

@@ -5,9 +5,12 @@
  * their class crossing threads).
  */
 import { parentPort, workerData } from 'node:worker_threads'
+import { runThisThreadInBackground } from './backgroundPriority'
 import { fitCoolingLog } from '../measurements/fit'
 import { FitError } from '../measurements/fitSchema'
 import type { CalibrationMessage as FitMessage } from '../../shared/types/calibration'
+
+runThisThreadInBackground()
 
 const post = (message: FitMessage) => parentPort?.postMessage(message)
 
