@@ -12,6 +12,8 @@ import type { PlanCheckResult, PlanResult } from '../../shared/types/planResult'
 
 export interface PlanEngine {
   compute(plan: ResolvedPlan): Promise<PlanResult>
+  /** The result as the JSON text a response carries. */
+  computeJson(plan: ResolvedPlan): Promise<string>
   check(plan: ResolvedPlan): Promise<PlanCheckResult>
   stats(): ({ mode: 'worker' } & JobPoolStats) | { mode: 'in-process' }
 }
@@ -28,6 +30,7 @@ function unwrap<T>(result: EngineOutcome<T>): T {
  */
 const inProcess: PlanEngine = {
   compute: async (plan) => computePlan(plan),
+  computeJson: async (plan) => JSON.stringify(computePlan(plan)),
   check: async (plan) => checkPlan(plan),
   stats: () => ({ mode: 'in-process' }),
 }
@@ -38,6 +41,7 @@ let current: PlanEngine = inProcess
 export function useWorkerPool(pool: JobPool): void {
   current = {
     compute: async (plan) => unwrap(await pool.run<EngineOutcome<PlanResult>>('compute', plan)),
+    computeJson: async (plan) => unwrap(await pool.run<EngineOutcome<string>>('computeJson', plan)),
     check: async (plan) => unwrap(await pool.run<EngineOutcome<PlanCheckResult>>('check', plan)),
     stats: () => ({ mode: 'worker', ...pool.stats() }),
   }

@@ -97,8 +97,10 @@ async function engine<T>(run: () => Promise<T>): Promise<T> {
 export const computeResolved = (plan: ResolvedPlan): Promise<PlanResult> => engine(() => planEngine().compute(plan))
 export const checkResolved = (plan: ResolvedPlan): Promise<PlanCheckResult> => engine(() => planEngine().check(plan))
 
-export async function previewPlan(spec: PlanSpec): Promise<PlanResult> {
-  return await computeResolved(await resolvePlan(spec))
+/** The preview as JSON text (a PlanResult), serialised where it was computed. */
+export async function previewPlanJson(spec: PlanSpec): Promise<string> {
+  const plan = await resolvePlan(spec)
+  return await engine(() => planEngine().computeJson(plan))
 }
 
 export async function checkSpec(spec: PlanSpec): Promise<PlanCheckResult> {

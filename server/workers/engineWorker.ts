@@ -28,5 +28,10 @@ function outcome<T>(run: () => T): EngineOutcome<T> {
 }
 
 // The engine's own budget refuses a slow case with a message; the pool's cap is the backstop for anything it misses.
-export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, { deadline: new Deadline(computeBudget_ms(plan)) }))
-export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, { deadline: new Deadline(computeBudget_ms(plan)) }))
+const budgeted = (plan: ResolvedPlan) => ({ deadline: new Deadline(computeBudget_ms(plan)) })
+
+export const compute = (plan: ResolvedPlan): EngineOutcome<PlanResult> => outcome(() => computePlan(plan, budgeted(plan)))
+export const check = (plan: ResolvedPlan): EngineOutcome<PlanCheckResult> => outcome(() => checkPlan(plan, budgeted(plan)))
+// A preview goes to the client as it is: serialised here, the request thread neither
+// clones its tens of kB of curves across threads nor stringifies them again.
+export const computeJson = (plan: ResolvedPlan): EngineOutcome<string> => outcome(() => JSON.stringify(computePlan(plan, budgeted(plan))))

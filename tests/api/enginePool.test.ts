@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { anonymous, signInDemo } from '../support/http'
+import { BASE_URL } from '../support/stackConfig'
 import { createLibraryFixture } from '../support/library'
 import { pinSpec, savePlan } from '../support/plans'
 import { computePlan } from '../../server/planning/computePlan'
@@ -17,12 +18,21 @@ describe('the engine worker pool', () => {
     const saved = await savePlan(metallurgist, pinSpec(await createLibraryFixture(metallurgist)))
     const detail = await metallurgist.request(`/api/plans/${saved.planId}`)
     expect(detail.status).toBe(200)
-    const preview = await metallurgist.request('/api/plans/preview', { method: 'POST', body: (({ library: _library, ...spec }) => spec)(detail.body.spec) })
+    const previewSpec = (({ library: _library, ...spec }) => spec)(detail.body.spec)
+    const preview = await metallurgist.request('/api/plans/preview', { method: 'POST', body: previewSpec })
     expect(preview.status).toBe(200)
+    // Serialised on the worker thread and sent as that text: still labelled JSON, which the editor's $fetch parses by.
+    const raw = await fetch(`${BASE_URL}/api/plans/preview`, {
+      method: 'POST',
+      headers: { 'cookie': metallurgist.cookie, 'accept': 'application/json', 'content-type': 'application/json' },
+      body: JSON.stringify(previewSpec),
+    })
+    expect(raw.headers.get('content-type')).toMatch(/^application\/json/)
+    expect(((await raw.json()) as { quenchToHandling_s: number }).quenchToHandling_s).toBe(preview.body.quenchToHandling_s)
 
     const after = await engineStats()
-    // The save, the read and the preview: three jobs on the pool.
-    expect(after.started - before.started).toBeGreaterThanOrEqual(3)
+    // The save, the read and the two previews: four jobs on the pool.
+    expect(after.started - before.started).toBeGreaterThanOrEqual(4)
     // The same stored plan computed in this process by the framework-free code.
     const here = computePlan(detail.body.spec)
     expect(preview.body.quenchToHandling_s).toBeCloseTo(here.quenchToHandling_s, 9)
