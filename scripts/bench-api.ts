@@ -1,24 +1,28 @@
 // npm run bench:api — HTTP figures of the built server on a scratch database (dropped
 // afterwards), with autocannon:
 // - the floor poll, the plans list and a plan preview at 32 concurrent clients, with one
-//   server process and with two (two processes on one database behind a round-robin
-//   TCP relay in this script; the relay carries the one-process runs too, so both pay it);
+//   server process and with two on one database. The clients are two autocannon runs of
+//   16 side by side, both on the one process or one on each of the two: the same client
+//   work either way, and no relay in this process (a shop's proxy runs on its own cores);
+// - where the CPU went during each run: the servers, MariaDB, this script (the clients)
+//   and everything else on the machine, in cores, from /proc;
 // - the floor poll's p95 alone and while four clients run graded (case-hardened) previews;
 // - the floor poll's size for 40 cards (raw, gzipped, and the 304 when unchanged), and the
 //   JavaScript /floor loads (its module scripts and preloads, gzipped).
 // Prints figures and ratios; never fails on time.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { request } from 'node:http'
-import { createServer, connect, type Server } from 'node:net'
+import { readFileSync } from 'node:fs'
+import { availableParallelism } from 'node:os'
 import { gzipSync } from 'node:zlib'
 import autocannon from 'autocannon'
 import { demoPlanRevisions } from '../server/db/demo/schedule'
 import { DEMO_USERS } from '../server/db/demo/shop'
+import { formatShares, sampleCpu, type CpuShares } from './bench/cpuShares'
 import { quantiles } from './bench/quantiles'
 import { benchBatch, benchLines, insertBatches, root, scratchDatabase, sh } from './bench/scratchDatabase'
 
 const BASE_PORT = Number(process.env.SLAKEWISE_BENCH_APP_PORT ?? 3190)
-const RELAY_PORT = BASE_PORT + 9
 const CLIENTS = 32
 const SECONDS = Number(process.env.SLAKEWISE_BENCH_SECONDS ?? 8)
 const FLOOR_CARDS = 40
@@ -28,36 +32,47 @@ interface Figures {
   p95: number
   perSecond: number
   failed: number
+  /** CPU use during the run, in cores. */
+  cpu: CpuShares
 }
 
-/** Runs autocannon against `url`, timing each answer itself (autocannon reports no p95). */
-async function measure(url: string, connections: number, options: { method?: string; headers: Record<string, string>; body?: () => string }): Promise<Figures> {
+/** The processes whose CPU use each run reports, filled in once they are up. */
+const watched: Record<string, number> = {}
+
+/**
+ * Runs one autocannon per URL side by side, `connections` split evenly between them,
+ * timing each answer itself (autocannon reports no p95).
+ */
+interface RequestShape {
+  method?: string
+  headers: Record<string, string>
+  body?: () => string
+}
+
+async function measure(urls: string[], connections: number, options: RequestShape): Promise<Figures> {
   const latencies: number[] = []
-  const result = await autocannon({
-    url,
-    connections,
-    duration: SECONDS,
-    requests: [{ method: options.method ?? 'GET', headers: options.headers, setupRequest: (request) => (options.body ? { ...request, body: options.body() } : request) }],
-    setupClient: (client) => client.on('response', (_status: number, _bytes: number, time: number) => latencies.push(time)),
-  })
+  const cpu = sampleCpu(watched)
+  const results = await Promise.all(
+    urls.map((url) =>
+      autocannon({
+        url,
+        connections: connections / urls.length,
+        duration: SECONDS,
+        requests: [{ method: options.method ?? 'GET', headers: options.headers, setupRequest: (request) => (options.body ? { ...request, body: options.body() } : request) }],
+        setupClient: (client) => client.on('response', (_status: number, _bytes: number, time: number) => latencies.push(time)),
+      }),
+    ),
+  )
+  const shares = cpu()
   const q = quantiles(latencies)
-  return { p50: q.median, p95: q.p95, perSecond: result.requests.total / result.duration, failed: result.non2xx + result.errors + result.timeouts }
-}
-
-/** Each new connection goes to the next backend: autocannon's keep-alive clients split evenly. */
-function relay(ports: number[]): Promise<Server> {
-  let next = 0
-  const server = createServer((socket) => {
-    const upstream = connect(ports[next++ % ports.length]!, '127.0.0.1')
-    socket.pipe(upstream).pipe(socket)
-    const close = () => {
-      socket.destroy()
-      upstream.destroy()
-    }
-    socket.on('error', close)
-    upstream.on('error', close)
-  })
-  return new Promise((resolve) => server.listen(RELAY_PORT, '127.0.0.1', () => resolve(server)))
+  const sum = (pick: (result: (typeof results)[number]) => number) => results.reduce((total, result) => total + pick(result), 0)
+  return {
+    p50: q.median,
+    p95: q.p95,
+    perSecond: sum((r) => r.requests.total) / Math.max(...results.map((r) => r.duration)),
+    failed: sum((r) => r.non2xx + r.errors + r.timeouts),
+    cpu: shares,
+  }
 }
 
 function startServer(port: number, databaseUrl: string): ChildProcess {
@@ -128,7 +143,6 @@ async function pageScripts(base: string, path: string, cookie: string) {
 
 const scratch = await scratchDatabase('api')
 const servers: ChildProcess[] = []
-let relayServer: Server | undefined
 try {
   // 40 loads on the floor: each on its own furnace and tank, charged within the next few hours.
   const plan = (await demoPlanRevisions(scratch.db))[0]!
@@ -141,6 +155,9 @@ try {
   const ports = [BASE_PORT, BASE_PORT + 1]
   for (const port of ports) servers.push(startServer(port, scratch.url))
   for (const port of ports) sh(['-c', `source scripts/lib.sh && wait_for_url http://127.0.0.1:${port}/api/health`])
+  watched['server A'] = servers[0]!.pid!
+  watched['server B'] = servers[1]!.pid!
+  watched.mariadb = Number(readFileSync(`${root}.data/dev/mariadb.pid`, 'utf8'))
   const direct = `http://127.0.0.1:${ports[0]}`
   // A session is a signed token: valid on both processes, which share the secret.
   const cookie = await signIn(direct, 'metallurgist')
@@ -171,7 +188,6 @@ try {
   const floorJs = await pageScripts(direct, '/floor', cookie)
   const plansJs = await pageScripts(direct, '/plans/new', cookie)
 
-  relayServer = await relay(ports)
   const cases = [
     { name: 'floor poll (GET /api/floor)', path: '/api/floor', options: { headers: json } },
     { name: 'plans list (GET /api/plans)', path: '/api/plans', options: { headers: json } },
@@ -179,20 +195,21 @@ try {
   ]
   const table: { name: string; one: Figures; two: Figures }[] = []
   for (const c of cases) {
-    const one = await measure(`http://127.0.0.1:${ports[0]}${c.path}`, CLIENTS, c.options)
-    const two = await measure(`http://127.0.0.1:${RELAY_PORT}${c.path}`, CLIENTS, c.options)
+    const one = await measure([ports[0]!, ports[0]!].map((port) => `http://127.0.0.1:${port}${c.path}`), CLIENTS, c.options)
+    const two = await measure(ports.map((port) => `http://127.0.0.1:${port}${c.path}`), CLIENTS, c.options)
     table.push({ name: c.name, one, two })
   }
 
-  const floorAlone = await measure(`${direct}/api/floor`, 4, { headers: json })
+  const floorAlone = await measure([`${direct}/api/floor`], 4, { headers: json })
   const [floorBusy, gradedLoad] = await Promise.all([
-    measure(`${direct}/api/floor`, 4, { headers: json }),
-    measure(`${direct}/api/plans/preview`, 4, { ...post, body: previewBody(graded) }),
+    measure([`${direct}/api/floor`], 4, { headers: json }),
+    measure([`${direct}/api/plans/preview`], 4, { ...post, body: previewBody(graded) }),
   ])
   const health = (await (await fetch(`${direct}/api/health`)).json()) as { engine: unknown }
 
   const ms = (v: number) => v.toFixed(0).padStart(7)
-  console.log(`\n${CLIENTS} concurrent clients, ${SECONDS} s each; two processes = two servers on one database behind a round-robin relay`)
+  console.log(`\n${CLIENTS} concurrent clients (two autocannon runs of ${CLIENTS / 2} in this process), ${SECONDS} s each; 1 proc: both runs on server A; 2 proc: one run on each of servers A and B, one database`)
+  console.log('(no proxy in between: a shop\'s reverse proxy runs on its own machine or cores, not on the two the servers use)')
   console.log('case'.padEnd(32), '1 proc p50'.padStart(10), 'p95'.padStart(7), 'req/s'.padStart(7), ' | ', '2 proc p50'.padStart(10), 'p95'.padStart(7), 'req/s'.padStart(7), ' | ', 'req/s ratio'.padStart(11), 'failed')
   for (const row of table) {
     console.log(
@@ -202,13 +219,18 @@ try {
       `${(row.two.perSecond / row.one.perSecond).toFixed(2)}×`.padStart(11), `${row.one.failed}/${row.two.failed}`,
     )
   }
+  console.log(`\nCPU during each run, in cores (${availableParallelism()} on this machine); self = this script, the clients`)
+  for (const row of table) {
+    console.log(`${row.name.padEnd(32)} 1 proc: ${formatShares(row.one.cpu)}`)
+    console.log(`${''.padEnd(32)} 2 proc: ${formatShares(row.two.cpu)}`)
+  }
+  console.log(`${'floor poll beside graded previews'.padEnd(32)} ${formatShares(floorBusy.cpu)}`)
   console.log(`\nfloor poll, 4 clients, one process: p95 ${floorAlone.p95.toFixed(0)} ms alone; ${floorBusy.p95.toFixed(0)} ms while 4 clients preview the graded plan (${gradedLoad.perSecond.toFixed(1)} previews/s, p50 ${gradedLoad.p50.toFixed(0)} ms); ratio ${(floorBusy.p95 / floorAlone.p95).toFixed(1)}× (target under 40 ms)`)
   console.log(`engine after the runs: ${JSON.stringify(health.engine)}`)
   console.log(`\nfloor poll for ${cards} cards: ${Buffer.byteLength(floorText)} B raw (target under 20,000 for 40), ${zipped.bytes} B as sent to a client accepting gzip (content-encoding ${zipped.encoding}); unchanged → ${again.status}`)
   console.log(`/floor loads ${floorJs.scripts} module scripts, ${(floorJs.gzip / 1000).toFixed(0)} kB gzipped (target under 200), and hints ${floorJs.prefetched} more for prefetch (${(floorJs.prefetchedGzip / 1000).toFixed(0)} kB)`)
   console.log(`/plans/new (a chart page) loads ${plansJs.scripts} module scripts, ${(plansJs.gzip / 1000).toFixed(0)} kB gzipped`)
 } finally {
-  relayServer?.close()
   for (const server of servers) server.kill('SIGTERM')
   await scratch.drop()
 }
