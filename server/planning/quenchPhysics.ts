@@ -6,6 +6,7 @@
  * the single values exactly as before. Framework-free, like the rest of the planner's core.
  */
 import type { CoefficientChoice, MaterialSnapshot, QuenchPhysics, QuenchantSnapshot, ResolvedPlan } from '../../shared/schemas/plan'
+import { convectiveBoundaryOf } from '../thermal/caseSchema'
 import { CaseError } from '../thermal/errors'
 import { surfaceLaw } from '../thermal/surfaceCurve'
 
@@ -43,17 +44,7 @@ export function surfaceCoefficients(
   stageEnds_s: (number | null)[],
   surfaces: ReturnType<typeof engineSurface>[],
 ): number[] {
-  const laws = surfaces.map((s) =>
-    'hCurve' in s
-      ? surfaceLaw({
-          type: 'convective',
-          ambient_C: s.ambient_C,
-          h_W_m2K: s.hCurve[0]!.h,
-          hCurve: s.hCurve.map((p) => ({ T_C: p.T_C, h_W_m2K: p.h })),
-          ...(s.emissivity === undefined ? {} : { emissivity: s.emissivity }),
-        })
-      : surfaceLaw({ type: 'convective', ambient_C: s.ambient_C, h_W_m2K: s.h }),
-  )
+  const laws = surfaces.map((s) => surfaceLaw(convectiveBoundaryOf(s)))
   return curve.t_s.map((t, i) => {
     const stage = stageEnds_s.findIndex((end) => end === null || t <= end)
     return laws[stage === -1 ? laws.length - 1 : stage]!.effectiveH(curve.surface_C[i]!)
