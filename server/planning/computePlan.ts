@@ -31,6 +31,7 @@ import { crackingWarning, curveRangeWarning, handlingAtMediumWarning, tableRange
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 import { coefficientOf, engineMaterial, engineSurface, hasTemperatureData, stageQuenchants, surfaceCoefficients } from './quenchPhysics'
 import { compactHistory } from './compactSeries'
+import { stageAt } from './stages'
 
 const PROFILE_TIMES = 25
 /**
@@ -280,9 +281,7 @@ function physicsWarnings(plan: ResolvedPlan, curve: ModelRun['curve'], stageEnds
   plan.stages.forEach((s, i) => {
     const curves = quenchants[i]!.coolingCurves
     if (!curves) return
-    const start = i === 0 ? -Infinity : (stageEnds_s[i - 1] as number)
-    const end = stageEnds_s[i] ?? Infinity
-    const surface = curve.surface_C.filter((_, j) => curve.t_s[j]! >= start && curve.t_s[j]! <= end)
+    const surface = curve.surface_C.filter((_, j) => stageAt(curve.t_s[j]!, stageEnds_s) === i)
     warnings.push(curveRangeWarning(i, { name: quenchants[i]!.name, curve: curves[s.coefficient] }, surface))
   })
   return warnings.filter((w) => w !== null)
@@ -307,7 +306,8 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
   const surfaceH = surfaceCoefficients(runs.detailed.curve, stageEnds_s, plan.stages.map((s, i) => engineSurface(quenchants[i]!, s.coefficient, physics)))
   const stages: PlanStageResult[] = runs.detailed.stages.map((s, i) => {
     const h = coefficientOf(quenchants[i]!, plan.stages[i]!.coefficient)
-    const seen = surfaceH.filter((_, j) => runs.detailed.curve.t_s[j]! > s.start_s && (s.end_s === null || runs.detailed.curve.t_s[j]! <= s.end_s))
+    // The start reading (t = 0: the part's start temperature, before the medium has acted) is not a coefficient the surface saw.
+    const seen = surfaceH.filter((_, j) => runs.detailed.curve.t_s[j]! > 0 && stageAt(runs.detailed.curve.t_s[j]!, stageEnds_s) === i)
     return {
       index: i,
       quenchantName: quenchants[i]!.name,

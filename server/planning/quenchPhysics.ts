@@ -9,6 +9,7 @@ import type { CoefficientChoice, MaterialSnapshot, QuenchPhysics, QuenchantSnaps
 import { convectiveBoundaryOf } from '../thermal/caseSchema'
 import { CaseError } from '../thermal/errors'
 import { surfaceLaw } from '../thermal/surfaceCurve'
+import { stageAt } from './stages'
 
 export function coefficientOf(q: QuenchantSnapshot, choice: CoefficientChoice): number {
   return choice === 'low' ? q.hLow_W_m2K : choice === 'high' ? q.hHigh_W_m2K : q.hTypical_W_m2K
@@ -37,7 +38,7 @@ export function engineSurface(q: QuenchantSnapshot, choice: CoefficientChoice, p
 
 /**
  * The coefficient the surface saw along a curve: h_eff(T_s) = h(T_s) + εσ(T_s² + T∞²)(T_s + T∞)
- * of the stage in force at each time (a stage boundary belongs to the earlier stage).
+ * of the stage in force at each time (stageAt: a stage boundary belongs to the earlier stage).
  */
 export function surfaceCoefficients(
   curve: { t_s: number[]; surface_C: number[] },
@@ -45,10 +46,7 @@ export function surfaceCoefficients(
   surfaces: ReturnType<typeof engineSurface>[],
 ): number[] {
   const laws = surfaces.map((s) => surfaceLaw(convectiveBoundaryOf(s)))
-  return curve.t_s.map((t, i) => {
-    const stage = stageEnds_s.findIndex((end) => end === null || t <= end)
-    return laws[stage === -1 ? laws.length - 1 : stage]!.effectiveH(curve.surface_C[i]!)
-  })
+  return curve.t_s.map((t, i) => laws[stageAt(t, stageEnds_s)]!.effectiveH(curve.surface_C[i]!))
 }
 
 /** The library values of the stages' quenchants, in stage order. */
