@@ -31,7 +31,7 @@ import { crackingWarning, curveRangeWarning, handlingAtMediumWarning, tableRange
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 import { coefficientOf, engineMaterial, engineSurface, hasTemperatureData, stageQuenchants, surfaceCoefficients } from './quenchPhysics'
 import { compactHistory } from './compactSeries'
-import { stageAt } from './stages'
+import { stageAt, stageSpans } from './stages'
 
 const PROFILE_TIMES = 25
 /**
@@ -336,20 +336,21 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
         total_s: runs.heatUp.targetTime_s + plan.soak.minimumSoak_s,
       }
     : null
+  const spans = stageSpans(stages)
   const summary: PlanSummary = {
     quenchToHandling_s: t_h,
     // The band's longest time: the low coefficients normally, whichever run is slowest in any case.
     slowEndToHandling_s: Math.max(t_h, runs.low.targetTime_s, runs.high.targetTime_s),
     handling_C: plan.handling.below_C,
     soak: soak ? { furnace_C: soak.furnace_C, heatUp_s: soak.heatUp_s, minimumSoak_s: soak.minimumSoak_s, total_s: soak.total_s } : null,
-    handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, stageSpans(stages), [t_h]) : runs.headline.series,
+    handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, spans, [t_h]) : runs.headline.series,
     heatUpSeries: runs.heatUp ? runs.heatUp.series : null,
     firstStageEnd_s: stages[0]!.end_s,
     ...(temperatureDependent
       ? {
           bandPointSeries: {
-            low: compactHistory(runs.low.series, stageSpans(stages), [runs.low.targetTime_s]),
-            high: compactHistory(runs.high.series, stageSpans(stages), [runs.high.targetTime_s]),
+            low: compactHistory(runs.low.series, spans, [runs.low.targetTime_s]),
+            high: compactHistory(runs.high.series, spans, [runs.high.targetTime_s]),
           },
         }
       : {}),
@@ -390,11 +391,6 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
       ...physicsWarnings(plan, runs.detailed.curve, stageEnds_s, temperatureDependent),
     ].filter((w) => w !== null),
   }
-}
-
-/** The stages as compactHistory needs them: where each starts and ends and what it cools towards. */
-function stageSpans(stages: PlanStageResult[]) {
-  return stages.map((s) => ({ start_s: s.start_s, end_s: s.end_s, ambient_C: s.ambient_C }))
 }
 
 /** Re-solves the quench with Crank–Nicolson and reports the largest difference from the series. */
