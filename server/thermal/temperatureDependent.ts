@@ -204,8 +204,10 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
         steps.push({ start_s: t, end_s: Infinity, basis, series: frozenOver(standing(now), c) })
         break
       }
-      const landing = t + dt >= end_s * (1 - 1e-12) || end_s - t < 1.5 * dt
-      const step = landing ? end_s - t : dt
+      // Within 1.5 steps of the stage's end, go halfway rather than leave a sliver: a
+      // rejected last step must shrink, or the same step would be tried forever.
+      const landing = t + dt >= end_s * (1 - 1e-12)
+      const step = landing ? end_s - t : end_s - t < 1.5 * dt ? (end_s - t) / 2 : dt
       // Predicted path: the last sub-step's series carried on (free), or at a stage's start a series frozen now.
       const predictor = previous ? previous.series : frozenOver(standing(now), c)
       const first = frozenOver(pathAlong(basis, now, predictor, previous ? t - previous.start_s : 0, step), c)
