@@ -17,8 +17,11 @@
  * start, a series frozen at t), the second from the first pass's series, which is
  * kept. The passes' end fields differ by about the first pass's error, which
  * bounds the kept one's; the step is accepted when that is within STEP_TOLERANCE_K
- * (scaled by accuracy_K) and resized from it. The sum of those differences is the
- * reported time-stepping error estimate, a conservative one.
+ * (scaled by accuracy_K) and resized from it. Those differences, each fading after
+ * its step at the frozen problem's slowest rate (a heat-conduction error decays at
+ * least as the slowest mode does), summed and carried from stage to stage, give the
+ * reported time-stepping error estimate: still a conservative one, since the kept
+ * pass is closer than the first.
  *
  * Each sub-step is a PointStage of its own, so target times are bracketed and
  * polished by firstCrossing on the series of the sub-step where the crossing
@@ -163,6 +166,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
   const bounds = temperatureBounds(problem)
   let start_s = 0
   let profile = initialAt
+  // The time-stepping error carried along: each accepted step's estimate, decaying afterwards.
+  let carried_K = 0
   problem.stages.forEach((stage, stageIndex) => {
     const last = stageIndex === problem.stages.length - 1
     const end_s = last ? Infinity : start_s + (stage.duration_s as number)
@@ -190,7 +195,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     let c = projectOnto(basis, profile)
     let t = start_s
     let dt = 1e-3 * timeScaleAt(problem, profile(0.5))
-    let stepError = 0
+    let stageError_K = carried_K
     const firstStep = steps.length
     // Rejected steps add no sub-step, so the passes are capped too: twice the sub-steps allows a rejection per step.
     for (let passes = 0; ; passes++) {
@@ -225,7 +230,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       }
       const stepEnd = landing ? end_s : t + step
       steps.push({ start_s: t, end_s: stepEnd, basis, series: corrector })
-      stepError += error
+      carried_K = carried_K * Math.exp(-slowestRate(corrector) * step) + error
+      stageError_K = Math.max(stageError_K, carried_K)
       c = cCorrected
       t = stepEnd
       dt = step * resize
@@ -245,7 +251,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       biot: outerLaw ? (outerH * L) / kStart : null,
       ...(stage.inner.type === 'symmetry' ? {} : { innerBiot: innerLaw ? (innerH * L) / kStart : null }),
       method: TEMPERATURE_DEPENDENT_METHOD,
-      estimatedError_K: stepError + truncation,
+      estimatedError_K: stageError_K + truncation,
       subSteps: stageSteps.length,
     })
     profile = (x) => valueAt(lastStep, lastStep.end_s, x)
@@ -324,6 +330,11 @@ function temperatureBounds(problem: CooldownProblem): { min: number; max: number
       if (b.type === 'fixed') temps.push(b.T_C)
     }
   return { min: Math.min(...temps), max: Math.max(...temps) }
+}
+
+/** The frozen problem's slowest decay rate: how fast an error left in the field fades at least. */
+function slowestRate(series: FrozenSeries): number {
+  return Math.min(...series.rates_per_s)
 }
 
 /** Largest difference over the nodes and faces between two coefficient vectors' temperatures. */

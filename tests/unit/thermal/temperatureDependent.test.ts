@@ -97,7 +97,8 @@ describe('the sub-step series against a converged finite-volume reference', () =
     const found = solution.targetTime('centre', { below_C }) as number
     expect(Math.abs(found / fine.crossing_s - 1)).toBeLessThan(0.002)
     expect(solution.summaries[0].method).toMatch(/sub-steps/)
-    expect(solution.summaries[0].estimatedError_K).toBeGreaterThan(0)
+    // The estimate errs on the safe side: never below the error measured against the reference.
+    expect(solution.summaries[0].estimatedError_K).toBeGreaterThan(worst)
   }, 60_000)
 })
 
