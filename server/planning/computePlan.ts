@@ -31,6 +31,7 @@ import { crackingWarning, curveRangeWarning, handlingAtMediumWarning, tableRange
 import { ONE_TERM_MIN_FOURIER, biot, characteristicLength_m, engineBody, fourier, volumeToSurface_m } from './shapes'
 import { coefficientOf, engineMaterial, engineSurface, hasTemperatureData, stageQuenchants, surfaceCoefficients } from './quenchPhysics'
 import { compactHistory } from './compactSeries'
+import { stageAt, stageSpans } from './stages'
 
 const PROFILE_TIMES = 25
 /**
@@ -280,9 +281,7 @@ function physicsWarnings(plan: ResolvedPlan, curve: ModelRun['curve'], stageEnds
   plan.stages.forEach((s, i) => {
     const curves = quenchants[i]!.coolingCurves
     if (!curves) return
-    const start = i === 0 ? -Infinity : (stageEnds_s[i - 1] as number)
-    const end = stageEnds_s[i] ?? Infinity
-    const surface = curve.surface_C.filter((_, j) => curve.t_s[j]! >= start && curve.t_s[j]! <= end)
+    const surface = curve.surface_C.filter((_, j) => stageAt(curve.t_s[j]!, stageEnds_s) === i)
     warnings.push(curveRangeWarning(i, { name: quenchants[i]!.name, curve: curves[s.coefficient] }, surface))
   })
   return warnings.filter((w) => w !== null)
@@ -307,7 +306,8 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
   const surfaceH = surfaceCoefficients(runs.detailed.curve, stageEnds_s, plan.stages.map((s, i) => engineSurface(quenchants[i]!, s.coefficient, physics)))
   const stages: PlanStageResult[] = runs.detailed.stages.map((s, i) => {
     const h = coefficientOf(quenchants[i]!, plan.stages[i]!.coefficient)
-    const seen = surfaceH.filter((_, j) => runs.detailed.curve.t_s[j]! > s.start_s && (s.end_s === null || runs.detailed.curve.t_s[j]! <= s.end_s))
+    // The start reading (t = 0: the part's start temperature, before the medium has acted) is not a coefficient the surface saw.
+    const seen = surfaceH.filter((_, j) => runs.detailed.curve.t_s[j]! > 0 && stageAt(runs.detailed.curve.t_s[j]!, stageEnds_s) === i)
     return {
       index: i,
       quenchantName: quenchants[i]!.name,
@@ -336,20 +336,21 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
         total_s: runs.heatUp.targetTime_s + plan.soak.minimumSoak_s,
       }
     : null
+  const spans = stageSpans(stages)
   const summary: PlanSummary = {
     quenchToHandling_s: t_h,
     // The band's longest time: the low coefficients normally, whichever run is slowest in any case.
     slowEndToHandling_s: Math.max(t_h, runs.low.targetTime_s, runs.high.targetTime_s),
     handling_C: plan.handling.below_C,
     soak: soak ? { furnace_C: soak.furnace_C, heatUp_s: soak.heatUp_s, minimumSoak_s: soak.minimumSoak_s, total_s: soak.total_s } : null,
-    handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, stageSpans(stages), [t_h]) : runs.headline.series,
+    handlingPointSeries: temperatureDependent ? compactHistory(runs.headline.series, spans, [t_h]) : runs.headline.series,
     heatUpSeries: runs.heatUp ? runs.heatUp.series : null,
     firstStageEnd_s: stages[0]!.end_s,
     ...(temperatureDependent
       ? {
           bandPointSeries: {
-            low: compactHistory(runs.low.series, stageSpans(stages), [runs.low.targetTime_s]),
-            high: compactHistory(runs.high.series, stageSpans(stages), [runs.high.targetTime_s]),
+            low: compactHistory(runs.low.series, spans, [runs.low.targetTime_s]),
+            high: compactHistory(runs.high.series, spans, [runs.high.targetTime_s]),
           },
         }
       : {}),
@@ -390,11 +391,6 @@ export function computePlan(plan: ResolvedPlan, options: { deadline?: Deadline }
       ...physicsWarnings(plan, runs.detailed.curve, stageEnds_s, temperatureDependent),
     ].filter((w) => w !== null),
   }
-}
-
-/** The stages as compactHistory needs them: where each starts and ends and what it cools towards. */
-function stageSpans(stages: PlanStageResult[]) {
-  return stages.map((s) => ({ start_s: s.start_s, end_s: s.end_s, ambient_C: s.ambient_C }))
 }
 
 /** Re-solves the quench with Crank–Nicolson and reports the largest difference from the series. */

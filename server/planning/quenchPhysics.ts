@@ -6,8 +6,10 @@
  * the single values exactly as before. Framework-free, like the rest of the planner's core.
  */
 import type { CoefficientChoice, MaterialSnapshot, QuenchPhysics, QuenchantSnapshot, ResolvedPlan } from '../../shared/schemas/plan'
+import { convectiveBoundaryOf } from '../thermal/caseSchema'
 import { CaseError } from '../thermal/errors'
 import { surfaceLaw } from '../thermal/surfaceCurve'
+import { stageAt } from './stages'
 
 export function coefficientOf(q: QuenchantSnapshot, choice: CoefficientChoice): number {
   return choice === 'low' ? q.hLow_W_m2K : choice === 'high' ? q.hHigh_W_m2K : q.hTypical_W_m2K
@@ -36,28 +38,15 @@ export function engineSurface(q: QuenchantSnapshot, choice: CoefficientChoice, p
 
 /**
  * The coefficient the surface saw along a curve: h_eff(T_s) = h(T_s) + εσ(T_s² + T∞²)(T_s + T∞)
- * of the stage in force at each time (a stage boundary belongs to the earlier stage).
+ * of the stage in force at each time (stageAt: a stage boundary belongs to the earlier stage).
  */
 export function surfaceCoefficients(
   curve: { t_s: number[]; surface_C: number[] },
   stageEnds_s: (number | null)[],
   surfaces: ReturnType<typeof engineSurface>[],
 ): number[] {
-  const laws = surfaces.map((s) =>
-    'hCurve' in s
-      ? surfaceLaw({
-          type: 'convective',
-          ambient_C: s.ambient_C,
-          h_W_m2K: s.hCurve[0]!.h,
-          hCurve: s.hCurve.map((p) => ({ T_C: p.T_C, h_W_m2K: p.h })),
-          ...(s.emissivity === undefined ? {} : { emissivity: s.emissivity }),
-        })
-      : surfaceLaw({ type: 'convective', ambient_C: s.ambient_C, h_W_m2K: s.h }),
-  )
-  return curve.t_s.map((t, i) => {
-    const stage = stageEnds_s.findIndex((end) => end === null || t <= end)
-    return laws[stage === -1 ? laws.length - 1 : stage]!.effectiveH(curve.surface_C[i]!)
-  })
+  const laws = surfaces.map((s) => surfaceLaw(convectiveBoundaryOf(s)))
+  return curve.t_s.map((t, i) => laws[stageAt(t, stageEnds_s)]!.effectiveH(curve.surface_C[i]!))
 }
 
 /** The library values of the stages' quenchants, in stage order. */

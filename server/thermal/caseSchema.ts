@@ -7,7 +7,7 @@ import { z } from 'zod'
 import { CASE_LIMITS, PHYSICAL, inRange, profileLimitIssues } from '../../shared/physicalBounds'
 import { CaseError } from './errors'
 import { interpolate } from './propertyTable'
-import type { Boundary, CooldownProblem, HeatTransferPoint, PropertyPoint, Stage, ThermalTableRow } from './types'
+import type { Boundary, ConvectiveBoundary, CooldownProblem, HeatTransferPoint, PropertyPoint, Stage, ThermalTableRow } from './types'
 
 const finite = z.number().finite()
 const temperature = inRange(PHYSICAL.temperature_C)
@@ -169,8 +169,19 @@ export function parseCase(input: unknown): Case {
   return parsed.data
 }
 
-function boundaryOf(s: z.output<typeof surfaceSchema>): Exclude<Boundary, { type: 'symmetry' }> {
+/** A case surface as zod leaves it: a fixed temperature or a convective surface (h or hCurve, ambient_C, emissivity). */
+export type CaseSurface = z.output<typeof surfaceSchema>
+
+function boundaryOf(s: CaseSurface): Exclude<Boundary, { type: 'symmetry' }> {
   if (s.fixed_C !== undefined) return { type: 'fixed', T_C: s.fixed_C }
+  return convectiveBoundaryOf(s)
+}
+
+/**
+ * The engine's convective boundary for a case surface that is not fixed, the one place a
+ * boundary is built from a surface (the planner reads the coefficient the surface saw through it).
+ */
+export function convectiveBoundaryOf(s: Omit<CaseSurface, 'fixed_C'>): ConvectiveBoundary {
   const hCurve = s.hCurve?.map((p) => ({ T_C: p.T_C, h_W_m2K: p.h }))
   return {
     type: 'convective',

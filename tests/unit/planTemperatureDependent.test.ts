@@ -188,6 +188,43 @@ describe('warnings about the physics', () => {
     expect(curve.temperatures_C.cold).toBeLessThan(300)
   }, 60_000)
 
+  it('a boundary instant belongs to the earlier stage: the next stage’s curve is judged from the first reading after it', () => {
+    // 5 s of oil, then a polymer whose curve is flat (the same h at every temperature, so where the
+    // curve ends changes no reading) and above the oil's boiling peak: the surface keeps cooling, so
+    // the second stage's hottest reading comes just after the boundary, below the boundary instant's.
+    const polymer = { id: 2, name: 'Polymer', kind: 'polymer', hLow_W_m2K: 4000, hTypical_W_m2K: 4000, hHigh_W_m2K: 4000, bath_C: 30, source: 'test' }
+    const flatUpTo = (top_C: number) => [25, 300, top_C].map((T_C) => ({ T_C, h: 4000 }))
+    const twoStages = (top_C: number) =>
+      computePlan(
+        resolvedPlanSchema.parse({
+          ...spec,
+          stages: [{ quenchantId: 1, duration_s: 5 }, { quenchantId: 2 }],
+          library: {
+            material,
+            quenchants: [
+              { ...oil, coolingCurves: { low: oilCurve, typical: oilCurve, high: oilCurve } },
+              { ...polymer, coolingCurves: { low: flatUpTo(top_C), typical: flatUpTo(top_C), high: flatUpTo(top_C) } },
+            ],
+          },
+        }),
+      )
+    const secondStage = (result: PlanResult) => result.warnings.find((w) => w.field === 'stages.1.quenchantId')
+    const covered = twoStages(900)
+    const j = covered.curve.t_s.indexOf(5)
+    const [atBoundary, justAfter] = [covered.curve.surface_C[j]!, covered.curve.surface_C[j + 1]!]
+    expect(justAfter).toBeLessThan(atBoundary)
+    expect(secondStage(covered)).toBeUndefined()
+
+    // A curve ending between the two readings covers the second stage: the boundary instant is the oil's.
+    const between = twoStages((atBoundary + justAfter) / 2)
+    expect(between.curve.surface_C).toEqual(covered.curve.surface_C)
+    expect(secondStage(between)).toBeUndefined()
+
+    // One ending a degree below the reading after the boundary is warned, hottest at that reading.
+    const below = twoStages(justAfter - 1)
+    expect(secondStage(below)).toMatchObject({ kind: 'outside-curve', temperatures_C: { curveLow: 25, curveHigh: justAfter - 1, hot: justAfter } })
+  }, 60_000)
+
   it('a short cylinder stays uniform-property and says so when the library had tables; asking for constants silences it', () => {
     const plan = withTables()
     const cylinder = { ...plan, part: { shape: 'cylinder' as const, diameter_m: 0.03, length_m: 0.05 } }

@@ -35,8 +35,6 @@ export const DEMO_PLANS: DemoPlan[] = [
     start_C: 880,
     stages: [{ quenchant: 'Water', duration_s: 30 }, { quenchant: 'Still air' }],
     handling: { below_C: 60, at: 'centre' },
-    // The sub-step engine does not yet finish the water curve's boiling peak within its step cap, so this plan keeps the single values.
-    physics: 'constant',
     soak: { furnace_C: 890, tolerance_K: 10, minimumSoak_s: 2400, charge_C: 20, furnaceH_W_m2K: null },
     quenchDelayAllowance_s: null,
   },
@@ -52,8 +50,6 @@ export const DEMO_PLANS: DemoPlan[] = [
   },
   {
     name: 'Case-hardened bar Ø30 — still oil, then still air',
-    // The sub-step engine does not yet finish this graded bar with the still oil's low curve within its step cap, so it keeps the single values.
-    physics: 'constant',
     part: { shape: 'round-bar', diameter_m: 0.03 },
     material: 'Case-hardened AISI 1010 bar (demo)',
     start_C: 830,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { DEMO_PLANS } from '../../../server/db/demo/plans'
-import { computePlan } from '../../../server/planning/computePlan'
+import { computePlan, isTemperatureDependent } from '../../../server/planning/computePlan'
 import { alignedTraces, alignment, comparisonLine, thinPoints, type LoadLog } from '../../../server/records/measuredTraces'
 import { bandCurves, bandSeriesOf, slowEndAt } from '../../../server/records/predictedBand'
 import { pointValue } from '../../../shared/pointSeries'
@@ -69,8 +69,10 @@ describe('comparisonLine', () => {
 })
 
 describe('the band on the record', () => {
+  const temperatureDependent = DEMO_PLANS.filter((p) => isTemperatureDependent(resolveDemo(p)))
+  const constantProperty = DEMO_PLANS.filter((p) => !temperatureDependent.includes(p))
   // The same low and high runs the planner draws as its band (computePlan), kept as series so the release tap can be read anywhere.
-  it.each(DEMO_PLANS.filter((p) => ['plate', 'cylinder'].includes(p.part.shape)).map((p) => [p.name, p] as const))(
+  it.each(constantProperty.map((p) => [p.name, p] as const))(
     '%s: matches the planner\'s band and its slow end crosses the handling temperature at the summary\'s slow-end time',
     (_name, demo) => {
       const plan = resolveDemo(demo)
@@ -89,8 +91,8 @@ describe('the band on the record', () => {
     30_000,
   )
 
-  it('of a temperature-dependent plan is read from its summary: the same runs, compacted, no engine run on the request thread', () => {
-    const plan = resolveDemo(DEMO_PLANS.find((p) => p.name.startsWith('Drive pin'))!)
+  it.each(temperatureDependent.map((p) => [p.name, p] as const))('%s, temperature-dependent: read from its summary, the same runs compacted, no engine run on the request thread', (_name, demo) => {
+    const plan = resolveDemo(demo)
     const result = computePlan(plan)
     const stored = result.summary.bandPointSeries!
     // Spec unreadable on purpose: a band that came from the spec would be null.
