@@ -5,7 +5,7 @@ import type { Database, Transaction } from '../db/client'
 import { materials, planRevisions, plans, quenchants, users } from '../db/schema'
 import { CaseError } from '../thermal/errors'
 import { planEngine } from './planEngine'
-import { JobQueueFullError, JobTimeoutError } from '../workers/jobPool'
+import { JobPoolClosedError, JobQueueFullError, JobTimeoutError } from '../workers/jobPool'
 import { PART_SHAPES, resolvedPlanSchema, type PlanSpec, type ResolvedPlan } from '../../shared/schemas/plan'
 import type { PlanSummary } from '../../shared/types/plan'
 import type { PlanCheckResult, PlanDetail, PlanListItem, PlanResult } from '../../shared/types/planResult'
@@ -68,7 +68,7 @@ const COARSEN_HINT = 'coarsen the plan: fewer graded-profile points in the mater
 /**
  * Engine refusals (CaseError, EngineLimitError: the engine's own budget) are 422 naming
  * the plan field; a job over the engine's
- * time cap is 422 naming the cap; a full queue is 503. Anything else is a real failure.
+ * time cap is 422 naming the cap; a full queue or a stopping server is 503. Anything else is a real failure.
  */
 async function engine<T>(run: () => Promise<T>): Promise<T> {
   try {
@@ -89,6 +89,9 @@ async function engine<T>(run: () => Promise<T>): Promise<T> {
     }
     if (error instanceof JobQueueFullError) {
       throw createError({ statusCode: 503, statusMessage: 'The engine is busy', message: 'Too many computations are waiting; try again in a few seconds.' })
+    }
+    if (error instanceof JobPoolClosedError) {
+      throw createError({ statusCode: 503, statusMessage: 'The server is restarting', message: 'This computation was stopped by a restart; try again in a few seconds.' })
     }
     throw error
   }

@@ -31,6 +31,14 @@ export class JobQueueFullError extends Error {
   }
 }
 
+/** The pool is closing (the server is stopping): the job did not run to its end. */
+export class JobPoolClosedError extends Error {
+  constructor() {
+    super('The server is stopping; the job was not finished')
+    this.name = 'JobPoolClosedError'
+  }
+}
+
 export interface JobPoolOptions {
   /** Worker entry: absolute path or file:// URL of an ES module whose named exports are the jobs. */
   filename: string
@@ -75,6 +83,7 @@ export function createJobPool(options: JobPoolOptions): JobPool {
   const waiting: (() => void)[] = []
   const inFlight = new Map<string, Promise<unknown>>()
   let running = 0
+  let closing = false
   const counts = { started: 0, shared: 0, timedOut: 0 }
 
   async function takeThread(): Promise<void> {
@@ -95,6 +104,10 @@ export function createJobPool(options: JobPoolOptions): JobPool {
 
   async function execute(name: string, input: unknown): Promise<unknown> {
     await takeThread()
+    if (closing) {
+      releaseThread()
+      throw new JobPoolClosedError()
+    }
     counts.started += 1
     const controller = new AbortController()
     let replaced: Promise<unknown> | undefined
@@ -105,6 +118,8 @@ export function createJobPool(options: JobPoolOptions): JobPool {
     try {
       return await piscina.run(input, { name, signal: controller.signal })
     } catch (error) {
+      // piscina aborts the jobs of a pool being destroyed with its own error: say what happened instead.
+      if (closing) throw new JobPoolClosedError()
       if (!controller.signal.aborted) throw error
       counts.timedOut += 1
       // Keep the slot until the replacement thread is up, so its start-up is not charged to the next job's cap.
@@ -118,6 +133,7 @@ export function createJobPool(options: JobPoolOptions): JobPool {
 
   return {
     run<T>(name: string, input: unknown): Promise<T> {
+      if (closing) return Promise.reject(new JobPoolClosedError())
       const key = createHash('sha256').update(name).update('\0').update(JSON.stringify(input)).digest('hex')
       const current = inFlight.get(key)
       if (current) {
@@ -129,6 +145,9 @@ export function createJobPool(options: JobPoolOptions): JobPool {
       return job as Promise<T>
     },
     stats: () => ({ threads, jobSeconds: options.jobSeconds, running, queued: waiting.length, ...counts }),
-    close: () => piscina.destroy(),
+    close: () => {
+      closing = true
+      return piscina.destroy()
+    },
   }
 }

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from 'vitest'
-import { JobQueueFullError, JobTimeoutError, createJobPool, defaultThreadCount, type JobPool } from '../../../server/workers/jobPool'
+import { JobPoolClosedError, JobQueueFullError, JobTimeoutError, createJobPool, defaultThreadCount, type JobPool } from '../../../server/workers/jobPool'
 import { availableParallelism } from 'node:os'
 
 const worker = new URL('../../fixtures/workers/slowWorker.mjs', import.meta.url).href
@@ -76,6 +76,18 @@ describe('job pool', () => {
     const second = pool.run('spin', { ms: 1, value: 2 })
     await expect(pool.run('spin', { ms: 1, value: 3 })).rejects.toBeInstanceOf(JobQueueFullError)
     await Promise.all([first, second])
+  })
+
+  it('closing, answers the running and waiting jobs and any new one with JobPoolClosedError', async () => {
+    const closing = createJobPool({ filename: worker, threads: 1, jobSeconds: 5 })
+    await closing.run('spin', { ms: 1, value: 0 })
+    const running = closing.run('spin', { ms: 2000, value: 1 }).catch((e: unknown) => e)
+    const waiting = closing.run('spin', { ms: 1, value: 2 }).catch((e: unknown) => e)
+    await new Promise((resolve) => setTimeout(resolve, 100))
+    await closing.close()
+    expect(await running).toBeInstanceOf(JobPoolClosedError)
+    expect(await waiting).toBeInstanceOf(JobPoolClosedError)
+    await expect(closing.run('spin', { ms: 1, value: 3 })).rejects.toBeInstanceOf(JobPoolClosedError)
   })
 
   it('passes a job\'s own error through', async () => {
