@@ -39,16 +39,16 @@ interface Figures {
 /** The processes whose CPU use each run reports, filled in once they are up. */
 const watched: Record<string, number> = {}
 
-/**
- * Runs one autocannon per URL side by side, `connections` split evenly between them,
- * timing each answer itself (autocannon reports no p95).
- */
 interface RequestShape {
   method?: string
   headers: Record<string, string>
   body?: () => string
 }
 
+/**
+ * Runs one autocannon per URL side by side, `connections` split evenly between them,
+ * timing each answer itself (autocannon reports no p95).
+ */
 async function measure(urls: string[], connections: number, options: RequestShape): Promise<Figures> {
   const latencies: number[] = []
   const cpu = sampleCpu(watched)
