@@ -50,23 +50,33 @@ const REVISION_FACTS_KEPT = 1000
 
 /**
  * The handling facts of plan revisions, from the cache or, for those not yet read, from
- * their stored summaries: the floor poll no longer parses a whole summary per card.
+ * their stored summaries: the floor poll no longer parses a whole summary per card. The
+ * answer is a map of its own, so a clearing of the bounded cache (here or by a poll
+ * running alongside) cannot take facts from under the caller.
  */
 async function revisionFactsOf(revisionIds: number[]): Promise<Map<number, Omit<FloorPlanFacts, 'planName'>>> {
-  const missing = [...new Set(revisionIds)].filter((id) => !revisionFacts.has(id))
+  const found = new Map<number, Omit<FloorPlanFacts, 'planName'>>()
+  const missing: number[] = []
+  for (const id of new Set(revisionIds)) {
+    const cached = revisionFacts.get(id)
+    if (cached) found.set(id, cached)
+    else missing.push(id)
+  }
   if (missing.length > 0) {
     const rows = await useDb().select({ id: planRevisions.id, summary: planRevisions.summary }).from(planRevisions).where(inArray(planRevisions.id, missing))
     if (revisionFacts.size + rows.length > REVISION_FACTS_KEPT) revisionFacts.clear()
     for (const row of rows) {
       const summary = readSummary(row.summary)!
-      revisionFacts.set(row.id, {
+      const facts = {
         handling_C: summary.handling_C,
         quenchToHandling_s: summary.quenchToHandling_s,
         ...(summary.slowEndToHandling_s === undefined ? {} : { slowEndToHandling_s: summary.slowEndToHandling_s }),
-      })
+      }
+      revisionFacts.set(row.id, facts)
+      found.set(row.id, facts)
     }
   }
-  return revisionFacts
+  return found
 }
 
 /**
