@@ -56,18 +56,20 @@ export function jacobiEigen(a: Float64Array, n: number, vectors: Float64Array, s
         const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1))
         const c = 1 / Math.sqrt(t * t + 1)
         const s = t * c
+        // Rows and columns p, q of a symmetric a change alike: update each pair once and
+        // mirror it; the 2×2 block has the closed form that zeroes a_pq exactly.
         for (let k = 0; k < n; k++) {
+          if (k === p || k === q) continue
           const akp = a[k * n + p]
           const akq = a[k * n + q]
-          a[k * n + p] = c * akp - s * akq
-          a[k * n + q] = s * akp + c * akq
+          const kp = c * akp - s * akq
+          const kq = s * akp + c * akq
+          a[k * n + p] = a[p * n + k] = kp
+          a[k * n + q] = a[q * n + k] = kq
         }
-        for (let k = 0; k < n; k++) {
-          const apk = a[p * n + k]
-          const aqk = a[q * n + k]
-          a[p * n + k] = c * apk - s * aqk
-          a[q * n + k] = s * apk + c * aqk
-        }
+        a[p * n + p] = app - t * apq
+        a[q * n + q] = aqq + t * apq
+        a[p * n + q] = a[q * n + p] = 0
         for (let k = 0; k < n; k++) {
           const vkp = vectors[k * n + p]
           const vkq = vectors[k * n + q]
