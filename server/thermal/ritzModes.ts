@@ -266,17 +266,12 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
   const load = new Float64Array(n)
   const k = frozen.k_W_mK
   const c = frozen.rhoCp_J_m3K
-  let offset = 0
-  for (let a = 0; a < n; a++) {
-    for (let b = a; b < n; b++, offset += q) {
-      let sm = 0
-      let sk = 0
-      for (let i = 0; i < q; i++) {
-        sm += c[i] * phiPairs[offset + i]
-        sk += k[i] * dphiPairs[offset + i]
-      }
-      mass[a * n + b] = mass[b * n + a] = L * L * sm
-      stiffness[a * n + b] = stiffness[b * n + a] = sk
+  const massPairs = pairSums(phiPairs, c, q)
+  const stiffnessPairs = pairSums(dphiPairs, k, q)
+  for (let a = 0, pair = 0; a < n; a++) {
+    for (let b = a; b < n; b++, pair++) {
+      mass[a * n + b] = mass[b * n + a] = L * L * massPairs[pair]
+      stiffness[a * n + b] = stiffness[b * n + a] = stiffnessPairs[pair]
     }
     if (basis.liftSlope === 0) continue
     let sl = 0
@@ -302,18 +297,8 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
   backSubstitute(stiffFactor, n, steady)
   // A v = μ M v through S = R⁻¹ A R⁻ᵀ with M = R Rᵀ: v = R⁻ᵀ u for the unit eigenvectors u of S.
   const r = cholesky(mass, n)
-  const s = new Float64Array(n * n)
+  const s = transformedStiffness(r, stiffness, n)
   const column = new Float64Array(n)
-  for (let b = 0; b < n; b++) {
-    for (let a = 0; a < n; a++) column[a] = stiffness[a * n + b]
-    forwardSubstitute(r, n, column)
-    for (let a = 0; a < n; a++) s[a * n + b] = column[a]
-  }
-  for (let a = 0; a < n; a++) {
-    for (let b = 0; b < n; b++) column[b] = s[a * n + b]
-    forwardSubstitute(r, n, column)
-    for (let b = 0; b < n; b++) s[a * n + b] = column[b]
-  }
   const u = new Float64Array(n * n)
   jacobiEigen(s, n, u, start, EIGEN_TOLERANCE)
   // Amplitude of mode j: a_j = v_jᵀ M (c0 − c_ss) = u_jᵀ Rᵀ (c0 − c_ss).
@@ -338,6 +323,63 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
     for (let a = 0; a < n; a++) modeVectors[j * n + a] = amplitude * column[a]
   }
   return { rates_per_s: rates, steady, modeVectors, rotation: u }
+}
+
+/**
+ * S = R⁻¹ A R⁻ᵀ for lower-triangular R and symmetric A (row-major n×n): X = R⁻¹ A
+ * by forward substitution on whole rows, then S = R⁻¹ Xᵀ the same way (Xᵀ = A R⁻ᵀ),
+ * so every inner loop runs along contiguous rows.
+ */
+function transformedStiffness(r: Float64Array, a: Float64Array, n: number): Float64Array {
+  const x = new Float64Array(n * n)
+  const s = new Float64Array(n * n)
+  forwardRows(r, a, x, n)
+  for (let i = 0; i < n; i++)
+    for (let j = i + 1; j < n; j++) {
+      const upper = x[i * n + j]
+      x[i * n + j] = x[j * n + i]
+      x[j * n + i] = upper
+    }
+  forwardRows(r, x, s, n)
+  return s
+}
+
+/** out = R⁻¹ b for lower-triangular R, all n columns of b at once (row-major). */
+function forwardRows(r: Float64Array, b: Float64Array, out: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) {
+    const row = i * n
+    for (let j = 0; j < n; j++) out[row + j] = b[row + j]
+    for (let k = 0; k < i; k++) {
+      const rik = r[row + k]
+      const from = k * n
+      for (let j = 0; j < n; j++) out[row + j] -= rik * out[from + j]
+    }
+    const inverse = 1 / r[row + i]
+    for (let j = 0; j < n; j++) out[row + j] *= inverse
+  }
+}
+
+/**
+ * Σ_i node[i] · pairs[p·Q + i] for every pair p: the frozen matrices' entries. The
+ * assembly is most of a frozen solve's arithmetic; four running sums let the loop
+ * overlap its multiplications (Q is a multiple of 8, the Gauss panels' order).
+ */
+function pairSums(pairs: Float64Array, node: Float64Array, q: number): Float64Array {
+  const out = new Float64Array(pairs.length / q)
+  for (let p = 0, o = 0; p < out.length; p++, o += q) {
+    let s0 = 0
+    let s1 = 0
+    let s2 = 0
+    let s3 = 0
+    for (let i = 0; i < q; i += 4) {
+      s0 += node[i] * pairs[o + i]
+      s1 += node[i + 1] * pairs[o + i + 1]
+      s2 += node[i + 2] * pairs[o + i + 2]
+      s3 += node[i + 3] * pairs[o + i + 3]
+    }
+    out[p] = s0 + s1 + s2 + s3
+  }
+  return out
 }
 
 /** Coefficients of a frozen series τ seconds after its start. */
