@@ -104,18 +104,32 @@ export function selectBatchesInContext(db: Database | Transaction) {
     .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
 }
 
+/** The columns of a recorded move as the records and the views read it. */
+const eventColumns = {
+  id: batchEvents.id,
+  fromState: batchEvents.fromState,
+  toState: batchEvents.toState,
+  at: batchEvents.at,
+  actorId: batchEvents.actorId,
+  actorName: users.displayName,
+  shortfallNote: batchEvents.shortfallNote,
+}
+
+/** The columns of a tap's correction, with who made it. */
+const correctionColumns = {
+  id: batchEventCorrections.id,
+  eventId: batchEventCorrections.eventId,
+  correctedAt: batchEventCorrections.correctedAt,
+  reason: batchEventCorrections.reason,
+  actorId: batchEventCorrections.actorId,
+  actorName: users.displayName,
+  createdAt: batchEventCorrections.createdAt,
+}
+
 /** A batch's recorded moves in the order they happened, each with who made it. */
 export function batchEventsOf(db: Database | Transaction, batchId: number) {
   return db
-    .select({
-      id: batchEvents.id,
-      fromState: batchEvents.fromState,
-      toState: batchEvents.toState,
-      at: batchEvents.at,
-      actorId: batchEvents.actorId,
-      actorName: users.displayName,
-      shortfallNote: batchEvents.shortfallNote,
-    })
+    .select(eventColumns)
     .from(batchEvents)
     .leftJoin(users, eq(users.id, batchEvents.actorId))
     .where(eq(batchEvents.batchId, batchId))
@@ -125,15 +139,7 @@ export function batchEventsOf(db: Database | Transaction, batchId: number) {
 /** A batch's event corrections, oldest first, each with who made it. */
 export function correctionsOf(db: Database | Transaction, batchId: number) {
   return db
-    .select({
-      id: batchEventCorrections.id,
-      eventId: batchEventCorrections.eventId,
-      correctedAt: batchEventCorrections.correctedAt,
-      reason: batchEventCorrections.reason,
-      actorId: batchEventCorrections.actorId,
-      actorName: users.displayName,
-      createdAt: batchEventCorrections.createdAt,
-    })
+    .select(correctionColumns)
     .from(batchEventCorrections)
     .innerJoin(users, eq(users.id, batchEventCorrections.actorId))
     .where(eq(batchEventCorrections.batchId, batchId))
@@ -149,28 +155,13 @@ export async function eventViewsOf(db: Database | Transaction, batchIds: number[
   if (batchIds.length === 0) return views
   const [events, corrections] = await Promise.all([
     db
-      .select({
-        id: batchEvents.id,
-        batchId: batchEvents.batchId,
-        fromState: batchEvents.fromState,
-        toState: batchEvents.toState,
-        at: batchEvents.at,
-        actorId: batchEvents.actorId,
-        actorName: users.displayName,
-        shortfallNote: batchEvents.shortfallNote,
-      })
+      .select({ ...eventColumns, batchId: batchEvents.batchId })
       .from(batchEvents)
       .leftJoin(users, eq(users.id, batchEvents.actorId))
       .where(inArray(batchEvents.batchId, batchIds))
       .orderBy(asc(batchEvents.at), asc(batchEvents.id)),
     db
-      .select({
-        eventId: batchEventCorrections.eventId,
-        correctedAt: batchEventCorrections.correctedAt,
-        reason: batchEventCorrections.reason,
-        by: users.displayName,
-        madeAt: batchEventCorrections.createdAt,
-      })
+      .select(correctionColumns)
       .from(batchEventCorrections)
       .innerJoin(users, eq(users.id, batchEventCorrections.actorId))
       .where(inArray(batchEventCorrections.batchId, batchIds))
@@ -179,7 +170,7 @@ export async function eventViewsOf(db: Database | Transaction, batchIds: number[
   for (const event of events) {
     const own = corrections
       .filter((c) => c.eventId === event.id)
-      .map((c) => ({ at: c.correctedAt.toISOString(), reason: c.reason, by: c.by, madeAt: c.madeAt.toISOString() }))
+      .map((c) => ({ at: c.correctedAt.toISOString(), reason: c.reason, by: c.actorName, madeAt: c.createdAt.toISOString() }))
     views.get(event.batchId)!.push({
       id: event.id,
       fromState: event.fromState,
