@@ -1,7 +1,9 @@
-import type { H3Event } from 'h3'
-import { getServerSession } from '#auth'
+import { parseCookies, type H3Event } from 'h3'
 import type { Role } from '../../shared/roles'
 import { type Capability, can, rolesFor } from '../../shared/access'
+import { decodeSessionToken, sessionCookieName, sessionTokenFromCookies, sessionTokenKey } from '../security/sessionToken'
+import { sessionAccountUser, type SessionAccountUser } from '../security/sessionUser'
+import { demoSignInsAllowed } from '../security/demoShop'
 
 export interface SessionUser {
   id: number
@@ -10,20 +12,43 @@ export interface SessionUser {
   role: Role
 }
 
+/** Behind a TLS proxy (an https:// AUTH_ORIGIN) the session cookie is sent over HTTPS only. */
+export function secureSessionCookies(): boolean {
+  return (process.env.AUTH_ORIGIN ?? '').startsWith('https://')
+}
+
+let derivedKey: { secret: string; key: Buffer } | undefined
+
+/** The token key, derived once per secret rather than on every request. */
+function tokenKey(secret: string): Buffer {
+  if (derivedKey?.secret !== secret) derivedKey = { secret, key: sessionTokenKey(secret) }
+  return derivedKey.key
+}
+
 /**
- * The signed-in user as the session holds it. The session callback
- * (server/api/auth/[...].ts) reads the account fresh from the database on every
- * request and drops the user of a deactivated account, so a deactivation or a role
- * change takes effect at once, whatever the session token says.
- * 401 without a valid session, 403 when the role lacks `capability` (shared/access.ts).
+ * Who is signed in on this request, or null. Reads the session cookie next-auth wrote
+ * (server/security/sessionToken.ts: decrypted under a cached key, not re-encrypted) and
+ * then the account itself from the database, exactly as the session callback does
+ * (server/security/sessionUser.ts): a deactivation, a role change or a raised session
+ * version takes effect at once, whatever the token says.
+ */
+export async function readSessionUser(event: H3Event): Promise<SessionAccountUser | null> {
+  const secret = useRuntimeConfig().authSecret
+  if (!secret) return null
+  const token = sessionTokenFromCookies(parseCookies(event), sessionCookieName(secureSessionCookies()))
+  if (!token) return null
+  const now = Date.now()
+  const claims = decodeSessionToken(token, tokenKey(secret), now)
+  return claims ? sessionAccountUser(useDb(), claims, now, demoSignInsAllowed()) : null
+}
+
+/**
+ * The signed-in user (readSessionUser). 401 without a valid session, 403 when the role
+ * lacks `capability` (shared/access.ts).
  */
 export async function requireRole(event: H3Event, capability: Capability): Promise<SessionUser> {
-  const session = await getServerSession(event)
-  const user = session?.user as { id?: unknown; email?: string; name?: string; role?: Role; mustChangePassword?: boolean } | undefined
-  const id = Number(user?.id)
-  if (!user || !Number.isInteger(id) || id <= 0 || !user.role) {
-    throw createError({ statusCode: 401, statusMessage: 'Sign in required' })
-  }
+  const user = await readSessionUser(event)
+  if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in required' })
   if (user.mustChangePassword) {
     // A generated first password was shown once on a console; only its owner's own choice may act.
     throw createError({ statusCode: 403, statusMessage: 'Choose your own password first', data: { problems: [{ field: 'password', message: 'Change the generated password at /account/password' }] } })
@@ -35,5 +60,5 @@ export async function requireRole(event: H3Event, capability: Capability): Promi
       data: { role: user.role, capability, allowedRoles: rolesFor(capability) },
     })
   }
-  return { id, email: user.email as string, displayName: user.name as string, role: user.role }
+  return { id: user.id, email: user.email, displayName: user.name, role: user.role }
 }

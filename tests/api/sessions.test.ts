@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { BASE_URL } from '../support/stackConfig'
+import { decode, encode } from 'next-auth/jwt'
+import { ROLES } from '../../shared/roles'
+import { AUTH_SECRET, BASE_URL } from '../support/stackConfig'
 import { signInAs, signInDemo, type Client } from '../support/http'
 
 // Issue 11 item 4: a copied session cookie must stop working when the account's
@@ -21,11 +23,33 @@ async function newAccount(label: string, role = 'operator') {
   return { id: created.body.id as number, email, client }
 }
 
-/** The stolen copy: the same cookie header sent by someone else. */
+/** The status of an API read every role may make (`plans.read`) with this cookie header. */
+async function apiStatus(cookie: string): Promise<number> {
+  return (await fetch(`${BASE_URL}/api/plans`, { headers: { cookie, accept: 'application/json' } })).status
+}
+
+/**
+ * The stolen copy: the same cookie header sent by someone else. Asked of both session
+ * readers, next-auth's (the browser's /api/auth/session) and the API's own
+ * (server/utils/auth.ts), which must agree.
+ */
 async function copyStillWorks(cookie: string): Promise<boolean> {
   const response = await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })
   const body = (await response.json()) as { user?: unknown }
-  return body.user !== undefined
+  const signedIn = body.user !== undefined
+  expect(await apiStatus(cookie)).toBe(signedIn ? 200 : 401)
+  return signedIn
+}
+
+const SESSION_COOKIE = 'next-auth.session-token'
+
+/** The session token in a cookie header, and the header with it replaced. */
+function sessionToken(cookie: string): { token: string; withToken: (token: string) => string } {
+  const pairs = cookie.split('; ')
+  const index = pairs.findIndex((pair) => pair.startsWith(`${SESSION_COOKIE}=`))
+  expect(index).toBeGreaterThanOrEqual(0)
+  const withToken = (token: string) => pairs.map((pair, i) => (i === index ? `${SESSION_COOKIE}=${token}` : pair)).join('; ')
+  return { token: pairs[index]!.slice(SESSION_COOKIE.length + 1), withToken }
 }
 
 describe('revocable sessions', () => {
@@ -66,6 +90,40 @@ describe('revocable sessions', () => {
     expect(await copyStillWorks(client.cookie)).toBe(true)
     expect((await admin.request(`/api/users/${id}`, { method: 'PATCH', body: { role: 'qa' } })).status).toBe(200)
     expect(await copyStillWorks(client.cookie)).toBe(false)
+  })
+})
+
+describe('the API reads the session itself (no next-auth handler per request)', () => {
+  it.each(ROLES.filter((role) => role !== 'admin'))('the demo %s is the same user to the API as to next-auth', async (role) => {
+    const client = await signInDemo(role)
+    const session = (await client.request('/api/auth/session')).body.user as { role: string }
+    // people.manage is the administrator's alone: the 403 names the role the API read.
+    const refused = await client.request('/api/users')
+    expect(refused.status).toBe(403)
+    expect(refused.body.data.role).toBe(session.role)
+    expect(session.role).toBe(role)
+  })
+
+  it('refuses a tampered cookie, as next-auth does', async () => {
+    const { client } = await newAccount('tampered')
+    const { token, withToken } = sessionToken(client.cookie)
+    expect(await apiStatus(client.cookie)).toBe(200)
+    const parts = token.split('.')
+    const ciphertext = Buffer.from(parts[3]!, 'base64url')
+    ciphertext[0] = ciphertext[0]! ^ 1
+    parts[3] = ciphertext.toString('base64url')
+    expect(await copyStillWorks(withToken(parts.join('.')))).toBe(false)
+  })
+
+  it('accepts next-auth\'s own token and refuses it expired or sealed under another secret', async () => {
+    const { client } = await newAccount('resealed')
+    const { token, withToken } = sessionToken(client.cookie)
+    // The reference: next-auth/jwt, the library that writes the cookie, re-sealing the same claims.
+    const claims = (await decode({ token, secret: AUTH_SECRET }))!
+    const { exp: _exp, iat: _iat, jti: _jti, ...kept } = claims
+    expect(await copyStillWorks(withToken(await encode({ token: kept, secret: AUTH_SECRET, maxAge: 600 })))).toBe(true)
+    expect(await copyStillWorks(withToken(await encode({ token: kept, secret: AUTH_SECRET, maxAge: -60 })))).toBe(false)
+    expect(await copyStillWorks(withToken(await encode({ token: kept, secret: 'another-shop-secret-not-for-production', maxAge: 600 })))).toBe(false)
   })
 })
 

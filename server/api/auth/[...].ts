@@ -5,7 +5,8 @@ import { signInSchema } from '../../../shared/schemas/user'
 import { users } from '../../db/schema'
 import { spendPasswordCheckOnUnknownAccount } from '../../security/unknownAccount'
 import { demoSignInsAllowed } from '../../security/demoShop'
-import { SHIFT_SECONDS, sessionStands } from '../../security/sessions'
+import { SHIFT_SECONDS } from '../../security/sessions'
+import { sessionAccountUser } from '../../security/sessionUser'
 
 // The provider ships as CommonJS; its default export sits one level down under ESM.
 const Credentials = ((CredentialsProvider as unknown as { default?: typeof CredentialsProvider }).default ?? CredentialsProvider)
@@ -30,8 +31,8 @@ export default NuxtAuthHandler({
   secret: config.authSecret,
   pages: { signIn: '/login' },
   session: { strategy: 'jwt', maxAge: SHIFT_SECONDS },
-  // Behind a TLS proxy (an https:// AUTH_ORIGIN) the session cookie is sent over HTTPS only.
-  useSecureCookies: (process.env.AUTH_ORIGIN ?? '').startsWith('https://'),
+  // The API reads the same cookie itself (server/utils/auth.ts), by the same name.
+  useSecureCookies: secureSessionCookies(),
   providers: [
     Credentials({
       name: 'Slakewise',
@@ -51,12 +52,8 @@ export default NuxtAuthHandler({
     async session({ session, token }) {
       // Re-read the account: deactivation, a role change, a new password or signing out
       // raise its session version and end this session at its next request.
-      const [row] = await useDb().select().from(users).where(eq(users.id, Number(token.uid)))
-      if (!sessionStands(row, token, Date.now(), demoSignInsAllowed())) return { expires: session.expires } as typeof session
-      return {
-        ...session,
-        user: { id: row!.id, email: row!.email, name: row!.displayName, role: row!.role, mustChangePassword: row!.mustChangePassword },
-      } as typeof session
+      const user = await sessionAccountUser(useDb(), token, Date.now(), demoSignInsAllowed())
+      return (user ? { ...session, user } : { expires: session.expires }) as typeof session
     },
   },
   events: {
