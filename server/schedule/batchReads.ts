@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Database } from '../db/client'
+import { preparedPerDatabase } from '../db/preparedQueries'
 import { batches, furnaces, planRevisions, plans, quenchStations } from '../db/schema'
 import { FLOOR_STATES, FLOOR_TAPS } from '../../shared/schedule'
 import type { BatchDetail, FloorCardWire, FloorCurve, FloorPlanFacts, FloorPoll, PlanOption } from '../../shared/types/schedule'
@@ -83,23 +84,33 @@ async function revisionFactsOf(revisionIds: number[]): Promise<Map<number, Omit<
  * What the floor works on: every batch in the furnaces, the bath or cooling, not
  * yet handed on, and booked loads due within the next `aheadHours`.
  */
+/** The floor's loads charged before `before` (a placeholder), on every furnace or on `furnaceId`. */
+function floorRowsQuery(db: Database, oneFurnace: boolean) {
+  const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, sql.placeholder('before'))]
+  if (oneFurnace) conditions.push(eq(batches.furnaceId, sql.placeholder('furnaceId')))
+  return db
+    .select({ batch: batches, planName: plans.name, furnaceName: furnaces.name, stationName: quenchStations.name })
+    .from(batches)
+    .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
+    .innerJoin(plans, eq(plans.id, planRevisions.planId))
+    .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
+    .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
+    .where(and(...conditions))
+    .orderBy(asc(batches.furnaceStart))
+    .limit(200)
+    .prepare()
+}
+// Every tablet polls these every few seconds: built once (server/db/preparedQueries.ts).
+const floorRowsEverywhere = preparedPerDatabase((db) => floorRowsQuery(db, false))
+const floorRowsOnFurnace = preparedPerDatabase((db) => floorRowsQuery(db, true))
+
 export async function floorBatches(furnaceId: number | undefined, aheadHours = 12) {
   const db = useDb()
   const now = Date.now()
-  const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, new Date(now + aheadHours * 3600_000))]
-  if (furnaceId) conditions.push(eq(batches.furnaceId, furnaceId))
+  const before = new Date(now + aheadHours * 3600_000)
   const [settings, rows] = await Promise.all([
     readShopSettings(),
-    db
-      .select({ batch: batches, planName: plans.name, furnaceName: furnaces.name, stationName: quenchStations.name })
-      .from(batches)
-      .innerJoin(planRevisions, eq(planRevisions.id, batches.planRevisionId))
-      .innerJoin(plans, eq(plans.id, planRevisions.planId))
-      .innerJoin(furnaces, eq(furnaces.id, batches.furnaceId))
-      .innerJoin(quenchStations, eq(quenchStations.id, batches.stationId))
-      .where(and(...conditions))
-      .orderBy(asc(batches.furnaceStart))
-      .limit(200),
+    furnaceId ? floorRowsOnFurnace(db).execute({ before, furnaceId }) : floorRowsEverywhere(db).execute({ before }),
   ])
   const [events, facts] = await Promise.all([eventViewsOf(db, rows.map((r) => r.batch.id)), revisionFactsOf(rows.map((r) => r.batch.planRevisionId))])
   const planFacts: FloorPoll['plans'] = {}

@@ -11,6 +11,7 @@ let metallurgist: Client
 let operator: Client
 let pin: SavedPlan
 const booked: number[] = []
+const lines: Awaited<ReturnType<typeof createLine>>[] = []
 const CARDS = 40
 
 /** A raw GET with the operator's session, so headers and bytes can be read as sent. */
@@ -22,6 +23,7 @@ beforeAll(async () => {
   // 40 loads due within the floor's 12 hours: eight lines, five loads each back to back.
   for (let l = 0; l < CARDS / 5; l++) {
     const line = await createLine(admin, 'Floor')
+    lines.push(line)
     let charge = Date.now() + 10 * 60_000
     for (let k = 0; k < 5; k++) {
       const response = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, charge, `WO-FLOOR-${l}-${k}`) })
@@ -52,6 +54,26 @@ describe('the floor poll', () => {
     // Other tests' loads may share the floor: the figure is per card, scaled to 40.
     const perCard = Buffer.byteLength(text) / floor.batches.length
     expect(perCard * CARDS).toBeLessThan(20_000)
+  })
+
+  it('a tablet at one furnace gets that furnace\'s five loads alone, in charge order', async () => {
+    const line = lines[3]!
+    const response = await get(`/api/floor?furnaceId=${line.furnace.id}`)
+    expect(response.status).toBe(200)
+    const floor = (await response.json()) as { batches: { id: number; furnaceName: string; furnaceStart: number }[] }
+    expect(floor.batches.map((b) => b.id)).toEqual(booked.slice(15, 20))
+    expect(new Set(floor.batches.map((b) => b.furnaceName))).toEqual(new Set([line.furnace.name]))
+    const starts = floor.batches.map((b) => b.furnaceStart)
+    expect(starts).toEqual([...starts].sort((a, b) => a - b))
+  })
+
+  it('leaves off a load charged more than 12 hours ahead', async () => {
+    const line = await createLine(admin, 'Floor later')
+    const later = await metallurgist.request('/api/batches', { method: 'POST', body: booking(pin.planRevisionId, line, Date.now() + 13 * 3600_000, 'WO-FLOOR-LATER') })
+    expect(later.status).toBe(201)
+    const floor = (await (await get(`/api/floor?furnaceId=${line.furnace.id}`)).json()) as { batches: unknown[] }
+    expect(floor.batches).toEqual([])
+    expect((await metallurgist.request(`/api/batches/${later.body.id}/events`, { method: 'POST', body: { to: 'cancelled' } })).status).toBe(201)
   })
 
   it('answers 304 with no body while nothing changed, with the server clock in a header; a change gives a new ETag', async () => {
