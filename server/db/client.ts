@@ -23,7 +23,11 @@ export function createDatabase(url = databaseUrl()) {
   const nodes = splitDatabaseUrl(url).map((nodeUrl) => ({
     name: hostOf(nodeUrl),
     // A short connect timeout lets /api/health answer 503 promptly, and failover move on, when a node is down.
-    pool: mysql.createPool({ uri: nodeUrl, connectionLimit: 10, timezone: 'Z', connectTimeout: 3000 }),
+    // trace: false skips the stack mysql2 captures on every query in case it fails (1.4–2.2 % of the
+    // server's CPU under the floor poll); a failed query still names its caller, because Drizzle
+    // rethrows it as a DrizzleQueryError (with the SQL and the driver's error as its cause) from the
+    // awaiting code.
+    pool: mysql.createPool({ uri: nodeUrl, connectionLimit: 10, timezone: 'Z', connectTimeout: 3000, trace: false }),
   }))
   const pool = new FailoverPool(nodes, {
     onNodeFailure: nodes.length > 1 ? (node, error) => console.warn(`[db] ${node} failed (${(error as Error)?.message ?? error}); using the next node for a while`) : undefined,
