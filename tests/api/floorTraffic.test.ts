@@ -43,8 +43,12 @@ describe('the floor poll', () => {
   it(`sends card data only: under 20 kB for ${CARDS} cards, no curves`, async () => {
     const response = await get('/api/floor')
     expect(response.status).toBe(200)
+    expect(response.headers.get('content-type')).toBe('application/json')
     const text = await response.text()
     const floor = JSON.parse(text)
+    // The route writes this JSON itself, clock first, the same clock as in the header.
+    expect(Object.keys(floor)).toEqual(['serverNow', 'settings', 'plans', 'batches'])
+    expect(floor.serverNow).toBe(Number(response.headers.get('x-server-now')))
     const ours = floor.batches.filter((b: { id: number }) => booked.includes(b.id))
     expect(ours).toHaveLength(CARDS)
     expect(text).not.toContain('handlingPointSeries')
