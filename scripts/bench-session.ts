@@ -39,9 +39,9 @@ async function nextAuthSessionRead() {
   if (uid !== 2) throw new Error('next-auth did not read the token')
 }
 
-const key = sessionTokenKey(secret)
-function directRead() {
-  const read = decodeSessionToken(sessionTokenFromCookies(cookies, cookieName)!, key, Date.now())
+const key = await sessionTokenKey(secret)
+async function directRead() {
+  const read = await decodeSessionToken(sessionTokenFromCookies(cookies, cookieName)!, key, Date.now())
   if (read?.uid !== 2) throw new Error('the reader did not read the token')
 }
 

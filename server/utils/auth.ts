@@ -1,7 +1,7 @@
 import { parseCookies, type H3Event } from 'h3'
 import type { Role } from '../../shared/roles'
 import { type Capability, can, rolesFor } from '../../shared/access'
-import { decodeSessionToken, sessionCookieName, sessionTokenFromCookies, sessionTokenKey } from '../security/sessionToken'
+import { decodeSessionToken, sessionCookieName, sessionTokenFromCookies, sessionTokenKey, type SessionTokenKey } from '../security/sessionToken'
 import { sessionAccountUser, type SessionAccountUser } from '../security/sessionUser'
 import { demoSignInsAllowed } from '../security/demoShop'
 
@@ -17,17 +17,17 @@ export function secureSessionCookies(): boolean {
   return (process.env.AUTH_ORIGIN ?? '').startsWith('https://')
 }
 
-let derivedKey: { secret: string; key: Buffer } | undefined
+let derivedKey: { secret: string; key: Promise<SessionTokenKey> } | undefined
 
 /** The token key, derived once per secret rather than on every request. */
-function tokenKey(secret: string): Buffer {
+function tokenKey(secret: string): Promise<SessionTokenKey> {
   if (derivedKey?.secret !== secret) derivedKey = { secret, key: sessionTokenKey(secret) }
   return derivedKey.key
 }
 
 /**
  * Who is signed in on this request, or null. Reads the session cookie next-auth wrote
- * (server/security/sessionToken.ts: decrypted under a cached key, not re-encrypted) and
+ * (server/security/sessionToken.ts: decrypted by jose under a cached key, not re-encrypted) and
  * then the account itself from the database, exactly as the session callback does
  * (server/security/sessionUser.ts): a deactivation, a role change or a raised session
  * version takes effect at once, whatever the token says.
@@ -38,7 +38,7 @@ export async function readSessionUser(event: H3Event): Promise<SessionAccountUse
   const token = sessionTokenFromCookies(parseCookies(event), sessionCookieName(secureSessionCookies()))
   if (!token) return null
   const now = Date.now()
-  const claims = decodeSessionToken(token, tokenKey(secret), now)
+  const claims = await decodeSessionToken(token, await tokenKey(secret), now)
   return claims ? sessionAccountUser(useDb(), claims, now, demoSignInsAllowed()) : null
 }
 

@@ -6,7 +6,7 @@ import { decodeSessionToken, sessionCookieName, sessionTokenFromCookies, session
 // every token here is sealed by its encode, and the reader must accept exactly what its
 // decode accepts.
 const secret = 'kestrel-bay-session-secret-for-tests-only'
-const key = sessionTokenKey(secret)
+const key = await sessionTokenKey(secret)
 const claims = { name: 'Morgan Hale', email: 'morgan@kestrelbay.example', sub: '7', uid: 7, sv: 3, authAt: 1_796_000_000_000 }
 
 /** next-auth's own verdict: the claims, or null where it refuses (it throws). */
@@ -34,7 +34,7 @@ function flipFirstByte(part: string) {
 describe('reading the session token without next-auth\'s session handler', () => {
   it('returns the claims next-auth sealed, the same as next-auth\'s decode', async () => {
     const token = await encode({ token: claims, secret, maxAge: 3600 })
-    const read = decodeSessionToken(token, key, Date.now())
+    const read = await decodeSessionToken(token, key, Date.now())
     expect(read).toMatchObject(claims)
     expect(read).toEqual(await nextAuthDecode(token))
   })
@@ -46,40 +46,40 @@ describe('reading the session token without next-auth\'s session handler', () =>
   ])('refuses %s, as next-auth does', async (_label, index) => {
     const token = await encode({ token: claims, secret, maxAge: 3600 })
     const tampered = withPart(token, index, flipFirstByte(token.split('.')[index]!))
-    expect(decodeSessionToken(tampered, key, Date.now())).toBeNull()
+    expect(await decodeSessionToken(tampered, key, Date.now())).toBeNull()
     expect(await nextAuthDecode(tampered)).toBeNull()
   })
 
   it('refuses a token sealed under another secret', async () => {
     const token = await encode({ token: claims, secret: 'another-shop-secret-for-tests-only', maxAge: 3600 })
-    expect(decodeSessionToken(token, key, Date.now())).toBeNull()
+    expect(await decodeSessionToken(token, key, Date.now())).toBeNull()
     expect(await nextAuthDecode(token)).toBeNull()
   })
 
   it('refuses a changed header (it is authenticated as the AAD) and a truncated tag', async () => {
     const token = await encode({ token: claims, secret, maxAge: 3600 })
     const header = Buffer.from(JSON.stringify({ enc: 'A256GCM', alg: 'dir' })).toString('base64url')
-    expect(decodeSessionToken(withPart(token, 0, header), key, Date.now())).toBeNull()
+    expect(await decodeSessionToken(withPart(token, 0, header), key, Date.now())).toBeNull()
     const shortTag = Buffer.from(token.split('.')[4]!, 'base64url').subarray(0, 12).toString('base64url')
-    expect(decodeSessionToken(withPart(token, 4, shortTag), key, Date.now())).toBeNull()
-    expect(decodeSessionToken('not.a.token', key, Date.now())).toBeNull()
+    expect(await decodeSessionToken(withPart(token, 4, shortTag), key, Date.now())).toBeNull()
+    expect(await decodeSessionToken('not.a.token', key, Date.now())).toBeNull()
   })
 
   it('refuses an expired token past next-auth\'s 15 s tolerance and keeps one within it, as next-auth does', async () => {
     // encode sets exp = now + maxAge (seconds): 60 s ago is expired, 10 s ago is within the tolerance.
     const expired = await encode({ token: claims, secret, maxAge: -60 })
     const justExpired = await encode({ token: claims, secret, maxAge: -10 })
-    expect(decodeSessionToken(expired, key, Date.now())).toBeNull()
+    expect(await decodeSessionToken(expired, key, Date.now())).toBeNull()
     expect(await nextAuthDecode(expired)).toBeNull()
-    expect(decodeSessionToken(justExpired, key, Date.now())).toMatchObject(claims)
+    expect(await decodeSessionToken(justExpired, key, Date.now())).toMatchObject(claims)
     expect(await nextAuthDecode(justExpired)).toMatchObject(claims)
   })
 
   it('stops accepting a token once its expiry plus 15 s has passed', async () => {
     const token = await encode({ token: claims, secret, maxAge: 3600 })
-    const { exp } = decodeSessionToken(token, key, Date.now()) as { exp: number }
-    expect(decodeSessionToken(token, key, (exp + 14) * 1000)).not.toBeNull()
-    expect(decodeSessionToken(token, key, (exp + 15) * 1000)).toBeNull()
+    const { exp } = (await decodeSessionToken(token, key, Date.now())) as { exp: number }
+    expect(await decodeSessionToken(token, key, (exp + 14) * 1000)).not.toBeNull()
+    expect(await decodeSessionToken(token, key, (exp + 15) * 1000)).toBeNull()
   })
 })
 
