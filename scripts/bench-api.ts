@@ -225,6 +225,14 @@ try {
     console.log(`${''.padEnd(32)} 2 proc: ${formatShares(row.two.cpu)}`)
   }
   console.log(`${'floor poll beside graded previews'.padEnd(32)} ${formatShares(floorBusy.cpu)}`)
+  // The ratio two processes could reach on these cores if each request cost what it did on one: the
+  // cores the servers had in the two-process run (all but the database's, the clients' and the rest's)
+  // over what one server used alone.
+  console.log(`\nceiling of the req/s ratio on ${availableParallelism()} cores at one process's CPU per request (cores left to the servers with two / cores one server used):`)
+  for (const row of table) {
+    const left = availableParallelism() - row.two.cpu.mariadb! - row.two.cpu.self! - row.two.cpu.others!
+    console.log(`${row.name.padEnd(32)} ${(left / row.one.cpu['server A']!).toFixed(2)}× (measured ${(row.two.perSecond / row.one.perSecond).toFixed(2)}×)`)
+  }
   console.log(`\nfloor poll, 4 clients, one process: p95 ${floorAlone.p95.toFixed(0)} ms alone; ${floorBusy.p95.toFixed(0)} ms while 4 clients preview the graded plan (${gradedLoad.perSecond.toFixed(1)} previews/s, p50 ${gradedLoad.p50.toFixed(0)} ms); ratio ${(floorBusy.p95 / floorAlone.p95).toFixed(1)}× (target under 40 ms)`)
   console.log(`engine after the runs: ${JSON.stringify(health.engine)}`)
   console.log(`\nfloor poll for ${cards} cards: ${Buffer.byteLength(floorText)} B raw (target under 20,000 for 40), ${zipped.bytes} B as sent to a client accepting gzip (content-encoding ${zipped.encoding}); unchanged → ${again.status}`)
