@@ -225,10 +225,10 @@ try {
     console.log(`${''.padEnd(32)} 2 proc: ${formatShares(row.two.cpu)}`)
   }
   console.log(`${'floor poll beside graded previews'.padEnd(32)} ${formatShares(floorBusy.cpu)}`)
-  // The ratio two processes could reach on these cores if each request cost what it did on one: the
-  // cores the servers had in the two-process run (all but the database's, the clients' and the rest's)
-  // over what one server used alone.
-  console.log(`\nceiling of the req/s ratio on ${availableParallelism()} cores at one process's CPU per request (cores left to the servers with two / cores one server used):`)
+  // About the ratio two processes can reach on these cores if each request costs what it did on one:
+  // the cores the servers had in the two-process run (all but the database's, the clients' and the
+  // rest's) over what one server used alone. An estimate: contention changes the cost per request.
+  console.log(`\nreq/s ratio the ${availableParallelism()} cores allow at one process's CPU per request, about (cores left to the servers with two / cores one server used):`)
   for (const row of table) {
     const left = availableParallelism() - row.two.cpu.mariadb! - row.two.cpu.self! - row.two.cpu.others!
     console.log(`${row.name.padEnd(32)} ${(left / row.one.cpu['server A']!).toFixed(2)}× (measured ${(row.two.perSecond / row.one.perSecond).toFixed(2)}×)`)
