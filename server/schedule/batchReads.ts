@@ -80,10 +80,6 @@ async function revisionFactsOf(revisionIds: number[]): Promise<Map<number, Omit<
   return found
 }
 
-/**
- * What the floor works on: every batch in the furnaces, the bath or cooling, not
- * yet handed on, and booked loads due within the next `aheadHours`.
- */
 /** The floor's loads charged before `before` (a placeholder), on every furnace or on `furnaceId`. */
 function floorRowsQuery(db: Database, oneFurnace: boolean) {
   const conditions = [inArray(batches.state, [...FLOOR_STATES]), lt(batches.furnaceStart, sql.placeholder('before'))]
@@ -104,6 +100,10 @@ function floorRowsQuery(db: Database, oneFurnace: boolean) {
 const floorRowsEverywhere = preparedPerDatabase((db) => floorRowsQuery(db, false))
 const floorRowsOnFurnace = preparedPerDatabase((db) => floorRowsQuery(db, true))
 
+/**
+ * What the floor works on: every batch in the furnaces, the bath or cooling, not
+ * yet handed on, and booked loads due within the next `aheadHours`.
+ */
 export async function floorBatches(furnaceId: number | undefined, aheadHours = 12) {
   const db = useDb()
   const now = Date.now()
