@@ -276,12 +276,17 @@ function physicsWarnings(plan: ResolvedPlan, curve: ModelRun['curve'], stageEnds
     const unused = plan.physics === 'tables' && engineBody(plan.part).kind === 'product' && hasTemperatureData(plan.library.material, quenchants)
     return unused ? [uniformPropertiesWarning()] : []
   }
+  // The part stays between its start and its media's temperatures (the maximum principle): a truncated
+  // series' ringing just after the quench must not read as a temperature past a table's or curve's end.
+  const range = [plan.start_C, ...quenchants.map((q) => q.bath_C)]
+  const physical = (T: number) => Math.min(Math.max(...range), Math.max(Math.min(...range), T))
+  const seen = { ...curve, centre_C: curve.centre_C.map(physical), surface_C: curve.surface_C.map(physical) }
   const table = plan.library.material.propertyTable
-  const warnings = [table ? tableRangeWarning(table, plan.library.material.name, curve) : null]
+  const warnings = [table ? tableRangeWarning(table, plan.library.material.name, seen) : null]
   plan.stages.forEach((s, i) => {
     const curves = quenchants[i]!.coolingCurves
     if (!curves) return
-    const surface = curve.surface_C.filter((_, j) => stageAt(curve.t_s[j]!, stageEnds_s) === i)
+    const surface = seen.surface_C.filter((_, j) => stageAt(curve.t_s[j]!, stageEnds_s) === i)
     warnings.push(curveRangeWarning(i, { name: quenchants[i]!.name, curve: curves[s.coefficient] }, surface))
   })
   return warnings.filter((w) => w !== null)
