@@ -178,7 +178,7 @@ export function basisValues(basis: ModalBasis, x: number): Float64Array {
 }
 
 /** Temperatures at the quadrature nodes of T = ℓ + Σ c_j φ_j. */
-export function nodeTemperatures(basis: ModalBasis, c: Float64Array, out = new Float64Array(basis.nodes.length)): Float64Array {
+export function nodeTemperatures(basis: ModalBasis, c: Float64Array, out: Float64Array = new Float64Array(basis.nodes.length)): Float64Array {
   const q = basis.nodes.length
   for (let i = 0; i < q; i++) out[i] = basis.lift0 + basis.liftSlope * basis.nodes[i]
   for (let j = 0; j < basis.count; j++) {
@@ -249,6 +249,8 @@ export interface FrozenSeries {
   modeVectors: Float64Array
   /** The orthogonal eigenvectors of the symmetrised problem: the warm start of the next, nearby frozen problem. */
   rotation: Float64Array
+  /** Cholesky factor R of the mass matrix (M = R Rᵀ): with `rotation`, the modes of any coefficient vector. */
+  massFactor: Float64Array
 }
 
 /**
@@ -322,7 +324,47 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
     backSubstitute(r, n, column)
     for (let a = 0; a < n; a++) modeVectors[j * n + a] = amplitude * column[a]
   }
-  return { rates_per_s: rates, steady, modeVectors, rotation: u }
+  return { rates_per_s: rates, steady, modeVectors, rotation: u, massFactor: r }
+}
+
+/** Amplitudes a_n = v_nᵀ M x = u_nᵀ Rᵀ x of a coefficient vector x on a frozen problem's M-orthonormal modes v_n. */
+export function modalAmplitudes(series: FrozenSeries, x: Float64Array): Float64Array {
+  const n = x.length
+  const r = series.massFactor
+  const rx = new Float64Array(n)
+  for (let a = 0; a < n; a++) {
+    let sum = 0
+    for (let b = a; b < n; b++) sum += r[b * n + a] * x[b]
+    rx[a] = sum
+  }
+  const out = new Float64Array(n)
+  for (let j = 0; j < n; j++) {
+    let sum = 0
+    for (let a = 0; a < n; a++) sum += series.rotation[a * n + j] * rx[a]
+    out[j] = sum
+  }
+  return out
+}
+
+/** Each M-orthonormal mode v_n = R⁻ᵀ u_n at the nodes and both faces: index n·(Q + 2) + i, the faces last. */
+export function modeShapes(basis: ModalBasis, series: FrozenSeries): Float64Array {
+  const n = basis.count
+  const q = basis.nodes.length
+  const width = q + 2
+  const out = new Float64Array(n * width)
+  const column = new Float64Array(n)
+  for (let j = 0; j < n; j++) {
+    for (let a = 0; a < n; a++) column[a] = series.rotation[a * n + j]
+    backSubstitute(series.massFactor, n, column)
+    const o = j * width
+    for (let a = 0; a < n; a++) {
+      const ca = column[a]
+      for (let i = 0; i < q; i++) out[o + i] += ca * basis.phi[a * q + i]
+      out[o + q] += ca * basis.end0[a]
+      out[o + q + 1] += ca * basis.end1[a]
+    }
+  }
+  return out
 }
 
 /**
@@ -364,8 +406,7 @@ function forwardRows(r: Float64Array, b: Float64Array, out: Float64Array, n: num
  * assembly is most of a frozen solve's arithmetic; four running sums let the loop
  * overlap its multiplications (Q is a multiple of 8, the Gauss panels' order).
  */
-function pairSums(pairs: Float64Array, node: Float64Array, q: number): Float64Array {
-  const out = new Float64Array(pairs.length / q)
+export function pairSums(pairs: Float64Array, node: Float64Array, q: number, out: Float64Array = new Float64Array(pairs.length / q)): Float64Array {
   for (let p = 0, o = 0; p < out.length; p++, o += q) {
     let s0 = 0
     let s1 = 0
@@ -382,11 +423,14 @@ function pairSums(pairs: Float64Array, node: Float64Array, q: number): Float64Ar
   return out
 }
 
-/** Coefficients of a frozen series τ seconds after its start. */
-export function seriesCoefficients(series: FrozenSeries, tau_s: number, out = new Float64Array(series.steady.length)): Float64Array {
+/**
+ * Coefficients τ seconds into a series of exponentials, c(τ) = steady + Σ_j e^{−rate_j τ} vector_j:
+ * a frozen series (one term per mode) or a stepped sub-step's interpolant (a few terms).
+ */
+export function seriesCoefficients(series: Pick<FrozenSeries, 'rates_per_s' | 'steady' | 'modeVectors'>, tau_s: number, out = new Float64Array(series.steady.length)): Float64Array {
   const n = series.steady.length
   out.set(series.steady)
-  for (let j = 0; j < n; j++) {
+  for (let j = 0; j < series.rates_per_s.length; j++) {
     const decay = Math.exp(-series.rates_per_s[j] * tau_s)
     if (decay === 0) continue
     for (let a = 0; a < n; a++) out[a] += decay * series.modeVectors[j * n + a]

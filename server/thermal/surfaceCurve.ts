@@ -4,8 +4,9 @@
  *   q = h(T_s)·(T_s − T∞) + εσ(T_s⁴ − T∞⁴),   temperatures in kelvin in the radiative term,
  *
  * with h constant or read from a curve against the surface temperature (a liquid
- * quenchant's vapour-blanket, boiling and convection phases). The engines freeze it
- * as a linear condition q = h_eff·(T_s − T∞) with the secant coefficient
+ * quenchant's vapour-blanket, boiling and convection phases). The stepped engine
+ * (galerkinStage.ts) uses q itself; the finite-volume solver and the frozen series of
+ * a stage's start and end read it as q = h_eff·(T_s − T∞) with the secant coefficient
  *
  *   h_eff = h(T*) + εσ(T*² + T∞²)(T* + T∞),
  *
@@ -13,7 +14,7 @@
  * factorisation of T⁴ − T∞⁴; Incropera et al., Fundamentals of Heat and Mass
  * Transfer, eq. 1.9).
  */
-import { interpolate, pathMean } from './propertyTable'
+import { interpolate } from './propertyTable'
 import type { ConvectiveBoundary } from './types'
 
 /** Stefan–Boltzmann constant, W/m²K⁴ (CODATA 2018, exact in the SI). */
@@ -25,13 +26,6 @@ export interface SurfaceLaw {
   ambient_C: number
   /** Secant coefficient at surface temperature T_s, W/m²K. */
   effectiveH: (surface_C: number) => number
-  /**
-   * h_eff frozen over a step along which the surface goes T0 → Tg1 → Tg2 → T1 (Tg
-   * at the step's Gauss points): the curve's time mean (pathMean: a kink inside the
-   * step is averaged, not sampled on one side) plus the smooth radiative factor's
-   * two-point Gauss mean.
-   */
-  pathEffectiveH: (T0: number, Tg1: number, Tg2: number, T1: number) => number
   /** True when h_eff does not depend on T_s (a plain h, no radiation). */
   constant: boolean
 }
@@ -50,7 +44,6 @@ export function surfaceLaw(b: ConvectiveBoundary): SurfaceLaw {
   return {
     ambient_C: b.ambient_C,
     effectiveH: (T) => convective(T) + radiative(T),
-    pathEffectiveH: (T0, Tg1, Tg2, T1) => (xs && hs ? pathMean(xs, hs, T0, Tg1, Tg2, T1) : b.h_W_m2K) + 0.5 * (radiative(Tg1) + radiative(Tg2)),
     constant: !curve && es === 0,
   }
 }

@@ -1,46 +1,37 @@
 /**
  * Cooldowns with temperature-dependent physics — k(T), ρc(T) from a material table,
- * h(T_s) from a quenchant curve, radiation εσ(T_s⁴ − T∞⁴) — by eigenmode series
- * over frozen-coefficient sub-steps (the method named in the stage summaries).
+ * h(T_s) from a quenchant curve, radiation εσ(T_s⁴ − T∞⁴) — as an eigenmode series
+ * whose amplitudes are stepped in time (the method named in the stage summaries).
  *
- * Within a sub-step [t, t + Δt] the properties are frozen (k and ρc node by node, so
- * the frozen body is graded; each face as one h_eff, surfaceCurve.ts), which makes
- * the problem linear: its Ritz modes (ritzModes.ts) give the exact series of the
- * frozen problem, the current profile is projected onto them, and the series
- * carries it to t + Δt. The frozen values are time means over the step along a
- * path of the field (its values at the start, at the two Gauss points and at the
- * end; propertyTable.ts pathMean): two-point Gauss where a node's path crosses no
- * table row, the exact mean of a path straight between those moments where it
- * crosses one, so a step across the cp peak or a kink of the h curve is averaged
- * rather than sampled on one side of it. Two passes: the first takes its path from
- * the previous sub-step's series carried on past its end (no solve; at a stage's
- * start, a series frozen at t), the second from the first pass's series, which is
- * kept. The passes' end fields differ by about the first pass's error, which
- * bounds the kept one's; the step is accepted when that is within STEP_TOLERANCE_K
- * (scaled by accuracy_K) and resized from it. Those differences, each fading after
- * its step at the frozen problem's slowest rate (a heat-conduction error decays at
- * least as the slowest mode does), summed and carried from stage to stage, give the
- * reported time-stepping error estimate: still a conservative one, since the kept
- * pass is closer than the first.
+ * Each stage writes the field on its modal basis, T = ℓ + Σ c_j(t) φ_j (ritzModes.ts:
+ * the modes of a uniform body at the stage's starting Biot number, plus a face
+ * function per convective face). With constant coefficients the amplitudes would
+ * decay one by one as the familiar series; with k, ρc and h following the
+ * temperature they are coupled, and the projected conduction equation M(c) ċ = f(c)
+ * is stepped by an L-stable implicit Runge–Kutta method with an embedded error
+ * estimate (galerkinStage.ts, sdirk.ts), the step accepted when the estimate is
+ * within STEP_TOLERANCE_K (scaled by accuracy_K) and resized from it. Coefficients
+ * are read node by node from the current field, so a node crossing the cp peak or
+ * the surface crossing the boiling peak is seen where it happens.
  *
- * Each sub-step is a PointStage of its own, so target times are bracketed and
- * polished by firstCrossing on the series of the sub-step where the crossing
- * occurs, and the floor can evaluate the history without the engine. The last,
- * open-ended stage ends in an open-ended sub-step once the body is within
- * OPEN_END_K of its steady state, where the coefficients no longer change.
+ * Between step ends each sub-step's history is the cubic through four neighbouring
+ * step ends written as three exponentials (stepSeries), so each sub-step is a
+ * PointStage like any series stage: target times are bracketed and polished by
+ * firstCrossing on the sub-step where the crossing occurs, and the floor evaluates
+ * the history without the engine. The last, open-ended stage ends in an open-ended
+ * frozen series once the body is within OPEN_END_K of its steady state.
+ *
+ * The reported error estimate carries each step's local estimate forward on the
+ * frozen modes of the stage's start, each mode's share fading at its own rate
+ * (carryErrors), plus the series' truncation at the earliest reading.
  *
  * Cost (issue 12, the benchmark's oil-quenched steel bar, 14 basis functions on 64
- * quadrature nodes): ~390 sub-steps (was ~650 with midpoint freezing) of two frozen
- * solves each, a solve being the assembly of mass and stiffness from the node
- * coefficients (weighted sums of the basis's precomputed node products) with the
- * Cholesky products and amplitudes (~30 % of the time), a Jacobi eigen solve
- * warm-started from the last solve's eigenvectors (~25 %), and the paths and their
- * means (~15 %). The sub-step count still bounds it: within a step the series
- * follows coefficients frozen at their mean, so its error between the step's ends
- * stays second order in the step (a water-quenched rod whose centre crosses the
- * cp peak is what holds STEP_TOLERANCE_K at 0.02), and a smaller basis once the
- * fast modes have died lost 0.2 K on the ISO probe log when a boiling phase came
- * after the drop, so every sub-step of a stage keeps the stage's basis.
+ * quadrature nodes): ~125 sub-steps of three stages, each stage two or three Newton
+ * iterations of one residual (the field and its properties at the nodes, projected
+ * back: four passes over functions × nodes). The earlier method froze the
+ * coefficients over each sub-step and carried the frozen problem's own series (an
+ * eigen solve per sub-step): second order in the step, ~390 sub-steps, 4–5 times
+ * slower for the same accuracy.
  *
  * solveCooldown sends only problems whose tables are not flat here; flat tables take
  * today's constant-property path unchanged. Checked against a refined finite-volume
@@ -50,13 +41,17 @@
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { EngineLimitError } from './errors'
 import { profileAt } from './solveCooldown'
-import { GAUSS_POINTS, interpolate, materialCurves, pathMean } from './propertyTable'
+import { GalerkinStepper, type NodeProperties } from './galerkinStage'
+import { ALEXANDER_3 } from './sdirk'
+import { interpolate, materialCurves } from './propertyTable'
 import { propertiesAt, scaleDomain } from './properties'
 import {
   basisValues,
   endTemperature,
   frozenSeries,
+  modalAmplitudes,
   modalBasis,
+  modeShapes,
   nodeTemperatures,
   projectOnto,
   seriesCoefficients,
@@ -65,72 +60,82 @@ import {
   type ModalBasis,
 } from './ritzModes'
 import type { StageSeries } from './series'
-import { surfaceLaw, type SurfaceLaw } from './surfaceCurve'
+import { surfaceFlux, surfaceLaw, type SurfaceLaw } from './surfaceCurve'
 import { firstCrossing, type TargetSpec } from './targetTime'
 import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOptions, StageSummary } from './types'
 
 /**
- * Accepted difference between the two passes per sub-step at the default accuracy,
- * tuned against converged Crank–Nicolson runs (300–400 cells): at 0.02 the
- * benchmark's oil-quenched steel bar (centre at 40 times) is 0.076 K off, the ISO
- * 9950 probe log of syntheticLogs.test.ts 0.023 K, and the water-quenched steel
- * rod of temperatureDependent.test.ts (its centre crossing the cp peak) 0.15 K; at
- * 0.04 the rod is 0.24 K off. The difference bounds the first pass's error; the
- * kept second pass, frozen along a better path, is closer.
+ * Accepted local error per sub-step at the default accuracy (the embedded estimate,
+ * galerkinStage.ts), tuned against converged Crank–Nicolson runs (300 cells): at 0.05
+ * the nine reference cases of temperatureDependent.test.ts are 0.02–0.12 K off (the
+ * water-quenched slab, its centre crossing the cp peak, the worst), at 0.1 that slab
+ * and sphere are 0.24 and 0.22 K off.
  */
-const STEP_TOLERANCE_K = 0.02
+const STEP_TOLERANCE_K = 0.05
+/** The stepping method: three implicit stages, third order, L-stable. */
+const TABLEAU = ALEXANDER_3
 /** The default accuracy the step tolerance above is tuned for (0.2 K against a converged reference). */
 const DEFAULT_ACCURACY_K = 0.2
 /** Within this of the steady state the last sub-step is left open-ended. */
 const OPEN_END_K = 0.5
 const MAX_SUB_STEPS = 5000
+/** The first step of a stage, as a share of the fastest mode's time constant. */
+const FIRST_STEP_SHARE = 0.1
+/** Step growth and shrink bounds, and the safety factor on the estimate's resize. */
+const MAX_GROWTH = 3
+const MIN_SHRINK = 0.2
+const SAFETY = 0.9
 /**
  * The fewest basis functions a stage keeps, whatever its earliest reading: enough to
- * follow a frozen field with a moving cp peak or boiling front. Every reference check
- * (the nine finite-volume cases, the Kirchhoff closed form, the ISO probe log, the
- * planner against Crank–Nicolson) passes with the count modesFor gives alone; the
- * benchmark bar and the demo plans' finite-difference checks move by under 0.001 K
- * from a floor of 16, which cost the bar half as much time again.
+ * follow a field with a moving cp peak or boiling front.
  */
 const MIN_MODES = 8
 const MAX_MODES = 60
 
-export const TEMPERATURE_DEPENDENT_METHOD = 'eigenmode series, frozen-coefficient sub-steps'
+export const TEMPERATURE_DEPENDENT_METHOD = 'eigenmode series with stepped amplitudes (modal Galerkin, L-stable SDIRK sub-steps)'
 
-/** One sub-step: a frozen series from start_s to end_s (Infinity when open-ended). */
+/** A sub-step's coefficients as exponentials in time: c(τ) = steady + Σ_n e^{−rate_n τ} vector_n. */
+type StepSeries = Pick<FrozenSeries, 'rates_per_s' | 'steady' | 'modeVectors'>
+
+/** One sub-step: its history from start_s to end_s (Infinity when open-ended). */
 interface SubStep {
   start_s: number
   end_s: number
   basis: ModalBasis
-  series: FrozenSeries
+  series: StepSeries
 }
 
-/**
- * k and ρc at the basis nodes, frozen over a step: node i's time mean of the table
- * along its path through the step (pathMean), so a node crossing the cp peak within
- * the step is given the peak's average, not a one-sided sample.
- */
-type NodeMaterial = (path: Path, k: Float64Array, rhoCp: Float64Array) => void
-
-function nodeMaterial(problem: CooldownProblem, nodes: Float64Array): NodeMaterial {
+/** k and ρc at the basis nodes from the node temperatures: the table's, or the graded profile's fixed values. */
+function nodeProperties(problem: CooldownProblem, nodes: Float64Array): NodeProperties {
   const table = problem.domain.temperatureTable
   if (table) {
-    const curves = materialCurves(table)
-    return ([a, g1, g2, b], k, rhoCp) => {
-      for (let i = 0; i < a.nodes.length; i++) {
-        const T0 = a.nodes[i]
-        const Tg1 = g1.nodes[i]
-        const Tg2 = g2.nodes[i]
-        const T1 = b.nodes[i]
-        k[i] = pathMean(curves.T_C, curves.k_W_mK, T0, Tg1, Tg2, T1)
-        rhoCp[i] = pathMean(curves.T_C, curves.rhoCp_J_m3K, T0, Tg1, Tg2, T1)
+    const { T_C: rows, k_W_mK: ks, rhoCp_J_m3K: cs } = materialCurves(table)
+    const last = rows.length - 1
+    // Each node's row interval, kept from the last call: a node moves a little per call, so the search is a step or two.
+    const interval = new Int32Array(nodes.length)
+    return (T, k, rhoCp) => {
+      for (let i = 0; i < T.length; i++) {
+        const t = T[i]
+        if (t <= rows[0] || t >= rows[last]) {
+          const end = t <= rows[0] ? 0 : last
+          k[i] = ks[end]
+          rhoCp[i] = cs[end]
+          continue
+        }
+        let j = interval[i]
+        while (j > 0 && t < rows[j]) j--
+        while (j < last - 1 && t >= rows[j + 1]) j++
+        interval[i] = j
+        const f = (t - rows[j]) / (rows[j + 1] - rows[j])
+        k[i] = ks[j] + f * (ks[j + 1] - ks[j])
+        rhoCp[i] = cs[j] + f * (cs[j + 1] - cs[j])
       }
     }
   }
   const domain = scaleDomain(problem.domain)
   const k0 = Float64Array.from(nodes, (x) => propertiesAt(domain.pieces, x).k * domain.kRef_W_mK)
   const c0 = Float64Array.from(nodes, (x) => propertiesAt(domain.pieces, x).c * domain.rhoCpRef_J_m3K)
-  return (_path, k, rhoCp) => {
+  return (_T, k, rhoCp) => {
     k.set(k0)
     rhoCp.set(c0)
   }
@@ -147,20 +152,9 @@ function fieldOf(basis: ModalBasis, c: Float64Array): Field {
   return { nodes: nodeTemperatures(basis, c), inner: endTemperature(basis, c, 0), outer: endTemperature(basis, c, 1) }
 }
 
-/** A step's temperatures at its start, its two Gauss points and its end. */
-type Path = [Field, Field, Field, Field]
-
-/** The path of a step of `step` s from field `now`, read from a series that is `offset_s` into its run at the step's start. */
-function pathAlong(basis: ModalBasis, now: Field, series: FrozenSeries, offset_s: number, step: number): Path {
-  const at = (tau: number) => fieldOf(basis, seriesCoefficients(series, offset_s + tau * step))
-  return [now, at(GAUSS_POINTS[0]), at(GAUSS_POINTS[1]), at(1)]
-}
-
-/** A path that stays at `now`: the coefficients frozen as they are. */
-const standing = (now: Field): Path => [now, now, now, now]
-
 const faceKind = (b: Boundary): FaceKind => (b.type === 'convective' ? 'convective' : b.type)
 const lawOf = (b: Boundary): SurfaceLaw | null => (b.type === 'convective' ? surfaceLaw(b) : null)
+const fluxOf = (law: SurfaceLaw | null) => (law ? (T: number) => surfaceFlux(law, T) : null)
 
 export function solveTemperatureDependent(problem: CooldownProblem, options: SolveOptions = {}): CooldownSolution {
   const { domain } = problem
@@ -172,6 +166,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
   const steps: SubStep[] = []
   const summaries: StageSummary[] = []
   const bounds = temperatureBounds(problem)
+  const clamp = (T: number) => Math.min(bounds.max, Math.max(bounds.min, T))
   let start_s = 0
   let profile = initialAt
   // The time-stepping error carried along: each accepted step's estimate, decaying afterwards.
@@ -181,13 +176,13 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     const end_s = last ? Infinity : start_s + (stage.duration_s as number)
     const outerLaw = lawOf(stage.outer)
     const innerLaw = lawOf(stage.inner)
-    // Basis Biot numbers from the stage's start; the frozen h_eff of later sub-steps enter naturally.
+    // Basis Biot numbers from the stage's start; the face functions follow any later h.
     const kStart = kAt(problem, profile(0.5))
     const outerH = outerLaw ? outerLaw.effectiveH(profile(1)) : 0
     const innerH = innerLaw ? innerLaw.effectiveH(profile(0)) : 0
     const earliest = (Array.isArray(options.earliest_s) ? options.earliest_s[stageIndex] : options.earliest_s) ?? 0.01 * scaled.timeScale_s
     const tauMin = Math.max(earliest, 1e-9 * scaled.timeScale_s) / timeScaleAt(problem, profile(0.5))
-    const count = Math.min(MAX_MODES, Math.max(MIN_MODES, options.minModes ?? 1, modesFor(tauMin)))
+    const count = Math.min(MAX_MODES, Math.max(MIN_MODES, options.minModes ?? 1, modesFor(tauMin, stage.inner.type === 'fixed' || stage.outer.type === 'fixed')))
     const basis = modalBasis({
       geometry: domain.geometry,
       count,
@@ -199,56 +194,67 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       ...(stage.outer.type === 'fixed' ? { outerFixed_C: stage.outer.T_C } : { outerAmbient_C: stage.outer.ambient_C }),
       breakpoints: [...new Set([...domain.properties.map((p) => p.x), ...(stageIndex === 0 && typeof initial !== 'number' ? initial.map((p) => p.x) : [])])],
     })
-    const frozenOver = freezer(problem, basis, outerLaw, innerLaw, bounds)
-    let c = projectOnto(basis, profile)
+    const properties = nodeProperties(problem, basis.nodes)
+    const frozenAt = freezer(problem, basis, properties, outerLaw, innerLaw, clamp)
+    const stepper = new GalerkinStepper({ basis, length_m: L, properties, outerFlux: fluxOf(outerLaw), innerFlux: fluxOf(innerLaw), clamp, tableau: TABLEAU })
+    let c: Float64Array = projectOnto(basis, profile)
+    const startSeries = frozenAt(c)
+    const ends: { t: number; c: Float64Array }[] = [{ t: start_s, c }]
+    const errors: { step: number; vector: Float64Array }[] = []
+    let slope: Float64Array = new Float64Array(basis.count)
     let t = start_s
-    let dt = 1e-3 * timeScaleAt(problem, profile(0.5))
-    let stageError_K = carried_K
-    const firstStep = steps.length
-    // Rejected steps add no sub-step, so the passes are capped too: twice the sub-steps allows a rejection per step.
-    for (let passes = 0; ; passes++) {
+    // The first step resolves the fastest mode (its exact decay, not the L-stable damping): right after a
+    // sudden surface change the fast modes carry the field near the surface, and a damped start rings at the centre.
+    let dt = Math.min(1e-3 * timeScaleAt(problem, profile(0.5)), FIRST_STEP_SHARE / Math.max(...startSeries.rates_per_s))
+    let openEnd: FrozenSeries | null = null
+    // Rejected steps add no sub-step, so the attempts are capped too: twice the sub-steps allows a rejection per step.
+    for (let attempts = 0; ; attempts++) {
       options.deadline?.check()
-      if (steps.length - firstStep > MAX_SUB_STEPS || passes > 2 * MAX_SUB_STEPS)
+      if (ends.length > MAX_SUB_STEPS || attempts > 2 * MAX_SUB_STEPS)
         throw new EngineLimitError(`more than ${MAX_SUB_STEPS} sub-steps; shorten the stage or soften its coefficients`, `stages.${stageIndex}`)
-      const now = fieldOf(basis, c)
-      const previous = steps.length > firstStep ? steps[steps.length - 1] : null
-      // The last sub-step's series froze the coefficients half a step ago; they barely move once near steady.
-      if (last && previous && transientSize(basis, c, previous.series.steady) <= OPEN_END_K) {
-        steps.push({ start_s: t, end_s: Infinity, basis, series: frozenOver(standing(now), c) })
-        break
-      }
       // Within 1.5 steps of the stage's end, go halfway rather than leave a sliver: a
       // rejected last step must shrink, or the same step would be tried forever.
       const landing = t + dt >= end_s * (1 - 1e-12)
       const step = landing ? end_s - t : end_s - t < 1.5 * dt ? (end_s - t) / 2 : dt
-      // Predicted path: the last sub-step's series carried on (free), or at a stage's start a series frozen now.
-      const predictor = previous ? previous.series : frozenOver(standing(now), c)
-      const first = frozenOver(pathAlong(basis, now, predictor, previous ? t - previous.start_s : 0, step), c)
-      const cFirst = seriesCoefficients(first, step)
-      // The corrector re-freezes along the first pass's path: the coefficients' time mean to fourth order.
-      const corrector = frozenOver(pathAlong(basis, now, first, 0, step), c)
-      const cCorrected = seriesCoefficients(corrector, step)
-      const error = largestDifference(basis, cCorrected, cFirst)
-      // NaN would pass the tolerance test below and be kept as a step.
-      if (!Number.isFinite(error)) throw new EngineLimitError('a sub-step met a non-finite value', `stages.${stageIndex}`)
-      const resize = Math.min(2, Math.max(0.2, 0.9 * Math.cbrt(tolerance_K / Math.max(error, 1e-300))))
+      const result = stepper.step(c, slope, step, tolerance_K)
+      if (!result) {
+        dt = step / 4
+        continue
+      }
+      const exponent = 1 / (TABLEAU.estimateOrder + 1)
+      const error = Math.max(result.error_K, 1e-300)
+      const resize = Math.min(MAX_GROWTH, Math.max(MIN_SHRINK, SAFETY * (tolerance_K / error) ** exponent))
       if (error > tolerance_K) {
         dt = step * resize
         continue
       }
-      const stepEnd = landing ? end_s : t + step
-      steps.push({ start_s: t, end_s: stepEnd, basis, series: corrector })
-      carried_K = carried_K * Math.exp(-slowestRate(corrector) * step) + error
-      stageError_K = Math.max(stageError_K, carried_K)
-      c = cCorrected
-      t = stepEnd
+      const moved = transientSize(basis, result.c, c)
+      t = landing ? end_s : t + step
+      c = result.c
+      slope = result.slope
+      ends.push({ t, c })
+      errors.push({ step, vector: result.errorVector })
       dt = step * resize
       if (landing) break
+      // Near the steady state the coefficients barely move: the rest is one frozen series, open-ended.
+      if (last && moved <= OPEN_END_K) {
+        const frozen = frozenAt(c)
+        if (transientSize(basis, c, frozen.steady) <= OPEN_END_K) {
+          openEnd = frozen
+          break
+        }
+      }
     }
+    const endSeries = openEnd ?? frozenAt(c)
+    const stageError_K = carryErrors(basis, startSeries, endSeries, errors, carried_K)
+    carried_K = stageError_K.atEnd
+    const firstStep = steps.length
+    steps.push(...stepSeries(basis, ends))
+    if (openEnd) steps.push({ start_s: t, end_s: Infinity, basis, series: openEnd })
     const stageSteps = steps.slice(firstStep)
     const lastStep = stageSteps[stageSteps.length - 1]
-    const truncation = truncationOf(stageSteps[0], earliest)
-    const rates = Array.from(lastStep.series.rates_per_s)
+    const truncation = truncationOf(basis, startSeries, Math.min(earliest, end_s - start_s))
+    const rates = Array.from(endSeries.rates_per_s)
     summaries.push({
       start_s,
       end_s: stage.duration_s === undefined ? null : start_s + stage.duration_s,
@@ -259,10 +265,10 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       biot: outerLaw ? (outerH * L) / kStart : null,
       ...(stage.inner.type === 'symmetry' ? {} : { innerBiot: innerLaw ? (innerH * L) / kStart : null }),
       method: TEMPERATURE_DEPENDENT_METHOD,
-      estimatedError_K: stageError_K + truncation,
+      estimatedError_K: stageError_K.largest + truncation,
       subSteps: stageSteps.length,
     })
-    profile = (x) => valueAt(lastStep, lastStep.end_s, x)
+    profile = (x) => valueAt(lastStep, Number.isFinite(lastStep.end_s) ? lastStep.end_s : lastStep.start_s, x)
     start_s = end_s
   })
   const firstEarliest = (Array.isArray(options.earliest_s) ? options.earliest_s[0] : options.earliest_s) ?? 0.01 * scaled.timeScale_s
@@ -270,47 +276,137 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
 }
 
 /**
- * The k and ρc-frozen series of a stage on one basis (the node arrays sized for it).
- * Every frozen problem on a basis is close to the one before: its eigenvectors
- * start the next eigen solve.
+ * The stage's time-stepping error: the linearised propagation of each step's local
+ * estimate, carried forward on the modes of the problem frozen at the stage's start
+ * (every mode's share fading at its own rate, so an error near the surface, made of
+ * fast modes, fades as fast as it does in the body), plus the error carried in from
+ * earlier stages, fading at the slowest rate. The rates are scaled down when the
+ * stage's slowest rate falls by its end (a body cooling in air loses radiation as it
+ * cools), so the fading is never faster than the physics'. Returns the largest total
+ * over the stage (the largest temperature the carried error makes at a node or face)
+ * and the total at its end, in K.
+ */
+function carryErrors(
+  basis: ModalBasis,
+  startSeries: FrozenSeries,
+  endSeries: FrozenSeries,
+  errors: { step: number; vector: Float64Array }[],
+  carriedIn_K: number,
+): { largest: number; atEnd: number } {
+  const slowestStart = slowestRate(startSeries)
+  const slowdown = Math.min(1, slowestRate(endSeries) / slowestStart)
+  const rates = Array.from(startSeries.rates_per_s, (r) => r * slowdown)
+  const shapes = modeShapes(basis, startSeries)
+  const carried = new Float64Array(basis.count)
+  const field = new Float64Array(shapes.length / basis.count)
+  let inherited = carriedIn_K
+  let largest = carriedIn_K
+  let total = carriedIn_K
+  for (const { step, vector } of errors) {
+    const amplitudes = modalAmplitudes(startSeries, vector)
+    inherited *= Math.exp(-slowestStart * slowdown * step)
+    field.fill(0)
+    for (let j = 0; j < carried.length; j++) {
+      carried[j] = carried[j] * Math.exp(-rates[j] * step) + amplitudes[j]
+      const o = j * field.length
+      for (let i = 0; i < field.length; i++) field[i] += carried[j] * shapes[o + i]
+    }
+    total = inherited
+    for (let i = 0; i < field.length; i++) total = Math.max(total, inherited + Math.abs(field[i]))
+    largest = Math.max(largest, total)
+  }
+  return { largest, atEnd: total }
+}
+
+/**
+ * Rates of a sub-step's interpolant are multiples of this over the time its points
+ * span: z = e^{−μτ} then stays within [e^{−½}, e^{½}] of the points, where a cubic in z
+ * is nearly a cubic in time (a cubic in z over a wide z range bends away from the
+ * near-linear cooling between the points), while the powers of z stay well apart
+ * (the amplitudes cancel to ~1e-13 of the temperatures).
+ */
+const INTERPOLANT_SPAN = 0.5
+
+/**
+ * The stepped coefficients as sub-steps of exponentials: over each step [t_k, t_k+1]
+ * the cubic through four neighbouring step ends (the step's own two and one on each
+ * side where the stage has them), written as a cubic in z = e^{−μ(t − t_k)}, i.e.
+ * steady + Σ_{n=1..3} a_n e^{−nμτ}: the form every point history has, so the floor
+ * and the target search read it like any other series. Interpolating the step ends,
+ * not the stages' slopes: at a stiff integrator's result the fast modes sit near,
+ * not on, their slow manifold, and f(c) there carries that miss times the fast rates.
+ */
+function stepSeries(basis: ModalBasis, ends: { t: number; c: Float64Array }[]): SubStep[] {
+  const n = basis.count
+  const out: SubStep[] = []
+  for (let k = 0; k + 1 < ends.length; k++) {
+    const first = Math.max(0, Math.min(k - 1, ends.length - 4))
+    const points = ends.slice(first, Math.min(ends.length, first + 4))
+    const t0 = ends[k].t
+    const rate = INTERPOLANT_SPAN / (points[points.length - 1].t - points[0].t)
+    const z = points.map((p) => Math.exp(-rate * (p.t - t0)))
+    const degree = points.length - 1
+    const rates = Float64Array.from({ length: degree }, (_, j) => (j + 1) * rate)
+    const steady = new Float64Array(n)
+    const modeVectors = new Float64Array(degree * n)
+    for (let a = 0; a < n; a++) {
+      const powers = polynomialThrough(z, points.map((p) => p.c[a]))
+      steady[a] = powers[0]
+      for (let j = 1; j <= degree; j++) modeVectors[(j - 1) * n + a] = powers[j]
+    }
+    out.push({ start_s: t0, end_s: ends[k + 1].t, basis, series: { rates_per_s: rates, steady, modeVectors } })
+  }
+  return out
+}
+
+/** Power coefficients p_0..p_d of the polynomial through (x_i, y_i): Newton's divided differences, expanded. */
+function polynomialThrough(x: number[], y: number[]): number[] {
+  const d = x.length - 1
+  const diff = [...y]
+  for (let level = 1; level <= d; level++)
+    for (let i = d; i >= level; i--) diff[i] = (diff[i] - diff[i - 1]) / (x[i] - x[i - level])
+  const p = new Array<number>(d + 1).fill(0)
+  // Horner in Newton form: p ← p·(x − x_i) + diff_i from the highest.
+  for (let i = d; i >= 0; i--) {
+    for (let j = d; j >= 1; j--) p[j] = p[j - 1] - x[i] * p[j]
+    p[0] = -x[i] * p[0] + diff[i]
+  }
+  return p
+}
+
+/**
+ * The frozen problem at one field on a stage's basis (k and ρc node by node, each
+ * face at its secant h_eff): the series of a stage's start (its truncation estimate
+ * and slowest rate), end (the rates reported) and open end. Each solve starts from
+ * the last one's eigenvectors.
  */
 function freezer(
   problem: CooldownProblem,
   basis: ModalBasis,
+  properties: NodeProperties,
   outerLaw: SurfaceLaw | null,
   innerLaw: SurfaceLaw | null,
-  bounds: { min: number; max: number },
-): (path: Path, c0: Float64Array) => FrozenSeries {
-  const material = nodeMaterial(problem, basis.nodes)
+  clamp: (T: number) => number,
+): (c: Float64Array) => FrozenSeries {
   const q = basis.nodes.length
   const k = new Float64Array(q)
   const rhoCp = new Float64Array(q)
-  // Maximum principle: the body stays between its coldest and hottest data, so a truncated
-  // series' overshoot (early on, next to a sudden surface change) must not pick coefficients.
-  const clamp = (T: number) => Math.min(bounds.max, Math.max(bounds.min, T))
-  // The clamped path, refilled by every solve.
-  const path = Array.from({ length: 4 }, (): Field => ({ nodes: new Float64Array(q), inner: 0, outer: 0 })) as Path
-  const hOver = (law: SurfaceLaw | null, face: 'inner' | 'outer', [a, g1, g2, b]: Path) => (law ? law.pathEffectiveH(a[face], g1[face], g2[face], b[face]) : 0)
   let warmStart: Float64Array | undefined
-  return (raw, c0) => {
-    raw.forEach((field, p) => {
-      for (let i = 0; i < q; i++) path[p].nodes[i] = clamp(field.nodes[i])
-      path[p].inner = clamp(field.inner)
-      path[p].outer = clamp(field.outer)
-    })
-    material(path, k, rhoCp)
+  return (c) => {
+    const field = fieldOf(basis, c)
+    properties(field.nodes.map(clamp), k, rhoCp)
     const series = frozenSeries(
       basis,
       {
         length_m: problem.domain.length_m,
         k_W_mK: k,
         rhoCp_J_m3K: rhoCp,
-        outerH_W_m2K: hOver(outerLaw, 'outer', path),
+        outerH_W_m2K: outerLaw ? outerLaw.effectiveH(clamp(field.outer)) : 0,
         outerAmbient_C: outerLaw ? outerLaw.ambient_C : 0,
-        innerH_W_m2K: hOver(innerLaw, 'inner', path),
+        innerH_W_m2K: innerLaw ? innerLaw.effectiveH(clamp(field.inner)) : 0,
         innerAmbient_C: innerLaw ? innerLaw.ambient_C : 0,
       },
-      c0,
+      c,
       warmStart,
     )
     warmStart = series.rotation
@@ -321,11 +417,15 @@ function freezer(
 /**
  * Basis size for the earliest reading τ_min (dimensionless): twice as many as a
  * constant-property series would keep (e^{−μ_N τ_min} < 1e-5 with μ_n ≈ (nπ)²), since
- * the frozen field near a suddenly changed surface is itself read from the truncated
- * series, plus the look-ahead modes that carry the truncation estimate.
+ * the coefficients near a suddenly changed surface are read from the truncated
+ * series itself, plus the look-ahead modes that carry the truncation estimate. A
+ * fixed face makes the start profile jump at the surface, so its mode amplitudes
+ * fall only as 1/n (as 1/n² at a convective face) and the early field rings more:
+ * three times as many there (the Kirchhoff closed form's rod and sphere at Fo ≈ 0.15
+ * were 0.20 and 0.26 K off with twice as many, 0.07 and 0.10 K with three times).
  */
-function modesFor(tauMin: number): number {
-  return Math.ceil((2 * Math.sqrt(11.5 / tauMin)) / Math.PI) + 4
+function modesFor(tauMin: number, fixedFace: boolean): number {
+  return Math.ceil(((fixedFace ? 3 : 2) * Math.sqrt(11.5 / tauMin)) / Math.PI) + 4
 }
 
 /** The coldest and hottest temperatures in the data: start, surroundings and fixed faces. */
@@ -341,13 +441,8 @@ function temperatureBounds(problem: CooldownProblem): { min: number; max: number
 }
 
 /** The frozen problem's slowest decay rate: how fast an error left in the field fades at least. */
-function slowestRate(series: FrozenSeries): number {
+function slowestRate(series: StepSeries): number {
   return Math.min(...series.rates_per_s)
-}
-
-/** Largest difference over the nodes and faces between two coefficient vectors' temperatures. */
-function largestDifference(basis: ModalBasis, a: Float64Array, b: Float64Array): number {
-  return transientSize(basis, a, b)
 }
 
 /** Largest |T − T_ss| over the nodes and faces for coefficients c against steady coefficients. */
@@ -369,9 +464,8 @@ function transientSize(basis: ModalBasis, c: Float64Array, steady: Float64Array)
   return Math.max(size, Math.abs(s0), Math.abs(s1))
 }
 
-/** The last mode's largest contribution at the earliest reading: the series' truncation estimate. */
-function truncationOf(step: SubStep, earliest_s: number): number {
-  const { basis, series } = step
+/** The last mode's largest contribution at the earliest reading, on the series frozen at the stage's start: the truncation estimate. */
+function truncationOf(basis: ModalBasis, series: FrozenSeries, earliest_s: number): number {
   const n = basis.count
   const q = basis.nodes.length
   const j = n - 1
@@ -381,7 +475,7 @@ function truncationOf(step: SubStep, earliest_s: number): number {
     for (let a = 0; a < n; a++) s += series.modeVectors[j * n + a] * basis.phi[a * q + i]
     peak = Math.max(peak, Math.abs(s))
   }
-  return peak * Math.exp(-series.rates_per_s[j] * Math.min(earliest_s, step.end_s - step.start_s))
+  return peak * Math.exp(-series.rates_per_s[j] * earliest_s)
 }
 
 function kAt(problem: CooldownProblem, T_C: number): number {
@@ -464,7 +558,7 @@ class SubStepSolution implements CooldownSolution {
       const n = step.basis.count
       const steady = (x: number) => valueAtCoefficients(step.basis, step.series.steady, x)
       const modeVector = (j: number) => step.series.modeVectors.subarray(j * n, (j + 1) * n)
-      const shapes = Array.from({ length: n }, (_, j) => (x: number) => valueAtCoefficients(step.basis, modeVector(j), x, false))
+      const shapes = Array.from(step.series.rates_per_s, (_, j) => (x: number) => valueAtCoefficients(step.basis, modeVector(j), x, false))
       const rates = Array.from(step.series.rates_per_s)
       const weights = meanWeights(step.basis)
       return {

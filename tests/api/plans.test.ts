@@ -10,6 +10,7 @@ import { bisect } from '../support/bisect'
 import { auditFor } from '../support/audit'
 import { savePlan, pinSpec } from '../support/plans'
 import { booking, createLine } from '../support/schedule'
+import { TEMPERATURE_DEPENDENT_METHOD } from '../../server/thermal/temperatureDependent'
 
 let metallurgist: Client
 let lib: LibraryFixture
@@ -396,7 +397,7 @@ describe('plans: temperature tables and cooling curves', () => {
     expect(result.quenchToHandling_s).toBeCloseTo(runCase(barCase({ hCurve: curve }, true)).targetTime_s as number, 6)
     expect(result.band.low.quenchToHandling_s).toBeCloseTo(runCase(barCase({ hCurve: scaled(0.7) }, true)).targetTime_s as number, 6)
     expect(result.physics.constantPropertyToHandling_s).toBeCloseTo(runCase(barCase({ h: 15 }, false)).targetTime_s as number, 6)
-    expect(result.physics).toMatchObject({ temperatureDependent: true, method: 'eigenmode series, frozen-coefficient sub-steps' })
+    expect(result.physics).toMatchObject({ temperatureDependent: true, method: TEMPERATURE_DEPENDENT_METHOD })
     expect(result.summary.slowEndToHandling_s).toBe(result.band.low.quenchToHandling_s)
     expect(result.band.high.quenchToHandling_s).toBeLessThan(result.quenchToHandling_s)
     expect(pointValue(result.summary.handlingPointSeries, result.quenchToHandling_s)).toBeCloseTo(300, 6)

@@ -86,7 +86,7 @@ describe('cooldown planner in the browser', () => {
     const estimate = page.getByTestId('constant-property-estimate')
     await estimate.waitFor()
     expect(Number(await estimate.locator('strong').getAttribute('data-seconds'))).toBeCloseTo(stored.result.physics.constantPropertyToHandling_s, 6)
-    expect(await page.getByTestId('plan-method').textContent()).toMatch(/temperature tables and cooling curves; method: eigenmode series, frozen-coefficient sub-steps, estimated error [0-9.]+ K/)
+    expect(await page.getByTestId('plan-method').textContent()).toMatch(/temperature tables and cooling curves; method: eigenmode series with stepped amplitudes \(modal Galerkin, L-stable SDIRK sub-steps\), estimated error [0-9.]+ K/)
     await page.getByTestId('plan-curve-chart').locator('canvas').first().waitFor()
     await page.screenshot({ path: `${SCREENSHOT_DIR}/planner-drive-pin-two-times.png`, fullPage: true })
     await page.getByLabel('Temperature unit').selectOption('F')

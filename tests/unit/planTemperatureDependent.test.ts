@@ -7,6 +7,7 @@ import { solveCrankNicolsonNonlinear } from '../../server/thermal/crankNicolsonN
 import { runCase } from '../../server/thermal/runCase'
 import { STEFAN_BOLTZMANN } from '../../server/thermal/surfaceCurve'
 import { pointValue, pointValues, type PointStage } from '../../shared/pointSeries'
+import { TEMPERATURE_DEPENDENT_METHOD } from '../../server/thermal/temperatureDependent'
 import { resolvedPlanSchema, type ResolvedPlan } from '../../shared/schemas/plan'
 import { DEFAULT_SHOP_SETTINGS, slotDurations } from '../../shared/schedule'
 import type { PlanResult } from '../../shared/types/planResult'
@@ -94,7 +95,7 @@ describe('a bar with a steel table and an oil h(T) curve', () => {
     expect(quenchCase(plan).material).toEqual({ table: steelTable.map((r) => ({ ...r, rho: 7850 })) })
     expect(quenchCase(plan, 'low').stages[0]!.surface).toEqual({ hCurve: scaled(0.8), ambient_C: 60 })
     expect(result.summary.slowEndToHandling_s).toBe(result.band.low.quenchToHandling_s)
-    expect(result.physics).toMatchObject({ temperatureDependent: true, method: 'eigenmode series, frozen-coefficient sub-steps', propertyTableSource: 'test table', curveSources: ['test curve'] })
+    expect(result.physics).toMatchObject({ temperatureDependent: true, method: TEMPERATURE_DEPENDENT_METHOD, propertyTableSource: 'test table', curveSources: ['test curve'] })
     expect(result.physics.estimatedError_K).toBeGreaterThan(0)
     // The oil curve's boiling peak cools faster than the mean 1000 W/m²K with the cold-steel values.
     expect(result.quenchToHandling_s).not.toBeCloseTo(result.physics.constantPropertyToHandling_s as number, 0)

@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest'
 import { caseToProblem, parseCase } from '../../../server/thermal/caseSchema'
 import { CaseError } from '../../../server/thermal/errors'
 import { runCase } from '../../../server/thermal/runCase'
+import { TEMPERATURE_DEPENDENT_METHOD } from '../../../server/thermal/temperatureDependent'
 
 const example = JSON.parse(readFileSync('scripts/examples/oil-quench-steel-table.json', 'utf8'))
 const plain = JSON.parse(readFileSync('scripts/examples/oil-then-air-bar.json', 'utf8'))
@@ -51,7 +52,7 @@ describe('case tables', () => {
 
   it('the result says which method ran per stage and its estimated error, which bounds the difference from Crank–Nicolson; a constant case says the series', () => {
     const result = runCase(example, { check: 'finite-difference' })
-    expect(result.stages.map((s) => s.method)).toEqual(['eigenmode series, frozen-coefficient sub-steps', 'eigenmode series, frozen-coefficient sub-steps'])
+    expect(result.stages.map((s) => s.method)).toEqual([TEMPERATURE_DEPENDENT_METHOD, TEMPERATURE_DEPENDENT_METHOD])
     for (const s of result.stages) expect(s.subStepSeries?.length).toBeGreaterThan(1)
     // The non-linear Crank–Nicolson solver at its defaults (400 cells, converged to ~0.01 K in crankNicolsonNonlinear.test.ts).
     expect(result.check?.maxDifference_K).toBeLessThan(0.3)
