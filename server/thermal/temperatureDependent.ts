@@ -228,7 +228,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
         dt = step * resize
         continue
       }
-      const moved = transientSize(basis, result.c, c)
+      const moved = last ? transientSize(basis, result.c, c) : Infinity
       t = landing ? end_s : t + step
       c = result.c
       slope = result.slope
@@ -347,13 +347,17 @@ function stepSeries(basis: ModalBasis, ends: { t: number; c: Float64Array }[]): 
     const z = points.map((p) => Math.exp(-rate * (p.t - t0)))
     const degree = points.length - 1
     const rates = Float64Array.from({ length: degree }, (_, j) => (j + 1) * rate)
+    // The polynomial is linear in the values: the powers of each point's cardinal polynomial, once per step.
+    const cardinals = points.map((_, k) => polynomialThrough(z, points.map((_, i) => (i === k ? 1 : 0))))
     const steady = new Float64Array(n)
     const modeVectors = new Float64Array(degree * n)
-    for (let a = 0; a < n; a++) {
-      const powers = polynomialThrough(z, points.map((p) => p.c[a]))
-      steady[a] = powers[0]
-      for (let j = 1; j <= degree; j++) modeVectors[(j - 1) * n + a] = powers[j]
-    }
+    points.forEach((point, k) => {
+      const powers = cardinals[k]
+      for (let a = 0; a < n; a++) {
+        steady[a] += powers[0] * point.c[a]
+        for (let j = 1; j <= degree; j++) modeVectors[(j - 1) * n + a] += powers[j] * point.c[a]
+      }
+    })
     out.push({ start_s: t0, end_s: ends[k + 1].t, basis, series: { rates_per_s: rates, steady, modeVectors } })
   }
   return out
