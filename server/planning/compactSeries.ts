@@ -1,8 +1,8 @@
 /**
- * A temperature-dependent quench comes out of the engine as hundreds of sub-step
- * series (one PointStage of ~17 terms each): too much to store with every plan
- * revision and to send to the floor tablet. This rewrites such a history as a few
- * one-term segments
+ * A temperature-dependent quench comes out of the engine as a hundred or more
+ * sub-step series (one PointStage of three terms each, the open end's of a dozen or
+ * more): too much to store with every plan revision and to send to the floor
+ * tablet. This rewrites such a history as a few one-term segments
  *
  *   T(t) = a + (T_i − a)·e^{−r (t − t_i)}   on [t_i, t_j],
  *

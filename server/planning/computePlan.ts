@@ -6,7 +6,7 @@
  * Plates, bars and spheres go through runCase (eigenfunction series, any number of
  * stages, graded materials). When the revision's library values carry a property
  * table or cooling-power curves (quenchPhysics.ts), the quench runs with them (the
- * engine's frozen-coefficient sub-step series): the headline with each stage's chosen
+ * engine's stepped-amplitude sub-step series): the headline with each stage's chosen
  * curve, the band with the low and high curves, and beside them the constant-property
  * estimate of the single values, which is cheap. The heat-up stays constant-property
  * (one furnace coefficient, the room-temperature values), so a plan costs three

@@ -1,5 +1,8 @@
 /**
- * Modes of one frozen-coefficient sub-step (temperatureDependent.ts) by Rayleigh–Ritz.
+ * The modal basis of a temperature-dependent stage (temperatureDependent.ts), its
+ * quadrature, and the Rayleigh–Ritz modes of the problem frozen at one field (the
+ * stage's start, end and open end; galerkinStage.ts steps the unfrozen problem on
+ * the same basis).
  *
  * With k(x) and ρc(x) frozen from a temperature field and each surface frozen as
  * −k ∂T/∂r = h_eff (T_s − T∞), the conduction equation is linear and
@@ -19,7 +22,7 @@
  * Biot number (eigenRoots.ts), so for uniform properties the Ritz modes are the exact
  * ones and otherwise the matrices are nearly diagonal. Surface conditions are
  * natural in the weak form, so one basis (with a face function, basisFunctions)
- * serves every h_eff the sub-steps freeze.
+ * serves every h the surface passes through.
  */
 import { besselJ0, besselJ1 } from './bessel'
 import { rodRoot, slabRoot, sphereRoot } from './eigenRoots'
