@@ -28,7 +28,7 @@
  * L-stable method damps do not count as error (Hairer & Wanner, Solving ODEs II,
  * §IV.8), measured as the largest temperature difference over the nodes and faces.
  */
-import { nodeTemperatures, pairSums, type ModalBasis } from './ritzModes'
+import { pairSums, type ModalBasis } from './ritzModes'
 import type { SdirkTableau } from './sdirk'
 import { backSubstitute, cholesky, forwardSubstitute } from './symmetricEigen'
 
@@ -93,6 +93,9 @@ export class GalerkinStepper {
   private readonly stiffnessPairs: Float64Array
   private readonly mass: Float64Array
   private readonly newton: Float64Array
+  /** φ_j and φ_j′ at node i, node-major (index i·N + j). */
+  private readonly phiByNode: Float64Array
+  private readonly dphiByNode: Float64Array
   private readonly jacobian: Float64Array
   /** Coefficients of the last assembly, and whether Newton asked for a fresh one. */
   private readonly assembledAt: Float64Array
@@ -121,6 +124,13 @@ export class GalerkinStepper {
     this.stiffnessPairs = new Float64Array((n * (n + 1)) / 2)
     this.mass = new Float64Array(n * n)
     this.newton = new Float64Array(n * n)
+    this.phiByNode = new Float64Array(n * q)
+    this.dphiByNode = new Float64Array(n * q)
+    for (let j = 0; j < n; j++)
+      for (let i = 0; i < q; i++) {
+        this.phiByNode[i * n + j] = basis.phi[j * q + i]
+        this.dphiByNode[i * n + j] = basis.dphi[j * q + i]
+      }
     this.jacobian = new Float64Array(n * n)
     this.assembledAt = new Float64Array(n)
     this.weighted = new Float64Array(q)
@@ -155,7 +165,7 @@ export class GalerkinStepper {
         Z[a] = z
         Y[a] = z + gh * predictor[a]
       }
-      nodeTemperatures(this.stage.basis, Z, this.start)
+      this.nodeValues(Z, this.start)
       // Newton stops when the error left after the last update, estimated from the updates' contraction
       // (θ/(1 − θ) times the last update, Hairer & Wanner §IV.8), is a small share of the tolerance.
       let converged = false
@@ -201,27 +211,40 @@ export class GalerkinStepper {
     return { c: Y, slope: stages[stageCount - 1], error_K: this.largestTemperature(filtered), errorVector: filtered }
   }
 
+  /** Node temperatures of c into out. */
+  private nodeValues(c: Float64Array, out: Float64Array): void {
+    const { basis } = this.stage
+    const { n, q, phiByNode } = this
+    for (let i = 0, o = 0; i < q; i++, o += n) {
+      let value = basis.lift0 + basis.liftSlope * basis.nodes[i]
+      for (let j = 0; j < n; j++) value += c[j] * phiByNode[o + j]
+      out[i] = value
+    }
+  }
+
   /** Node temperatures and slopes of c, the node properties, the face temperatures. */
   private fieldOf(c: Float64Array): void {
     const { basis } = this.stage
-    const { n, q, T, slope, clamped } = this
-    for (let i = 0; i < q; i++) {
-      T[i] = basis.lift0 + basis.liftSlope * basis.nodes[i]
-      slope[i] = basis.liftSlope
+    const { n, q, T, slope, clamped, phiByNode, dphiByNode } = this
+    // Node by node over node-major copies of φ and φ′: two running sums per node, ~1.5× the
+    // speed of adding one function at a time into the node arrays (measured in isolation).
+    for (let i = 0, o = 0; i < q; i++, o += n) {
+      let value = basis.lift0 + basis.liftSlope * basis.nodes[i]
+      let gradient = basis.liftSlope
+      for (let j = 0; j < n; j++) {
+        value += c[j] * phiByNode[o + j]
+        gradient += c[j] * dphiByNode[o + j]
+      }
+      T[i] = value
+      slope[i] = gradient
+      clamped[i] = this.stage.clamp(value)
     }
     let outer = basis.lift0 + basis.liftSlope
     let inner = basis.lift0
     for (let j = 0; j < n; j++) {
-      const cj = c[j]
-      const o = j * q
-      for (let i = 0; i < q; i++) {
-        T[i] += cj * basis.phi[o + i]
-        slope[i] += cj * basis.dphi[o + i]
-      }
-      outer += cj * basis.end1[j]
-      inner += cj * basis.end0[j]
+      outer += c[j] * basis.end1[j]
+      inner += c[j] * basis.end0[j]
     }
-    for (let i = 0; i < q; i++) clamped[i] = this.stage.clamp(T[i])
     this.stage.properties(clamped, this.k, this.rhoCp)
     this.outerT = this.stage.clamp(outer)
     this.innerT = this.stage.clamp(inner)
