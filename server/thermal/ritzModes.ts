@@ -309,12 +309,7 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
   // Amplitude of mode j: a_j = v_jᵀ M (c0 − c_ss) = u_jᵀ Rᵀ (c0 − c_ss).
   const excess = new Float64Array(n)
   for (let a = 0; a < n; a++) excess[a] = c0[a] - steady[a]
-  const rExcess = new Float64Array(n)
-  for (let a = 0; a < n; a++) {
-    let sum = 0
-    for (let b = a; b < n; b++) sum += r[b * n + a] * excess[b]
-    rExcess[a] = sum
-  }
+  const rExcess = lowerTransposeTimes(r, excess)
   const rates = new Float64Array(n)
   const modeVectors = new Float64Array(n * n)
   for (let j = 0; j < n; j++) {
@@ -330,16 +325,22 @@ export function frozenSeries(basis: ModalBasis, frozen: FrozenCoefficients, c0: 
   return { rates_per_s: rates, steady, modeVectors, rotation: u, massFactor: r }
 }
 
-/** Amplitudes a_n = v_nᵀ M x = u_nᵀ Rᵀ x of a coefficient vector x on a frozen problem's M-orthonormal modes v_n. */
-export function modalAmplitudes(series: FrozenSeries, x: Float64Array): Float64Array {
+/** Rᵀ x for a lower-triangular R (row-major n×n). */
+function lowerTransposeTimes(r: Float64Array, x: Float64Array): Float64Array {
   const n = x.length
-  const r = series.massFactor
-  const rx = new Float64Array(n)
+  const out = new Float64Array(n)
   for (let a = 0; a < n; a++) {
     let sum = 0
     for (let b = a; b < n; b++) sum += r[b * n + a] * x[b]
-    rx[a] = sum
+    out[a] = sum
   }
+  return out
+}
+
+/** Amplitudes a_n = v_nᵀ M x = u_nᵀ Rᵀ x of a coefficient vector x on a frozen problem's M-orthonormal modes v_n. */
+export function modalAmplitudes(series: FrozenSeries, x: Float64Array): Float64Array {
+  const n = x.length
+  const rx = lowerTransposeTimes(series.massFactor, x)
   const out = new Float64Array(n)
   for (let j = 0; j < n; j++) {
     let sum = 0
