@@ -39,7 +39,7 @@ describe('constant-property limit', () => {
       const steps = solveTemperatureDependent(problem, { earliest_s: 5, accuracy_K })
       let worst = 0
       for (const t of [5, 20, 60, 100, 500, 2000]) for (const x of [0, 0.5, 1]) worst = Math.max(worst, Math.abs(series.evaluate(t, x) - steps.evaluate(t, x)))
-      return { worst, estimate: Math.max(...steps.summaries.map((s) => s.estimatedError_K)) }
+      return { worst, estimate: Math.max(...steps.summaries.map((s) => s.estimatedError_K ?? 0)) }
     }
     const standard = worstAt(0.2)
     expect(standard.worst).toBeLessThan(0.05)
