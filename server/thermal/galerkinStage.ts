@@ -144,10 +144,10 @@ export class GalerkinStepper {
 
   /**
    * One step of `step_s` from coefficients c, the previous step's last slope as the
-   * predictor (zeros at a stage's start). Null when Newton does not converge (the
-   * caller shrinks the step).
+   * predictor (zeros at a stage's start). 'diverged' when Newton does not converge
+   * (the caller shrinks the step), 'non-finite' when a value overflowed or was NaN.
    */
-  step(c: Float64Array, previousSlope: Float64Array, step_s: number, tolerance_K: number): StepResult | null {
+  step(c: Float64Array, previousSlope: Float64Array, step_s: number, tolerance_K: number): StepResult | 'diverged' | 'non-finite' {
     const { n } = this
     const { tableau } = this.stage
     const stageCount = tableau.weights.length
@@ -180,7 +180,7 @@ export class GalerkinStepper {
           Y[a] -= residual[a]
           moved += Math.abs(residual[a]) * this.reach[a]
         }
-        if (!Number.isFinite(moved)) return this.failed()
+        if (!Number.isFinite(moved)) return 'non-finite'
         // A first update is judged by the last contraction measured (Hairer & Wanner's η), else taken as is.
         const contraction = iteration === 0 ? Math.max(this.lastContraction, CONTRACTION_FLOOR) ** 0.8 : moved / previousMove
         if (iteration > 0 && contraction >= 1) return this.failed()
@@ -208,7 +208,9 @@ export class GalerkinStepper {
     }
     forwardSubstitute(factor, n, filtered)
     backSubstitute(factor, n, filtered)
-    return { c: Y, slope: stages[stageCount - 1], error_K: this.largestTemperature(filtered), errorVector: filtered }
+    const error_K = this.largestTemperature(filtered)
+    if (!Number.isFinite(error_K)) return 'non-finite'
+    return { c: Y, slope: stages[stageCount - 1], error_K, errorVector: filtered }
   }
 
   /** Node temperatures of c into out. */
@@ -284,9 +286,9 @@ export class GalerkinStepper {
   }
 
   /** A step Newton could not finish: the caller shrinks it, and the next try assembles afresh. */
-  private failed(): null {
+  private failed(): 'diverged' {
     this.stale = true
-    return null
+    return 'diverged'
   }
 
   /** Largest change of a node or face temperature between the last assembly and c. */

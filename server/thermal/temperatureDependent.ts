@@ -79,6 +79,8 @@ const DEFAULT_ACCURACY_K = 0.2
 /** Within this of the steady state the last sub-step is left open-ended. */
 const OPEN_END_K = 0.5
 const MAX_SUB_STEPS = 5000
+/** A step shorter than this share of the body's conduction time means Newton cannot follow the stage at all. */
+const SMALLEST_STEP = 1e-12
 /** The first step of a stage, as a share of the fastest mode's time constant. */
 const FIRST_STEP_SHARE = 0.1
 /** Step growth and shrink bounds, and the safety factor on the estimate's resize. */
@@ -205,7 +207,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     let t = start_s
     // The first step resolves the fastest mode (its exact decay, not the L-stable damping): right after a
     // sudden surface change the fast modes carry the field near the surface, and a damped start rings at the centre.
-    let dt = Math.min(1e-3 * timeScaleAt(problem, profile(0.5)), FIRST_STEP_SHARE / Math.max(...startSeries.rates_per_s))
+    const timeScale = timeScaleAt(problem, profile(0.5))
+    let dt = Math.min(1e-3 * timeScale, FIRST_STEP_SHARE / Math.max(...startSeries.rates_per_s))
     let openEnd: FrozenSeries | null = null
     // Rejected steps add no sub-step, so the attempts are capped too: twice the sub-steps allows a rejection per step.
     for (let attempts = 0; ; attempts++) {
@@ -217,8 +220,10 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       const landing = t + dt >= end_s * (1 - 1e-12)
       const step = landing ? end_s - t : end_s - t < 1.5 * dt ? (end_s - t) / 2 : dt
       const result = stepper.step(c, slope, step, tolerance_K)
-      if (!result) {
+      if (result === 'non-finite') throw new EngineLimitError('a sub-step met a non-finite value', `stages.${stageIndex}`)
+      if (result === 'diverged') {
         dt = step / 4
+        if (dt < SMALLEST_STEP * timeScale) throw new EngineLimitError('the sub-steps shrank without end; soften the stage’s coefficients', `stages.${stageIndex}`)
         continue
       }
       const exponent = 1 / (TABLEAU.estimateOrder + 1)
