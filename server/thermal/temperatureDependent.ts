@@ -26,11 +26,11 @@
  * (carryErrors), plus the series' truncation at the earliest reading.
  *
  * Cost (issue 12, the benchmark's oil-quenched steel bar, 14 basis functions on 64
- * quadrature nodes): ~125 sub-steps of three stages, each stage two or three Newton
+ * quadrature nodes): ~130 sub-steps of three stages, each stage two or three Newton
  * iterations of one residual (the field and its properties at the nodes, projected
  * back: four passes over functions × nodes). The earlier method froze the
  * coefficients over each sub-step and carried the frozen problem's own series (an
- * eigen solve per sub-step): second order in the step, ~390 sub-steps, 4–5 times
+ * eigen solve per sub-step): second order in the step, ~390 sub-steps, six times
  * slower for the same accuracy.
  *
  * solveCooldown sends only problems whose tables are not flat here; flat tables take
@@ -67,7 +67,7 @@ import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOption
 /**
  * Accepted local error per sub-step at the default accuracy (the embedded estimate,
  * galerkinStage.ts), tuned against converged Crank–Nicolson runs (300 cells): at 0.05
- * the nine reference cases of temperatureDependent.test.ts are 0.02–0.12 K off (the
+ * the nine reference cases of temperatureDependent.test.ts are 0.02–0.14 K off (the
  * water-quenched slab, its centre crossing the cp peak, the worst), at 0.1 that slab
  * and sphere are 0.24 and 0.22 K off.
  */
