@@ -28,7 +28,7 @@
  * L-stable method damps do not count as error (Hairer & Wanner, Solving ODEs II,
  * §IV.8), measured as the largest temperature difference over the nodes and faces.
  */
-import { pairSums, type ModalBasis } from './ritzModes'
+import { largestOver, pairSums, type ModalBasis } from './ritzModes'
 import type { SdirkTableau } from './sdirk'
 import { backSubstitute, cholesky, forwardSubstitute } from './symmetricEigen'
 
@@ -208,7 +208,7 @@ export class GalerkinStepper {
     }
     forwardSubstitute(factor, n, filtered)
     backSubstitute(factor, n, filtered)
-    const error_K = this.largestTemperature(filtered)
+    const error_K = largestOver(this.stage.basis, filtered)
     if (!Number.isFinite(error_K)) return 'non-finite'
     return { c: Y, slope: stages[stageCount - 1], error_K, errorVector: filtered }
   }
@@ -322,24 +322,5 @@ export class GalerkinStepper {
     }
     this.assembledAt.set(c)
     this.stale = false
-  }
-
-  /** Largest |Σ_j v_j φ_j| over the nodes and faces. */
-  private largestTemperature(v: Float64Array): number {
-    const { basis } = this.stage
-    const { n, q } = this
-    let peak = 0
-    for (let i = 0; i < q; i++) {
-      let s = 0
-      for (let j = 0; j < n; j++) s += v[j] * basis.phi[j * q + i]
-      peak = Math.max(peak, Math.abs(s))
-    }
-    let s0 = 0
-    let s1 = 0
-    for (let j = 0; j < n; j++) {
-      s0 += v[j] * basis.end0[j]
-      s1 += v[j] * basis.end1[j]
-    }
-    return Math.max(peak, Math.abs(s0), Math.abs(s1))
   }
 }

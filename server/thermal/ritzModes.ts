@@ -192,6 +192,25 @@ export function nodeTemperatures(basis: ModalBasis, c: Float64Array, out: Float6
   return out
 }
 
+/** Largest |Σ_j v_j φ_j| over the nodes and both faces: how far a coefficient change moves any temperature. */
+export function largestOver(basis: ModalBasis, v: Float64Array): number {
+  const n = basis.count
+  const q = basis.nodes.length
+  let peak = 0
+  for (let i = 0; i < q; i++) {
+    let s = 0
+    for (let j = 0; j < n; j++) s += v[j] * basis.phi[j * q + i]
+    peak = Math.max(peak, Math.abs(s))
+  }
+  let s0 = 0
+  let s1 = 0
+  for (let j = 0; j < n; j++) {
+    s0 += v[j] * basis.end0[j]
+    s1 += v[j] * basis.end1[j]
+  }
+  return Math.max(peak, Math.abs(s0), Math.abs(s1))
+}
+
 /** T at x = 0 or x = 1 of T = ℓ + Σ c_j φ_j. */
 export function endTemperature(basis: ModalBasis, c: Float64Array, end: 0 | 1): number {
   const values = end === 0 ? basis.end0 : basis.end1

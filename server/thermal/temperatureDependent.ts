@@ -49,6 +49,7 @@ import {
   basisValues,
   endTemperature,
   frozenSeries,
+  largestOver,
   modalAmplitudes,
   modalBasis,
   modeShapes,
@@ -456,21 +457,7 @@ function slowestRate(series: StepSeries): number {
 
 /** Largest |T − T_ss| over the nodes and faces for coefficients c against steady coefficients. */
 function transientSize(basis: ModalBasis, c: Float64Array, steady: Float64Array): number {
-  const d = Float64Array.from(c, (v, j) => v - steady[j])
-  let size = 0
-  const q = basis.nodes.length
-  for (let i = 0; i < q; i++) {
-    let s = 0
-    for (let j = 0; j < basis.count; j++) s += d[j] * basis.phi[j * q + i]
-    size = Math.max(size, Math.abs(s))
-  }
-  let s0 = 0
-  let s1 = 0
-  for (let j = 0; j < basis.count; j++) {
-    s0 += d[j] * basis.end0[j]
-    s1 += d[j] * basis.end1[j]
-  }
-  return Math.max(size, Math.abs(s0), Math.abs(s1))
+  return largestOver(basis, Float64Array.from(c, (v, j) => v - steady[j]))
 }
 
 /** The last mode's largest contribution at the earliest reading, on the series frozen at the stage's start: the truncation estimate. */
