@@ -75,6 +75,8 @@ import type { Boundary, CooldownProblem, CooldownSolution, PointRef, SolveOption
 const STEP_TOLERANCE_K = 0.05
 /** The stepping method: three implicit stages, third order, L-stable. */
 const TABLEAU = ALEXANDER_3
+/** The step scales as the estimate's order plus one: (tolerance / error)^(1/(p̂ + 1)). */
+const RESIZE_EXPONENT = 1 / (TABLEAU.estimateOrder + 1)
 /** The default accuracy the step tolerance above is tuned for (0.2 K against a converged reference). */
 const DEFAULT_ACCURACY_K = 0.2
 /** Within this of the steady state the last sub-step is left open-ended. */
@@ -227,9 +229,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
         if (dt < SMALLEST_STEP * timeScale) throw new EngineLimitError('the sub-steps shrank without end; soften the stage’s coefficients', `stages.${stageIndex}`)
         continue
       }
-      const exponent = 1 / (TABLEAU.estimateOrder + 1)
       const error = Math.max(result.error_K, 1e-300)
-      const resize = Math.min(MAX_GROWTH, Math.max(MIN_SHRINK, SAFETY * (tolerance_K / error) ** exponent))
+      const resize = Math.min(MAX_GROWTH, Math.max(MIN_SHRINK, SAFETY * (tolerance_K / error) ** RESIZE_EXPONENT))
       if (error > tolerance_K) {
         dt = step * resize
         continue
@@ -252,8 +253,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       }
     }
     const endSeries = openEnd ?? frozenAt(c)
-    const stageError_K = carryErrors(basis, startSeries, endSeries, errors, carried_K)
-    carried_K = stageError_K.atEnd
+    const stageError = carryErrors(basis, startSeries, endSeries, errors, carried_K)
+    carried_K = stageError.atEnd
     const firstStep = steps.length
     steps.push(...stepSeries(basis, ends))
     if (openEnd) steps.push({ start_s: t, end_s: Infinity, basis, series: openEnd })
@@ -271,7 +272,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       biot: outerLaw ? (outerH * L) / kStart : null,
       ...(stage.inner.type === 'symmetry' ? {} : { innerBiot: innerLaw ? (innerH * L) / kStart : null }),
       method: TEMPERATURE_DEPENDENT_METHOD,
-      estimatedError_K: stageError_K.largest + truncation,
+      estimatedError_K: stageError.largest + truncation,
       subSteps: stageSteps.length,
     })
     profile = (x) => valueAt(lastStep, Number.isFinite(lastStep.end_s) ? lastStep.end_s : lastStep.start_s, x)
