@@ -41,7 +41,7 @@
 import { pointValue, type PointStage } from '../../shared/pointSeries'
 import { EngineLimitError } from './errors'
 import { profileAt } from './solveCooldown'
-import { GalerkinStepper, type NodeProperties } from './galerkinStage'
+import { GalerkinStepper, type NodeProperties, type StepResult } from './galerkinStage'
 import { ALEXANDER_3 } from './sdirk'
 import { interpolate, materialCurves } from './propertyTable'
 import { propertiesAt, scaleDomain } from './properties'
@@ -118,13 +118,14 @@ function nodeProperties(problem: CooldownProblem, nodes: Float64Array): NodeProp
     const last = rows.length - 1
     // Each node's row interval, kept from the last call: a node moves a little per call, so the search is a step or two.
     const interval = new Int32Array(nodes.length)
-    return (T, k, rhoCp) => {
+    return (T, k, rhoCp, rhoCpSlope) => {
       for (let i = 0; i < T.length; i++) {
         const t = T[i]
         if (t <= rows[0] || t >= rows[last]) {
           const end = t <= rows[0] ? 0 : last
           k[i] = ks[end]
           rhoCp[i] = cs[end]
+          if (rhoCpSlope) rhoCpSlope[i] = 0
           continue
         }
         let j = interval[i]
@@ -134,15 +135,17 @@ function nodeProperties(problem: CooldownProblem, nodes: Float64Array): NodeProp
         const f = (t - rows[j]) / (rows[j + 1] - rows[j])
         k[i] = ks[j] + f * (ks[j + 1] - ks[j])
         rhoCp[i] = cs[j] + f * (cs[j + 1] - cs[j])
+        if (rhoCpSlope) rhoCpSlope[i] = (cs[j + 1] - cs[j]) / (rows[j + 1] - rows[j])
       }
     }
   }
   const domain = scaleDomain(problem.domain)
   const k0 = Float64Array.from(nodes, (x) => propertiesAt(domain.pieces, x).k * domain.kRef_W_mK)
   const c0 = Float64Array.from(nodes, (x) => propertiesAt(domain.pieces, x).c * domain.rhoCpRef_J_m3K)
-  return (_T, k, rhoCp) => {
+  return (_T, k, rhoCp, rhoCpSlope) => {
     k.set(k0)
     rhoCp.set(c0)
+    rhoCpSlope?.fill(0)
   }
 }
 
@@ -206,7 +209,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     const startSeries = frozenAt(c)
     const ends: { t: number; c: Float64Array }[] = [{ t: start_s, c }]
     const errors: { step: number; vector: Float64Array }[] = []
-    let slope: Float64Array = new Float64Array(basis.count)
+    let previous: StepResult | null = null
     let t = start_s
     // The first step resolves the fastest mode (its exact decay, not the L-stable damping): right after a
     // sudden surface change the fast modes carry the field near the surface, and a damped start rings at the centre.
@@ -222,7 +225,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       // rejected last step must shrink, or the same step would be tried forever.
       const landing = t + dt >= end_s * (1 - 1e-12)
       const step = landing ? end_s - t : end_s - t < 1.5 * dt ? (end_s - t) / 2 : dt
-      const result = stepper.step(c, slope, step, tolerance_K)
+      const result = stepper.step(c, previous, step, tolerance_K)
       if (result === 'non-finite') throw new EngineLimitError('a sub-step met a non-finite value', `stages.${stageIndex}`)
       if (result === 'diverged') {
         dt = step / 4
@@ -238,7 +241,7 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
       const moved = last ? transientSize(basis, result.c, c) : Infinity
       t = landing ? end_s : t + step
       c = result.c
-      slope = result.slope
+      previous = result
       ends.push({ t, c })
       errors.push({ step, vector: result.errorVector })
       dt = step * resize
