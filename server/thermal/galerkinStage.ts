@@ -261,15 +261,9 @@ export class GalerkinStepper {
       slope[i] = gradient
       clamped[i] = clamp(value)
     }
-    let outer = basis.lift0 + basis.liftSlope
-    let inner = basis.lift0
-    for (let j = 0; j < n; j++) {
-      outer += c[j] * basis.end1[j]
-      inner += c[j] * basis.end0[j]
-    }
     this.stage.properties(clamped, this.k, this.rhoCp, rhoCpSlope)
-    this.outerT = this.stage.clamp(outer)
-    this.innerT = this.stage.clamp(inner)
+    this.outerT = clamp(endTemperature(basis, c, 1))
+    this.innerT = clamp(endTemperature(basis, c, 0))
   }
 
   /** R = M(Y)(Y − Z) − γΔt f(Y), with Z's node temperatures in this.start (set once per stage). */
