@@ -191,7 +191,8 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     const outerH = outerLaw ? outerLaw.effectiveH(profile(1)) : 0
     const innerH = innerLaw ? innerLaw.effectiveH(profile(0)) : 0
     const earliest = (Array.isArray(options.earliest_s) ? options.earliest_s[stageIndex] : options.earliest_s) ?? 0.01 * scaled.timeScale_s
-    const tauMin = Math.max(earliest, 1e-9 * scaled.timeScale_s) / timeScaleAt(problem, profile(0.5))
+    const timeScale = timeScaleAt(problem, profile(0.5))
+    const tauMin = Math.max(earliest, 1e-9 * scaled.timeScale_s) / timeScale
     const count = Math.min(MAX_MODES, Math.max(MIN_MODES, options.minModes ?? 1, modesFor(tauMin, stage.inner.type === 'fixed' || stage.outer.type === 'fixed')))
     const basis = modalBasis({
       geometry: domain.geometry,
@@ -215,7 +216,6 @@ export function solveTemperatureDependent(problem: CooldownProblem, options: Sol
     let t = start_s
     // The first step resolves the fastest mode (its exact decay, not the L-stable damping): right after a
     // sudden surface change the fast modes carry the field near the surface, and a damped start rings at the centre.
-    const timeScale = timeScaleAt(problem, profile(0.5))
     let dt = Math.min(1e-3 * timeScale, FIRST_STEP_SHARE / Math.max(...startSeries.rates_per_s))
     let openEnd: FrozenSeries | null = null
     // Rejected steps add no sub-step, so the attempts are capped too: twice the sub-steps allows a rejection per step.
